@@ -1,0 +1,34 @@
+import 'server-only';
+import { getDb, closeDb } from '@/db/knex';
+import { seedDemo } from '@/db/seed/demo';
+import { env } from '@/lib/env';
+
+// npm run db:migrate | db:rollback | db:seed [-- --reset]
+async function main(): Promise<void> {
+  const [command, ...flags] = process.argv.slice(2);
+  const db = getDb();
+  try {
+    if (command === 'migrate') {
+      const [batch, names] = await db.migrate.latest();
+      console.log(names.length ? `Migrated (batch ${batch}): ${names.join(', ')}` : 'Database is up to date.');
+    } else if (command === 'rollback') {
+      const [batch, names] = await db.migrate.rollback(undefined, flags.includes('--all'));
+      console.log(names.length ? `Rolled back batch ${batch}: ${names.join(', ')}` : 'Nothing to roll back.');
+    } else if (command === 'seed') {
+      await db.migrate.latest();
+      const result = await seedDemo({ reset: flags.includes('--reset') });
+      console.log(result);
+    } else {
+      console.error('Usage: tsx db/cli.ts migrate | rollback [--all] | seed [--reset]');
+      process.exitCode = 2;
+    }
+    console.log(`Database file: ${env().DATABASE_FILE}`);
+  } finally {
+    await closeDb();
+  }
+}
+
+main().catch((err) => {
+  console.error(err instanceof Error ? err.message : err);
+  process.exitCode = 1;
+});

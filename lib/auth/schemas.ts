@@ -1,0 +1,38 @@
+import { z } from 'zod';
+
+// Shared by the forms in the browser and the route handlers.
+export const emailField = z.email('Enter an e-mail address such as name@firm.com.').max(254, 'E-mail addresses are at most 254 characters.').transform((s) => s.toLowerCase());
+export const passwordField = z.string().min(10, 'Use at least 10 characters.').max(200, 'Use at most 200 characters.');
+export const nameField = z.string().trim().min(1, 'Enter a name.').max(120, 'Use at most 120 characters.');
+
+export const signUpSchema = z.object({
+  firmName: z.string().trim().min(2, 'Enter your firm’s name (at least 2 characters).').max(120, 'Use at most 120 characters.'),
+  name: nameField,
+  email: emailField,
+  password: passwordField,
+});
+
+export const inviteSchema = z.object({
+  email: emailField,
+  role: z.enum(['author', 'checker'], { message: 'Choose author or checker.' }),
+});
+
+export const roleChangeSchema = z.object({ role: z.enum(['owner', 'author', 'checker'], { message: 'Choose owner, author or checker.' }) });
+
+export const acceptInvitationSchema = z.object({
+  token: z.string().min(20).max(200),
+  name: nameField.optional(),
+  password: z.string().min(1, 'Enter a password.').max(200),
+});
+
+export const settingsSchema = z
+  .object({
+    name: z.string().trim().min(2, 'Enter the firm’s name (at least 2 characters).').max(120),
+    unitsDefault: z.enum(['mm', 'um', 'in'], { message: 'Choose mm, µm or in.' }),
+    currencyDefault: z.string().regex(/^[A-Z]{3}$/, 'Use a three-letter ISO 4217 code such as EUR, GBP or USD.'),
+    brandColor: z.string().regex(/^#[0-9a-fA-F]{6}$/, 'Use a colour such as #1f887b.').transform((s) => s.toLowerCase()),
+    requireCheck: z.boolean(),
+    paperSize: z.enum(['A4', 'Letter'], { message: 'Choose A4 or Letter.' }),
+  })
+  .partial()
+  .strict();

@@ -1,0 +1,78 @@
+import 'server-only';
+import { randomUUID } from 'node:crypto';
+import { NextResponse, type NextRequest } from 'next/server';
+import { z } from 'zod';
+import { AppError, validationError, type ErrorBody } from '@/lib/http/errors';
+import { env } from '@/lib/env';
+
+/** The single mapper from thrown errors to HTTP responses. */
+export function toErrorResponse(err: unknown): NextResponse<ErrorBody> {
+  if (err instanceof z.ZodError) err = validationError(err);
+  if (err instanceof AppError) {
+    const headers: Record<string, string> = {};
+    if (err.retryAfter) headers['Retry-After'] = String(err.retryAfter);
+    return NextResponse.json(
+      { error: { code: err.code, message: err.message, fields: err.fields, retryAfter: err.retryAfter } },
+      { status: err.status, headers },
+    );
+  }
+  const id = randomUUID();
+  console.error(`[error ${id}]`, err);
+  return NextResponse.json(
+    { error: { code: 'internal', message: `Something went wrong on our side. Quote reference ${id} if it persists.`, id } },
+    { status: 500 },
+  );
+}
+
+type Ctx<P> = { params: Promise<P> };
+
+/** Wraps a route handler: errors of any kind go through `toErrorResponse`. */
+export function route<P = Record<string, string>>(
+  fn: (req: NextRequest, ctx: Ctx<P>) => Promise<Response>,
+): (req: NextRequest, ctx: Ctx<P>) => Promise<Response> {
+  return async (req, ctx) => {
+    try {
+      if (!['GET', 'HEAD', 'OPTIONS'].includes(req.method)) assertSameOrigin(req);
+      return await fn(req, ctx);
+    } catch (err) {
+      return toErrorResponse(err);
+    }
+  };
+}
+
+/**
+ * Cross-site form posts are refused: a state-changing request from a browser must come from our own origin.
+ * Requests without an Origin header (server-to-server API clients with a key) pass; cookies are SameSite=Lax too.
+ */
+function assertSameOrigin(req: NextRequest): void {
+  const origin = req.headers.get('origin');
+  if (!origin) return;
+  const allowed = new Set([new URL(env().APP_URL).origin, req.nextUrl.origin]);
+  if (!allowed.has(origin)) throw new AppError('forbidden', 'Cross-site request refused: this action must come from the Stochos app itself.');
+}
+
+/** Parses a JSON body with a zod schema; wrong content type → 415, malformed JSON → 400, bad fields → 422. */
+export async function readJson<T extends z.ZodType>(req: Request, schema: T): Promise<z.infer<T>> {
+  const type = req.headers.get('content-type') ?? '';
+  if (!type.toLowerCase().startsWith('application/json')) {
+    throw new AppError('unsupported_media_type', 'Send the request body as JSON (Content-Type: application/json).');
+  }
+  let body: unknown;
+  try {
+    body = await req.json();
+  } catch {
+    throw new AppError('bad_request', 'The request body is not valid JSON.');
+  }
+  const parsed = schema.safeParse(body);
+  if (!parsed.success) throw validationError(parsed.error);
+  return parsed.data;
+}
+
+export function parseParams<T extends z.ZodType>(params: unknown, schema: T): z.infer<T> {
+  const parsed = schema.safeParse(params);
+  if (!parsed.success) throw new AppError('not_found', 'That record was not found.');
+  return parsed.data;
+}
+
+export const json = <T>(data: T, status = 200) => NextResponse.json(data, { status });
+export const noContent = () => new NextResponse(null, { status: 204 });

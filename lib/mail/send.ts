@@ -1,0 +1,48 @@
+import 'server-only';
+import nodemailer, { type Transporter } from 'nodemailer';
+import { env } from '@/lib/env';
+
+let transport: Transporter | null = null;
+
+function getTransport(): Transporter {
+  if (transport) return transport;
+  const e = env();
+  transport = nodemailer.createTransport({
+    host: e.SMTP_HOST,
+    port: e.SMTP_PORT,
+    secure: e.SMTP_SECURE,
+    auth: e.SMTP_USER ? { user: e.SMTP_USER, pass: e.SMTP_PASS ?? '' } : undefined,
+    // The local fake speaks plain SMTP; a real relay negotiates TLS as usual.
+    ignoreTLS: !e.realSmtp,
+  });
+  return transport;
+}
+
+export interface Mail {
+  to: string;
+  subject: string;
+  text: string;
+  html?: string;
+  attachments?: { filename: string; content: Buffer; contentType: string }[];
+}
+
+export async function sendMail(mail: Mail): Promise<void> {
+  await getTransport().sendMail({ from: env().MAIL_FROM, ...mail });
+}
+
+export function resetMailTransport(): void {
+  transport = null;
+}
+
+const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+
+/** A plain, readable message with one call-to-action link, as text and HTML. */
+export function linkMail(to: string, subject: string, lines: string[], action: { label: string; url: string }): Mail {
+  const text = [...lines, '', `${action.label}: ${action.url}`, '', '— Stochos'].join('\n');
+  const html = `<div style="font-family:system-ui,sans-serif;color:#222d36;max-width:520px">${lines
+    .map((l) => `<p>${escapeHtml(l)}</p>`)
+    .join('')}<p><a href="${escapeHtml(action.url)}" style="display:inline-block;background:#176d63;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${escapeHtml(
+    action.label,
+  )}</a></p><p style="color:#5a6b78;font-size:13px">Or paste this address into your browser: ${escapeHtml(action.url)}</p></div>`;
+  return { to, subject, text, html };
+}
