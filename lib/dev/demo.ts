@@ -1,0 +1,42 @@
+import path from 'node:path';
+import { startStack } from '@/lib/dev/stack';
+import { DEMO_PASSWORD, DEMO_PEOPLE } from '@/db/seed/demo';
+
+// `npm run demo`: the app with its database, demo data and local fakes, on fixed local ports.
+async function main(): Promise<void> {
+  const port = Number(process.env.PORT ?? 3000);
+  const stack = await startStack({
+    dataDir: path.resolve(process.env.STOCHOS_DATA_DIR ?? '.data/demo'),
+    appPort: port,
+    smtpPort: 2525,
+    mailboxPort: 2526,
+    stripePort: 12111,
+    hostPagePort: 4100,
+    seed: true,
+  });
+  const lines = [
+    '',
+    '  Stochos is running.',
+    '',
+    `  Open            ${stack.appUrl}`,
+    `  Sign in at      ${stack.appUrl}/sign-in   (password for every demo person: ${DEMO_PASSWORD})`,
+    ...DEMO_PEOPLE.map((p) => `    ${p.role.padEnd(8)} ${p.email.padEnd(28)} ${p.name}`),
+    `  Mailbox (local) ${stack.appUrl}/dev/mailbox   every e-mail the app sends lands here`,
+    `  Payments        local test Stripe at ${stack.stripeUrl} (card 4242 4242 4242 4242 succeeds, 4000 0000 0000 0002 is declined)`,
+    '',
+    '  Press Ctrl+C to stop.',
+    '',
+  ];
+  console.log(lines.join('\n'));
+  const stop = async () => {
+    await stack.stop();
+    process.exit(0);
+  };
+  process.on('SIGINT', stop);
+  process.on('SIGTERM', stop);
+}
+
+main().catch((err) => {
+  console.error(err instanceof Error ? err.message : err);
+  process.exit(1);
+});

@@ -1,0 +1,96 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import path from 'node:path';
+import fs from 'node:fs';
+import { startFakeSmtp } from '@/lib/fakes/smtp/server';
+import { startFakeStripe } from '@/lib/fakes/stripe/server';
+
+/**
+ * Starts everything the product needs on one machine: the local SMTP fake, the local Stripe fake,
+ * a migrated (and optionally seeded) SQLite database and `next start`. Used by `npm run demo` and the tests.
+ */
+export interface StackOptions {
+  dataDir: string;
+  appPort: number;
+  smtpPort: number;
+  mailboxPort: number;
+  stripePort: number;
+  hostPagePort?: number;
+  seed: boolean;
+  extraEnv?: Record<string, string>;
+  quiet?: boolean;
+}
+
+export interface Stack {
+  appUrl: string;
+  mailboxUrl: string;
+  stripeUrl: string;
+  env: Record<string, string>;
+  seedMessage: string;
+  stop(): Promise<void>;
+}
+
+const WEBHOOK_SECRET = 'whsec_stochos_local_fake_secret';
+
+export async function startStack(o: StackOptions): Promise<Stack> {
+  fs.mkdirSync(o.dataDir, { recursive: true });
+  const appUrl = `http://localhost:${o.appPort}`;
+  const env: Record<string, string> = {
+    DATABASE_FILE: path.join(o.dataDir, 'stochos.sqlite'),
+    APP_URL: appUrl,
+    NEXTAUTH_URL: appUrl,
+    STOCHOS_DEMO: '1',
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: String(o.smtpPort),
+    FAKE_MAILBOX_URL: `http://127.0.0.1:${o.mailboxPort}`,
+    FAKE_STRIPE_URL: `http://127.0.0.1:${o.stripePort}`,
+    STRIPE_WEBHOOK_SECRET: WEBHOOK_SECRET,
+    NEXT_TELEMETRY_DISABLED: '1',
+    ...o.extraEnv,
+  };
+  Object.assign(process.env, env);
+
+  const { migrateAndSeed } = await import('@/lib/dev/migrate-and-seed');
+  const seedMessage = await migrateAndSeed(o.seed);
+
+  const smtp = await startFakeSmtp({ smtpPort: o.smtpPort, httpPort: o.mailboxPort, dir: path.join(o.dataDir, 'mailbox') });
+  const stripe = await startFakeStripe({
+    port: o.stripePort,
+    stateFile: path.join(o.dataDir, 'fake-stripe.json'),
+    webhookUrl: `${appUrl}/api/webhooks/stripe`,
+    webhookSecret: WEBHOOK_SECRET,
+    publicUrl: `http://localhost:${o.stripePort}`,
+  });
+
+  const next = spawn(process.execPath, [require.resolve('next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
+    env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
+    stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
+  });
+  await waitForHttp(`${appUrl}/`, next);
+
+  return {
+    appUrl,
+    mailboxUrl: `http://127.0.0.1:${o.mailboxPort}`,
+    stripeUrl: `http://127.0.0.1:${o.stripePort}`,
+    env,
+    async stop() {
+      next.kill('SIGTERM');
+      await Promise.allSettled([smtp.close(), stripe.close()]);
+    },
+    seedMessage,
+  };
+}
+
+async function waitForHttp(url: string, child: ChildProcess, timeoutMs = 60_000): Promise<void> {
+  const start = Date.now();
+  while (Date.now() - start < timeoutMs) {
+    if (child.exitCode !== null) throw new Error(`next start exited with code ${child.exitCode}. Did \`npm run build\` run?`);
+    try {
+      const res = await fetch(url, { redirect: 'manual' });
+      if (res.status < 500) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`${url} did not answer within ${timeoutMs / 1000} s`);
+}

@@ -1,0 +1,31 @@
+import os from 'node:os';
+import path from 'node:path';
+import fs from 'node:fs';
+import type { TestProject } from 'vitest/node';
+import { startStack, type Stack } from '@/lib/dev/stack';
+
+declare module 'vitest' {
+  export interface ProvidedContext {
+    appUrl: string;
+    mailboxUrl: string;
+    stripeUrl: string;
+    dataDir: string;
+  }
+}
+
+let stack: Stack | null = null;
+
+// Starts the production build with fresh data and the local fakes once for all API tests.
+export async function setup(project: TestProject): Promise<void> {
+  if (!fs.existsSync('.next/BUILD_ID')) throw new Error('No production build: run `npm run build` before the API tests.');
+  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'stochos-api-'));
+  stack = await startStack({ dataDir, appPort: 3100, smtpPort: 2625, mailboxPort: 2626, stripePort: 12211, hostPagePort: 4200, seed: true, quiet: true });
+  project.provide('appUrl', stack.appUrl);
+  project.provide('mailboxUrl', stack.mailboxUrl);
+  project.provide('stripeUrl', stack.stripeUrl);
+  project.provide('dataDir', dataDir);
+}
+
+export async function teardown(): Promise<void> {
+  await stack?.stop();
+}

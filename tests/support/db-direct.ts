@@ -1,0 +1,38 @@
+import Database from 'better-sqlite3';
+import path from 'node:path';
+import { randomUUID, createHash, randomBytes } from 'node:crypto';
+
+// Direct writes to the test database, for setting up targets that the API under test then acts on.
+export function openTestDb(dataDir: string): Database.Database {
+  const db = new Database(path.join(dataDir, 'stochos.sqlite'));
+  db.pragma('busy_timeout = 5000');
+  return db;
+}
+
+export function firmIdOf(db: Database.Database, email: string): string {
+  return (db.prepare("select m.firm_id from memberships m join users u on u.id = m.user_id where u.email = ? and m.status = 'active'").get(email) as { firm_id: string }).firm_id;
+}
+
+export function insertInvitation(db: Database.Database, firmId: string, role = 'author'): { id: string; token: string } {
+  const id = randomUUID();
+  const token = randomBytes(32).toString('base64url');
+  db.prepare('insert into invitations (id, firm_id, email, role, token_hash, expires_at, created_at) values (?,?,?,?,?,?,?)').run(
+    id,
+    firmId,
+    `direct-${id}@test-firm.example`,
+    role,
+    createHash('sha256').update(token).digest('hex'),
+    new Date(Date.now() + 86_400_000).toISOString(),
+    new Date().toISOString(),
+  );
+  return { id, token };
+}
+
+export function insertMember(db: Database.Database, firmId: string, role: string, status: 'active' | 'removed'): string {
+  const userId = randomUUID();
+  const id = randomUUID();
+  const now = new Date().toISOString();
+  db.prepare('insert into users (id, email, name, created_at) values (?,?,?,?)').run(userId, `direct-${userId}@test-firm.example`, 'Direct Member', now);
+  db.prepare('insert into memberships (id, firm_id, user_id, role, status, created_at, updated_at) values (?,?,?,?,?,?,?)').run(id, firmId, userId, role, status, now, now);
+  return id;
+}

@@ -1,0 +1,32 @@
+import { Client, uniqueEmail } from './http-client';
+import { waitForMessage, firstLink } from './mailbox';
+
+export const PASSWORD = 'correct horse battery';
+
+/** Signs up a new firm through the API and returns its owner, signed in. */
+export async function newFirm(appUrl: string, tag = 'owner'): Promise<{ owner: Client; email: string }> {
+  const owner = new Client(appUrl);
+  const email = uniqueEmail(tag);
+  const res = await owner.post('/api/sign-up', { firmName: `Test firm ${tag}`, name: 'Olive Owner', email, password: PASSWORD });
+  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${await res.text()}`);
+  const s = await owner.signIn(email, PASSWORD);
+  if (!s.ok) throw new Error(`sign-in failed: ${s.error}`);
+  return { owner, email };
+}
+
+/** Invites a member, reads the invitation from the local mailbox, accepts it and signs the member in. */
+export async function addMember(appUrl: string, mailboxUrl: string, owner: Client, role: 'author' | 'checker'): Promise<{ client: Client; email: string; membershipId: string }> {
+  const email = uniqueEmail(role);
+  const inv = await owner.post('/api/team/invitations', { email, role });
+  if (inv.status !== 201) throw new Error(`invite failed: ${inv.status} ${await inv.text()}`);
+  const msg = await waitForMessage(mailboxUrl, email, /invited you/);
+  const token = firstLink(msg.text, /\/invite\/[A-Za-z0-9_-]+/).split('/').pop()!;
+  const client = new Client(appUrl);
+  const acc = await client.post('/api/invitations/accept', { token, name: `Test ${role}`, password: PASSWORD });
+  if (acc.status !== 201) throw new Error(`accept failed: ${acc.status} ${await acc.text()}`);
+  const s = await client.signIn(email, PASSWORD);
+  if (!s.ok) throw new Error(`member sign-in failed: ${s.error}`);
+  const team = await owner.json<{ members: { id: string; email: string }[] }>('GET', '/api/team');
+  const membershipId = team.body.members.find((m) => m.email === email)!.id;
+  return { client, email, membershipId };
+}
