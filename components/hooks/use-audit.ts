@@ -1,0 +1,39 @@
+'use client';
+
+import useSWRInfinite from 'swr/infinite';
+import { fetcher } from '@/lib/client/api';
+
+export interface AuditEntry {
+  id: number;
+  at: string;
+  action: string;
+  targetType: string | null;
+  targetId: string | null;
+  detail: Record<string, unknown> | null;
+  actorName: string | null;
+  actorEmail: string | null;
+}
+
+export interface AuditPage {
+  entries: AuditEntry[];
+  nextBefore: number | null;
+}
+
+/** The audit log, newest first, one page at a time ("Load older" asks for the next page). */
+export function useAudit() {
+  const swr = useSWRInfinite<AuditPage>(
+    (index, previous: AuditPage | null) => {
+      if (index === 0) return '/api/audit';
+      if (!previous?.nextBefore) return null;
+      return `/api/audit?before=${previous.nextBefore}`;
+    },
+    fetcher,
+    { revalidateFirstPage: true },
+  );
+  const pages = swr.data ?? [];
+  const entries = pages.flatMap((p) => p.entries);
+  const last = pages[pages.length - 1];
+  const hasOlder = Boolean(last?.nextBefore);
+  const loadingOlder = swr.isValidating && swr.size > pages.length;
+  return { ...swr, entries, hasOlder, loadingOlder, loadOlder: () => swr.setSize(swr.size + 1) };
+}
