@@ -4,14 +4,15 @@ import { DEMO_PASSWORD, DEMO_PEOPLE } from '@/db/seed/demo';
 
 // `npm run demo`: the app with its database, demo data and local fakes, on fixed local ports.
 async function main(): Promise<void> {
-  const port = Number(process.env.PORT ?? 3000);
+  // Ports can be moved when several copies run on one machine (PORT, DEMO_SMTP_PORT, ...).
+  const port = (name: string, fallback: number) => Number(process.env[name] ?? fallback);
   const stack = await startStack({
     dataDir: path.resolve(process.env.STOCHOS_DATA_DIR ?? '.data/demo'),
-    appPort: port,
-    smtpPort: 2525,
-    mailboxPort: 2526,
-    stripePort: 12111,
-    hostPagePort: 4100,
+    appPort: port('PORT', 3000),
+    smtpPort: port('DEMO_SMTP_PORT', 2525),
+    mailboxPort: port('DEMO_MAILBOX_PORT', 2526),
+    stripePort: port('DEMO_STRIPE_PORT', 12111),
+    hostPagePort: port('DEMO_HOST_PORT', 4100),
     seed: true,
   });
   const lines = [
