@@ -36,3 +36,17 @@ export function insertMember(db: Database.Database, firmId: string, role: string
   db.prepare('insert into memberships (id, firm_id, user_id, role, status, created_at, updated_at) values (?,?,?,?,?,?,?)').run(id, firmId, userId, role, status, now, now);
   return id;
 }
+
+export function insertApiKey(db: Database.Database, firmId: string): { id: string; secret: string } {
+  const id = randomUUID();
+  const secret = `stk_${randomBytes(24).toString('base64url')}`;
+  db.prepare('insert into api_keys (id, firm_id, name, prefix, key_hash, created_at) values (?,?,?,?,?,?)').run(
+    id,
+    firmId,
+    'direct key',
+    secret.slice(0, 10),
+    createHash('sha256').update(secret).digest('hex'),
+    new Date().toISOString(),
+  );
+  return { id, secret };
+}
