@@ -1,0 +1,198 @@
+import 'server-only';
+import type { Knex } from 'knex';
+import { getDb } from '@/db/knex';
+import { newId, nowIso } from '@/db/ids';
+import type { CheckState, TemplateId } from '@/db/models';
+
+// Published widgets: a checked version of a model plus how a client sees it. Scoped by firm.
+
+export interface WidgetRecord {
+  id: string;
+  firmId: string;
+  modelId: string;
+  modelTitle: string;
+  template: TemplateId;
+  versionId: string;
+  versionNumber: number;
+  versionCheckState: CheckState;
+  title: string;
+  panels: string[];
+  headline: string;
+  dialIds: string[];
+  brandColor: string;
+  showLogo: boolean;
+  publishedBy: string | null;
+  publishedByName: string | null;
+  publishedAt: string;
+  updatedAt: string;
+  unpublishedAt: string | null;
+}
+
+/** A live widget with everything a viewer's page or a snapshot needs: the version's model and its sign-off. */
+export interface PublishedWidget extends WidgetRecord {
+  model: unknown;
+  versionCreatedAt: string;
+  authorName: string | null;
+  checkerName: string | null;
+  checkedAt: string | null;
+  firmName: string;
+}
+
+const COLUMNS = [
+  'w.id',
+  'w.firm_id',
+  'w.model_id',
+  'w.version_id',
+  'w.title',
+  'w.panels',
+  'w.headline',
+  'w.dial_ids',
+  'w.brand_color',
+  'w.show_logo',
+  'w.published_by',
+  'w.published_at',
+  'w.updated_at',
+  'w.unpublished_at',
+  'm.title as model_title',
+  'm.template',
+  'v.number as version_number',
+  'v.check_state as version_check_state',
+  'pu.name as published_by_name',
+];
+
+function base(trx?: Knex.Transaction) {
+  return (trx ?? getDb())('widgets as w')
+    .join('models as m', 'm.id', 'w.model_id')
+    .join('model_versions as v', 'v.id', 'w.version_id')
+    .leftJoin('users as pu', 'pu.id', 'w.published_by');
+}
+
+function toWidget(r: Record<string, unknown>): WidgetRecord {
+  return {
+    id: r.id as string,
+    firmId: r.firm_id as string,
+    modelId: r.model_id as string,
+    modelTitle: r.model_title as string,
+    template: r.template as TemplateId,
+    versionId: r.version_id as string,
+    versionNumber: Number(r.version_number),
+    versionCheckState: r.version_check_state as CheckState,
+    title: r.title as string,
+    panels: JSON.parse(r.panels as string) as string[],
+    headline: r.headline as string,
+    dialIds: JSON.parse(r.dial_ids as string) as string[],
+    brandColor: r.brand_color as string,
+    showLogo: Boolean(r.show_logo),
+    publishedBy: (r.published_by as string | null) ?? null,
+    publishedByName: (r.published_by_name as string | null) ?? null,
+    publishedAt: r.published_at as string,
+    updatedAt: r.updated_at as string,
+    unpublishedAt: (r.unpublished_at as string | null) ?? null,
+  };
+}
+
+export async function listWidgets(firmId: string, opts: { includeUnpublished?: boolean; modelId?: string } = {}): Promise<WidgetRecord[]> {
+  const q = base().where('w.firm_id', firmId).select(COLUMNS).orderBy('w.published_at', 'desc');
+  if (!opts.includeUnpublished) q.whereNull('w.unpublished_at');
+  if (opts.modelId) q.where('w.model_id', opts.modelId);
+  return (await q).map(toWidget);
+}
+
+export async function getWidget(firmId: string, id: string, trx?: Knex.Transaction): Promise<WidgetRecord | null> {
+  const r = await base(trx).where({ 'w.firm_id': firmId, 'w.id': id }).select(COLUMNS).first();
+  return r ? toWidget(r) : null;
+}
+
+export async function getLiveWidgetForModel(firmId: string, modelId: string, trx?: Knex.Transaction): Promise<WidgetRecord | null> {
+  const r = await base(trx).where({ 'w.firm_id': firmId, 'w.model_id': modelId }).whereNull('w.unpublished_at').select(COLUMNS).first();
+  return r ? toWidget(r) : null;
+}
+
+/**
+ * For the client-facing side (embed pages, snapshots): a live widget of a live (not archived) model, with the
+ * published version's model JSON and sign-off. Null when the widget was taken down or belongs to another firm.
+ */
+export async function getPublishedWidget(firmId: string, id: string, trx?: Knex.Transaction): Promise<PublishedWidget | null> {
+  const r = await base(trx)
+    .join('firms as f', 'f.id', 'w.firm_id')
+    .leftJoin('users as au', 'au.id', 'v.author_id')
+    .leftJoin('users as cu', 'cu.id', 'v.checker_id')
+    .where({ 'w.firm_id': firmId, 'w.id': id })
+    .whereNull('w.unpublished_at')
+    .whereNull('m.archived_at')
+    .select([...COLUMNS, 'v.model_json', 'v.created_at as version_created_at', 'au.name as author_name', 'cu.name as checker_name', 'v.checked_at', 'f.name as firm_name'])
+    .first();
+  if (!r) return null;
+  return {
+    ...toWidget(r),
+    model: JSON.parse(r.model_json),
+    versionCreatedAt: r.version_created_at,
+    authorName: r.author_name ?? null,
+    checkerName: r.checker_name ?? null,
+    checkedAt: r.checked_at ?? null,
+    firmName: r.firm_name,
+  };
+}
+
+export interface WidgetFields {
+  title: string;
+  panels: string[];
+  headline: string;
+  dialIds: string[];
+  brandColor: string;
+  showLogo: boolean;
+}
+
+export async function insertWidget(
+  w: WidgetFields & { firmId: string; modelId: string; versionId: string; userId: string },
+  trx: Knex.Transaction,
+): Promise<string> {
+  const id = newId();
+  const now = nowIso();
+  await trx('widgets').insert({
+    id,
+    firm_id: w.firmId,
+    model_id: w.modelId,
+    version_id: w.versionId,
+    title: w.title,
+    panels: JSON.stringify(w.panels),
+    headline: w.headline,
+    dial_ids: JSON.stringify(w.dialIds),
+    brand_color: w.brandColor,
+    show_logo: w.showLogo,
+    published_by: w.userId,
+    published_at: now,
+    updated_by: w.userId,
+    updated_at: now,
+  });
+  return id;
+}
+
+/** Changes presentation and/or moves the widget to another version (an explicit republish). */
+export async function updateWidget(
+  firmId: string,
+  id: string,
+  patch: Partial<WidgetFields> & { versionId?: string; userId: string },
+  trx: Knex.Transaction,
+): Promise<void> {
+  const now = nowIso();
+  const row: Record<string, unknown> = { updated_by: patch.userId, updated_at: now };
+  if (patch.title !== undefined) row.title = patch.title;
+  if (patch.panels !== undefined) row.panels = JSON.stringify(patch.panels);
+  if (patch.headline !== undefined) row.headline = patch.headline;
+  if (patch.dialIds !== undefined) row.dial_ids = JSON.stringify(patch.dialIds);
+  if (patch.brandColor !== undefined) row.brand_color = patch.brandColor;
+  if (patch.showLogo !== undefined) row.show_logo = patch.showLogo;
+  if (patch.versionId !== undefined) {
+    row.version_id = patch.versionId;
+    row.published_by = patch.userId;
+    row.published_at = now;
+  }
+  await trx('widgets').where({ firm_id: firmId, id }).whereNull('unpublished_at').update(row);
+}
+
+export async function unpublishWidget(firmId: string, id: string, userId: string, trx: Knex.Transaction): Promise<boolean> {
+  const now = nowIso();
+  const n = await trx('widgets').where({ firm_id: firmId, id }).whereNull('unpublished_at').update({ unpublished_at: now, unpublished_by: userId, updated_by: userId, updated_at: now });
+  return n === 1;
+}
