@@ -1,6 +1,7 @@
 import 'server-only';
 import { getServerSession } from 'next-auth';
 import { redirect } from 'next/navigation';
+import { cookies } from 'next/headers';
 import { authOptions } from '@/lib/auth/options';
 import { getActiveMember, touchLastActive, type SessionMember } from '@/db/users';
 import { AppError } from '@/lib/http/errors';
@@ -13,6 +14,8 @@ export type Member = SessionMember;
  * so a role change or a removal takes effect on the member's very next request.
  */
 export async function currentMember(): Promise<Member | null> {
+  // Reading cookies first marks every guarded page as dynamic, so nothing signed-in is prerendered at build time.
+  await cookies();
   const session = (await getServerSession(authOptions())) as { userId?: string; sv?: number } | null;
   if (!session?.userId) return null;
   const member = await getActiveMember(session.userId);
