@@ -18,6 +18,8 @@ export interface ConfirmButtonProps {
   confirmVariant?: ButtonVariant;
   size?: ButtonSize;
   disabled?: boolean;
+  /** Accessible name of the first button when its text alone is ambiguous, e.g. "Remove Ada Fenwick". */
+  ariaLabel?: string;
   className?: string;
 }
 
@@ -33,6 +35,7 @@ export function ConfirmButton({
   confirmVariant = 'danger',
   size = 'sm',
   disabled,
+  ariaLabel,
   className,
 }: ConfirmButtonProps) {
   const [asking, setAsking] = useState(false);
@@ -62,7 +65,7 @@ export function ConfirmButton({
 
   if (!asking) {
     return (
-      <Button ref={triggerRef} variant={variant} size={size} disabled={disabled} className={className} onClick={() => setAsking(true)}>
+      <Button ref={triggerRef} variant={variant} size={size} disabled={disabled} aria-label={ariaLabel} className={className} onClick={() => setAsking(true)}>
         {children}
       </Button>
     );

@@ -1,0 +1,15 @@
+import { requirePageMember } from '@/lib/auth/guard';
+import { can } from '@/lib/auth/permissions';
+import { DashboardShell } from '@/components/shell/dashboard-shell';
+import { NAV } from '@/components/shell/nav';
+import { ROLE_LABELS } from '@/components/shell/roles';
+
+export default async function DashboardLayout({ children }: { children: React.ReactNode }) {
+  const member = await requirePageMember('firm.read');
+  const nav = NAV.filter((item) => can(member.role, item.permission)).map(({ href, label, icon }) => ({ href, label, icon }));
+  return (
+    <DashboardShell firmName={member.firmName} userName={member.name} userEmail={member.email} roleLabel={ROLE_LABELS[member.role]} nav={nav}>
+      {children}
+    </DashboardShell>
+  );
+}

@@ -1,0 +1,17 @@
+import type { Metadata } from 'next';
+import { requirePageMember } from '@/lib/auth/guard';
+import { can } from '@/lib/auth/permissions';
+import { PageHeader } from '@/components/ui/page-header';
+import { SettingsForm } from '@/components/settings/settings-form';
+
+export const metadata: Metadata = { title: 'Settings' };
+
+export default async function SettingsPage() {
+  const member = await requirePageMember('firm.read', '/app/settings');
+  return (
+    <>
+      <PageHeader title="Settings" description="Your firm’s name, defaults for new models, branding of widgets and snapshots, and the publishing rule." />
+      <SettingsForm canEdit={can(member.role, 'settings.manage')} />
+    </>
+  );
+}
