@@ -4,17 +4,21 @@ import useSWR from 'swr';
 import { ApiError, fetcher } from '@/lib/client/api';
 
 export interface MailAttachment {
-  filename: string;
+  index?: number;
+  filename: string | null;
   contentType: string;
   size: number;
 }
 
+/** One message of the local SMTP fake (see lib/fakes/smtp/server.ts). */
 export interface MailMessage {
   id: string;
-  from: string;
-  to: string;
+  receivedAt?: string;
+  date: string | null;
+  from: string | null;
+  fromName?: string | null;
+  to: string[] | string;
   subject: string;
-  date: string;
   text: string;
   html: string | null;
   attachments: MailAttachment[];
@@ -22,13 +26,16 @@ export interface MailMessage {
 
 export const MAILBOX_KEY = '/api/dev/mailbox';
 
-/** The development mailbox; polls every few seconds and stops polling when it is off (404). */
+const when = (m: MailMessage) => Date.parse(m.receivedAt ?? m.date ?? '') || 0;
+
+/** The development mailbox, newest first; polls every few seconds and stops when the mailbox is off (404). */
 export function useMailbox() {
-  const swr = useSWR<{ messages: MailMessage[] }>(MAILBOX_KEY, fetcher, {
+  const swr = useSWR<{ messages: MailMessage[] } | MailMessage[]>(MAILBOX_KEY, fetcher, {
     refreshInterval: (data) => (data ? 3000 : 0),
     shouldRetryOnError: (err: unknown) => !(err instanceof ApiError && err.status === 404),
   });
   const off = swr.error instanceof ApiError && swr.error.status === 404;
-  const messages = [...(swr.data?.messages ?? [])].sort((a, b) => Date.parse(b.date) - Date.parse(a.date));
+  const raw = Array.isArray(swr.data) ? swr.data : (swr.data?.messages ?? []);
+  const messages = [...raw].sort((a, b) => when(b) - when(a));
   return { ...swr, messages, off };
 }

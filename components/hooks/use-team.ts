@@ -24,9 +24,18 @@ export interface Invitation {
   invitedByName: string | null;
 }
 
+export interface SeatUsage {
+  allowed: number;
+  used: number;
+  pendingInvitations: number;
+  reason: string;
+}
+
 export interface Team {
   members: TeamMember[];
   invitations: Invitation[];
+  /** Seats are authors and checkers; the owner and client viewers are free. */
+  seats?: SeatUsage;
 }
 
 export const TEAM_KEY = '/api/team';
