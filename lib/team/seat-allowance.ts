@@ -1,18 +1,20 @@
 import 'server-only';
 import type { Knex } from 'knex';
-import { getFirm } from '@/db/firms';
+import { billingStatus } from '@/lib/billing/access';
+import { AppError } from '@/lib/http/errors';
 
-export const TRIAL_DAYS = 14;
-export const TRIAL_SEATS = 3;
+export { TRIAL_DAYS, TRIAL_SEATS } from '@/lib/billing/plan';
 
 /**
- * How many seats the firm may use now. A new firm has a 14-day trial with 3 seats;
- * paid subscriptions (billing) extend this.
+ * How many author and checker seats the firm may use now: 3 during the 14-day trial; once subscribed, the paid
+ * quantity while active, while past due within the 7-day grace period and, when cancelled, until the period ends.
  */
 export async function getSeatAllowance(firmId: string, trx?: Knex.Transaction): Promise<{ seats: number; reason: string }> {
-  const firm = await getFirm(firmId, trx);
-  if (!firm) return { seats: 0, reason: 'unknown firm' };
-  const trialEnds = Date.parse(firm.createdAt) + TRIAL_DAYS * 86_400_000;
-  if (Date.now() < trialEnds) return { seats: TRIAL_SEATS, reason: `trial until ${new Date(trialEnds).toISOString().slice(0, 10)}` };
-  return { seats: 0, reason: 'the trial has ended and no seats are paid' };
+  try {
+    const s = await billingStatus(firmId, trx);
+    return { seats: s.seats, reason: s.reason };
+  } catch (err) {
+    if (err instanceof AppError && err.code === 'not_found') return { seats: 0, reason: 'unknown firm' };
+    throw err;
+  }
 }

@@ -1,0 +1,11 @@
+import { route, readJson, json } from '@/lib/http/handler';
+import { requireMember } from '@/lib/auth/guard';
+import { checkoutSchema } from '@/lib/billing/schemas';
+import { startCheckout } from '@/lib/billing/service';
+
+// Opens a Checkout session for the signed-in owner's own firm; the browser is sent to the returned URL.
+export const POST = route(async (req) => {
+  const m = await requireMember('billing.manage');
+  const { seats } = await readJson(req, checkoutSchema);
+  return json(await startCheckout(m, seats), 201);
+});

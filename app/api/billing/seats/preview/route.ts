@@ -1,0 +1,11 @@
+import { route, readJson, json } from '@/lib/http/handler';
+import { requireMember } from '@/lib/auth/guard';
+import { seatPreviewSchema } from '@/lib/billing/schemas';
+import { previewSeatChange } from '@/lib/billing/service';
+
+// What a seat change would charge (or credit) now, without changing anything.
+export const POST = route(async (req) => {
+  const m = await requireMember('billing.manage');
+  const { seats } = await readJson(req, seatPreviewSchema);
+  return json({ preview: await previewSeatChange(m, seats) });
+});

@@ -1,0 +1,38 @@
+import { after } from 'next/server';
+import { route, json } from '@/lib/http/handler';
+import { AppError } from '@/lib/http/errors';
+import { verifyWebhook, stripe } from '@/lib/billing/stripe';
+import { processStripeEvent } from '@/lib/billing/webhooks';
+import { deliverNotices } from '@/lib/billing/mail';
+
+export const dynamic = 'force-dynamic';
+
+const deps = {
+  fetchSubscription: async (id: string) => {
+    try {
+      return await stripe().subscriptions.retrieve(id);
+    } catch (err) {
+      console.warn(`[billing] could not read subscription ${id} from Stripe; using the event's copy:`, err instanceof Error ? err.message : err);
+      return null;
+    }
+  },
+  now: () => Date.now(),
+  log: (line: string) => console.warn(`[billing webhook] ${line}`),
+};
+
+// Stripe calls this without cookies or an Origin header; the signature over the raw body is the credential.
+export const POST = route(async (req) => {
+  const raw = await req.text();
+  let event;
+  try {
+    event = verifyWebhook(raw, req.headers.get('stripe-signature'));
+  } catch (err) {
+    const text = err instanceof Error ? err.message : '';
+    const why = !req.headers.get('stripe-signature') ? 'no Stripe-Signature header' : /tolerance/i.test(text) ? 'the signature is too old' : 'the signature does not match this endpoint’s secret';
+    throw new AppError('bad_request', `Webhook refused: ${why}. Nothing was changed.`);
+  }
+  const result = await processStripeEvent(event, deps);
+  // E-mails go out after the response, so a slow mail relay never makes Stripe retry an event already applied.
+  if (result.notices.length) after(() => deliverNotices(result.notices));
+  return json({ received: true, outcome: result.outcome });
+});
