@@ -28,7 +28,12 @@ export class Deliverer {
     this.unsubscribe = fake.onWake(() => this.kick());
   }
 
+  /** A restart is a natural moment to retry: pending events are due at once, in order. */
   start(): void {
+    const now = Date.now();
+    for (const e of this.fake.state.events) {
+      if (e.delivery.status === 'pending') e.delivery.nextAttemptAt = Math.min(e.delivery.nextAttemptAt ?? now, now);
+    }
     this.kick();
   }
 

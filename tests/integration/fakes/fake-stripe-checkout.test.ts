@@ -1,6 +1,6 @@
 // The official Stripe SDK (stripe@23, API 2026-10-28.endive) against the local fake: customers,
 // checkout through the hosted page, signed webhooks, object shapes and Stripe-shaped errors.
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import Stripe from 'stripe';
 import type { FakeStripeHandle } from '@/lib/fakes/stripe/server';
 import { DECLINE_CARD, GOOD_CARD, SECRET, postForm, startFake, startReceiver, subscribe, type Receiver } from './stripe-support';
@@ -17,6 +17,11 @@ beforeAll(async () => {
 afterAll(async () => {
   await handle.close();
   await receiver.close();
+});
+
+// Let the previous test's deliveries land before clearing, so no event leaks into the next test.
+afterEach(async () => {
+  await handle.waitForWebhooks(10_000);
 });
 
 beforeEach(async () => {
