@@ -1,0 +1,42 @@
+import { z } from 'zod';
+import { NextResponse } from 'next/server';
+import { route, readJson } from '@/lib/http/handler';
+import { AppError } from '@/lib/http/errors';
+import { checkPass } from '@/lib/embed/access';
+import { viewerMessage } from '@/lib/embed/messages';
+import { normaliseOrigin } from '@/lib/embed/schemas';
+import { mintSessionToken } from '@/lib/embed/tokens';
+import { noteLoad } from '@/lib/embed/events';
+import type { EmbedSessionResponse } from '@/lib/embed/payload';
+
+// The embed page exchanges the pass from its URL for a short-lived bearer token kept in memory
+// (no cookies: a browser would not send them inside a cross-site frame anyway).
+const body = z
+  .object({
+    passId: z.string().max(64),
+    pass: z.string().min(1, 'The pass is missing.').max(2000),
+    origin: z.string().max(300).nullable().optional(),
+  })
+  .strict();
+
+export const POST = route(async (req) => {
+  const input = await readJson(req, body);
+  const r = await checkPass(input.passId, input.pass);
+  if (!r.ok) {
+    const msg = viewerMessage(r.failure, r.firmName);
+    throw new AppError(r.failure === 'mismatch' ? 'forbidden' : 'unauthorized', `${msg.title}. ${msg.body}`);
+  }
+  let origin: string | null = null;
+  if (input.origin) {
+    const o = normaliseOrigin(input.origin);
+    if (!o.ok || !r.client.allowedOrigins.includes(o.origin)) {
+      const msg = viewerMessage('origin', r.widget.firmName);
+      throw new AppError('forbidden', `${msg.title}. ${msg.body}`);
+    }
+    origin = o.origin;
+  }
+  const session = await mintSessionToken({ passId: r.pass.id, passJti: r.passJti, keyVersion: r.client.keyVersion, origin }, r.passExpiresAt);
+  await noteLoad(r.pass);
+  const res: EmbedSessionResponse = { token: session.token, expiresAt: session.expiresAt, passId: r.pass.id };
+  return NextResponse.json(res, { headers: { 'Cache-Control': 'no-store' } });
+});

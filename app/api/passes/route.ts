@@ -1,0 +1,23 @@
+import { z } from 'zod';
+import { route, readJson, json } from '@/lib/http/handler';
+import { requireMember } from '@/lib/auth/guard';
+import { validationError } from '@/lib/http/errors';
+import { listPasses } from '@/db/passes';
+import { passCreateSchema } from '@/lib/embed/schemas';
+import { createPass, passView } from '@/lib/embed/service';
+
+const filters = z.object({ clientId: z.uuid('clientId is not a valid id.').optional(), widgetId: z.uuid('widgetId is not a valid id.').optional() });
+
+export const GET = route(async (req) => {
+  const m = await requireMember('firm.read');
+  const parsed = filters.safeParse(Object.fromEntries(req.nextUrl.searchParams));
+  if (!parsed.success) throw validationError(parsed.error);
+  const passes = await Promise.all((await listPasses(m.firmId, parsed.data)).map(passView));
+  return json({ passes });
+});
+
+export const POST = route(async (req) => {
+  const m = await requireMember('clients.manage');
+  const input = await readJson(req, passCreateSchema);
+  return json({ pass: await passView(await createPass(m, input)) }, 201);
+});
