@@ -421,7 +421,8 @@ export class FakeStripe {
 
   // ---------- checkout ----------
 
-  createCheckoutSession(p: Params, ctx: RequestContext): Stripe.Checkout.Session {
+  /** Session creation emits no event at Stripe either. */
+  createCheckoutSession(p: Params): Stripe.Checkout.Session {
     return this.tx(() => {
       const mode = p.reqStr('mode');
       if (mode !== 'subscription') {

@@ -195,7 +195,7 @@ function api(fake: FakeStripe, method: string, path: string, p: Params, ctx: Req
 
     // checkout
     case 'POST /checkout/sessions':
-      return ok(fake.createCheckoutSession(p, ctx));
+      return ok(fake.createCheckoutSession(p));
     case 'GET /checkout/sessions': {
       const customer = p.str('customer');
       const subscription = p.str('subscription');
@@ -262,7 +262,7 @@ function api(fake: FakeStripe, method: string, path: string, p: Params, ctx: Req
       const found = Object.values(s.invoiceItems).filter(
         (x) => (!customer || x.customer === customer) && (pending === undefined || (x.invoice === null) === pending) && (!invoice || x.invoice === invoice),
       );
-      return ok(list(newestFirst(found.map((x) => ({ ...x, created: x.date }))).map(({ created: _c, ...x }) => x), p, '/v1/invoiceitems'));
+      return ok(list(found.map((x, i) => ({ x, i })).sort((a, b) => b.x.date - a.x.date || b.i - a.i).map(({ x }) => x), p, '/v1/invoiceitems'));
     }
 
     // events
@@ -332,7 +332,8 @@ function cardInput(f: Record<string, string>) {
 
 /** Echo what the buyer typed, except the security code. */
 function echo(f: Record<string, string>): Record<string, string> {
-  const { card_cvc: _cvc, ...rest } = f;
+  const rest = { ...f };
+  delete rest.card_cvc;
   return rest;
 }
 

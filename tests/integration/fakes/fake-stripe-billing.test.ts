@@ -39,10 +39,14 @@ function expectedProration(quantity: number, start: number, end: number, at: num
   return Math.sign(exact) * Math.round(Math.abs(exact));
 }
 
-async function admin(path: string): Promise<any> {
+interface AdvanceResponse {
+  advanced: { subscription: string; outcome: string; status: string; invoice: string }[];
+}
+
+async function admin(path: string): Promise<AdvanceResponse> {
   const res = await fetch(`${handle.url}${path}`, { method: 'POST' });
   expect(res.status).toBe(200);
-  return res.json();
+  return (await res.json()) as AdvanceResponse;
 }
 
 async function eventsOfType<T extends Stripe.Event>(type: string, count = 1): Promise<T[]> {
