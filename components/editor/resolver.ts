@@ -1,0 +1,74 @@
+// The editor's react-hook-form resolver: the engine's own model schema through @hookform/resolvers/zod (so the
+// browser says exactly what the server's 422 says), plus the whole-model checks the schema runs only once the
+// structure is sound (so an unknown name in a formula is flagged even while another field is still wrong), plus
+// validateModel's last check that each distribution can be sampled. No React: usable in unit tests.
+
+import { zodResolver } from '@hookform/resolvers/zod';
+import { get, set, type FieldError, type FieldErrors, type FieldValues, type Resolver, type ResolverOptions } from 'react-hook-form';
+import { modelSchema, semanticIssues, validateModel, type StochosModel } from '@/lib/engine/schema';
+import type { ModelIssue } from '@/lib/engine/errors';
+
+function addIssue(errors: FieldErrors, issue: ModelIssue): void {
+  const path = issue.path.map(String).join('.');
+  if (!path) {
+    const root = (errors.root ??= {} as FieldError) as FieldError & { types?: Record<string, string | string[]> };
+    if (!root.message) Object.assign(root, { type: 'custom', message: issue.message });
+    return;
+  }
+  const existing = get(errors, path) as (FieldError & { root?: FieldError; types?: Record<string, unknown> }) | undefined;
+  if (!existing) {
+    set(errors, path, { type: 'custom', message: issue.message });
+  } else if (!existing.message && !existing.root) {
+    // A list or object whose children already carry problems: keep this one as its root message.
+    existing.root = { type: 'custom', message: issue.message };
+  } else if (existing.message !== issue.message) {
+    const types = (existing.types ??= {}) as Record<string, unknown>;
+    const prev = types.semantic;
+    types.semantic = Array.isArray(prev) ? [...prev, issue.message] : typeof prev === 'string' ? [prev, issue.message] : issue.message;
+  }
+}
+
+/**
+ * Builds the resolver. `onResult` receives the validated model (defaults applied) when the draft is valid, else null.
+ */
+export function createModelResolver(onResult?: (model: StochosModel | null) => void): Resolver<FieldValues> {
+  const base = zodResolver(modelSchema) as unknown as Resolver<FieldValues>;
+  return async (values, context, options: ResolverOptions<FieldValues>) => {
+    const result = await base(values, context, { ...options, criteriaMode: 'all' });
+    const failed = Object.keys(result.errors).length > 0;
+    if (!failed) {
+      const checked = validateModel(result.values);
+      if (checked.ok) {
+        onResult?.(checked.model);
+        return { values: checked.model as unknown as FieldValues, errors: {} };
+      }
+      const errors: FieldErrors = {};
+      for (const issue of checked.issues) addIssue(errors, issue);
+      onResult?.(null);
+      return { values: {}, errors };
+    }
+    onResult?.(null);
+    // Whole-model rules on a draft whose structure is still partly wrong; they are written to tolerate that.
+    let extra: ModelIssue[] = [];
+    try {
+      extra = semanticIssues(values as StochosModel);
+    } catch {
+      extra = [];
+    }
+    if (!extra.length) return result;
+    const errors = structuredCloneErrors(result.errors);
+    for (const issue of extra) addIssue(errors, issue);
+    return { values: {}, errors };
+  };
+}
+
+/** Copies an error tree without the DOM refs react-hook-form attaches (refs cannot be cloned). */
+function structuredCloneErrors(tree: FieldErrors): FieldErrors {
+  const copy = (node: unknown): unknown => {
+    if (!node || typeof node !== 'object') return node;
+    const out: Record<string, unknown> = Array.isArray(node) ? ([] as unknown as Record<string, unknown>) : {};
+    for (const [k, v] of Object.entries(node)) out[k] = k === 'ref' ? v : copy(v);
+    return out;
+  };
+  return copy(tree) as FieldErrors;
+}
