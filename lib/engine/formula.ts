@@ -1,0 +1,692 @@
+/**
+ * The formula language: a small, safe expression language parsed by jsep (never eval or
+ * new Function), checked against a whitelist, and compiled into column-wise evaluation
+ * over Float64Arrays.
+ *
+ * Allowed: numbers, input / dial / earlier output names, pi, e; + - * / ^ (power, also
+ * **), unary minus, parentheses; comparisons < <= > >= == != (1 or 0), && || !;
+ * cond ? a : b and if(cond, a, b); functions FORMULA_FUNCTIONS. -x^2 means -(x^2) and
+ * powers associate to the right (2^3^2 = 2^9).
+ */
+import jsep from 'jsep';
+
+export type BinaryOp = '+' | '-' | '*' | '/' | '^' | '<' | '<=' | '>' | '>=' | '==' | '!=' | '&&' | '||';
+
+export type FormulaNode =
+  | { kind: 'num'; value: number }
+  | { kind: 'name'; name: string }
+  | { kind: 'neg'; arg: FormulaNode }
+  | { kind: 'not'; arg: FormulaNode }
+  | { kind: 'bin'; op: BinaryOp; left: FormulaNode; right: FormulaNode }
+  | { kind: 'call'; fn: FormulaFunction; args: FormulaNode[] }
+  | { kind: 'cond'; test: FormulaNode; then: FormulaNode; else: FormulaNode }
+  /** Internal (templates): constant + sum of coef * column, in one pass. */
+  | { kind: 'lin'; terms: { name: string; coef: number }[]; constant: number };
+
+/** Function name -> [minimum, maximum] argument count. */
+export const FORMULA_FUNCTIONS = {
+  min: [1, Infinity],
+  max: [1, Infinity],
+  sum: [1, Infinity],
+  mean: [1, Infinity],
+  abs: [1, 1],
+  sqrt: [1, 1],
+  exp: [1, 1],
+  ln: [1, 1],
+  log: [1, 1],
+  log10: [1, 1],
+  pow: [2, 2],
+  if: [3, 3],
+  floor: [1, 1],
+  ceil: [1, 1],
+  round: [1, 1],
+  sin: [1, 1],
+  cos: [1, 1],
+  tan: [1, 1],
+  asin: [1, 1],
+  acos: [1, 1],
+  atan: [1, 1],
+  atan2: [2, 2],
+  hypot: [1, Infinity],
+} as const satisfies Record<string, readonly [number, number]>;
+
+export type FormulaFunction = keyof typeof FORMULA_FUNCTIONS;
+
+export const FORMULA_CONSTANTS: Record<string, number> = { pi: Math.PI, e: Math.E };
+
+/** Names an input, dial or output may not take. */
+export const RESERVED_NAMES = new Set<string>([
+  ...Object.keys(FORMULA_FUNCTIONS),
+  ...Object.keys(FORMULA_CONSTANTS),
+  'true',
+  'false',
+  'null',
+  'this',
+  'undefined',
+  'NaN',
+  'Infinity',
+]);
+
+export interface FormulaScope {
+  /** Names that hold a sampled column (inputs and earlier outputs). */
+  columns: string[];
+  /** Names that hold one number per run (dial variables). */
+  scalars: string[];
+}
+
+export class FormulaError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'FormulaError';
+  }
+}
+
+// ---- jsep set-up: unary minus binds looser than power, only while this module parses ----
+let parsing = false;
+interface Scope {
+  index: number;
+  readonly expr: string;
+  readonly code: number;
+  gobbleSpaces(): void;
+  gobbleToken(): jsep.Expression | undefined | false;
+  throwError(message: string): never;
+}
+
+function powerRhs(p: Scope): jsep.Expression {
+  const base = p.gobbleToken();
+  if (!base) p.throwError('Expected an expression after ^');
+  p.gobbleSpaces();
+  if (p.expr.startsWith('**', p.index) && p.expr[p.index + 2] !== '*') {
+    p.index += 2;
+    return { type: 'BinaryExpression', operator: '**', left: base as jsep.Expression, right: powerRhs(p) };
+  }
+  return base as jsep.Expression;
+}
+
+jsep.hooks.add('gobble-token', function (this: unknown, env: { node?: jsep.Expression }) {
+  if (!parsing) return;
+  const p = this as Scope;
+  const code = p.code;
+  if (code !== 45 && code !== 43) return; // '-' or '+'
+  const op = code === 45 ? '-' : '+';
+  p.index++;
+  const operand = p.gobbleToken();
+  if (!operand) p.throwError(`Expected an expression after unary ${op}`);
+  let arg = operand as jsep.Expression;
+  p.gobbleSpaces();
+  if (p.expr.startsWith('**', p.index) && p.expr[p.index + 2] !== '*') {
+    p.index += 2;
+    arg = { type: 'BinaryExpression', operator: '**', left: arg, right: powerRhs(p) };
+  }
+  env.node = { type: 'UnaryExpression', operator: op, argument: arg, prefix: true };
+});
+
+const BINARY_OPS: Record<string, BinaryOp> = {
+  '+': '+',
+  '-': '-',
+  '*': '*',
+  '/': '/',
+  '**': '^',
+  '<': '<',
+  '<=': '<=',
+  '>': '>',
+  '>=': '>=',
+  '==': '==',
+  '===': '==',
+  '!=': '!=',
+  '!==': '!=',
+  '&&': '&&',
+  '||': '||',
+};
+
+function describe(node: jsep.Expression): string {
+  switch (node.type) {
+    case 'Identifier':
+      return String(node.name);
+    case 'MemberExpression':
+      return `${describe(node.object as jsep.Expression)}${node.computed ? '[…]' : `.${describe(node.property as jsep.Expression)}`}`;
+    case 'Literal':
+      return String(node.raw);
+    default:
+      return node.type;
+  }
+}
+
+function editDistance(a: string, b: string): number {
+  const d = Array.from({ length: a.length + 1 }, (_, i) => [i, ...new Array<number>(b.length).fill(0)]);
+  for (let j = 1; j <= b.length; j++) d[0][j] = j;
+  for (let i = 1; i <= a.length; i++)
+    for (let j = 1; j <= b.length; j++)
+      d[i][j] = Math.min(d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + (a[i - 1].toLowerCase() === b[j - 1].toLowerCase() ? 0 : 1));
+  return d[a.length][b.length];
+}
+
+function suggestion(name: string, known: string[]): string {
+  let best: string | null = null;
+  let bestD = Infinity;
+  for (const k of known) {
+    const dd = editDistance(name, k);
+    if (dd < bestD) {
+      bestD = dd;
+      best = k;
+    }
+  }
+  return best !== null && bestD <= Math.max(1, Math.floor(name.length / 3)) ? ` Did you mean '${best}'?` : '';
+}
+
+function convert(node: jsep.Expression, scope: FormulaScope, used: Set<string>): FormulaNode {
+  switch (node.type) {
+    case 'Literal': {
+      const v = node.value;
+      if (typeof v === 'number' && Number.isFinite(v)) return { kind: 'num', value: v };
+      throw new FormulaError(`Only numbers are allowed as values; found ${String(node.raw)}.`);
+    }
+    case 'Identifier': {
+      const name = String(node.name);
+      if (name in FORMULA_CONSTANTS && !scope.columns.includes(name) && !scope.scalars.includes(name)) {
+        return { kind: 'num', value: FORMULA_CONSTANTS[name] };
+      }
+      if (scope.columns.includes(name) || scope.scalars.includes(name)) {
+        used.add(name);
+        return { kind: 'name', name };
+      }
+      if (name in FORMULA_FUNCTIONS) throw new FormulaError(`'${name}' is a function: call it with arguments, e.g. ${name}(x).`);
+      const known = [...scope.columns, ...scope.scalars];
+      throw new FormulaError(
+        `Unknown name '${name}'.${suggestion(name, known)} Known names: ${known.length ? known.join(', ') : '(none)'}, pi, e.`,
+      );
+    }
+    case 'UnaryExpression': {
+      const arg = convert(node.argument as jsep.Expression, scope, used);
+      if (node.operator === '-') return { kind: 'neg', arg };
+      if (node.operator === '+') return arg;
+      if (node.operator === '!') return { kind: 'not', arg };
+      throw new FormulaError(`The operator '${String(node.operator)}' is not allowed.`);
+    }
+    case 'BinaryExpression': {
+      const op = BINARY_OPS[String(node.operator)];
+      if (!op) {
+        throw new FormulaError(
+          `The operator '${String(node.operator)}' is not allowed. Use + - * / ^, comparisons (< <= > >= == !=), && || and !.`,
+        );
+      }
+      return { kind: 'bin', op, left: convert(node.left as jsep.Expression, scope, used), right: convert(node.right as jsep.Expression, scope, used) };
+    }
+    case 'ConditionalExpression':
+      return {
+        kind: 'cond',
+        test: convert(node.test as jsep.Expression, scope, used),
+        then: convert(node.consequent as jsep.Expression, scope, used),
+        else: convert(node.alternate as jsep.Expression, scope, used),
+      };
+    case 'CallExpression': {
+      const callee = node.callee as jsep.Expression;
+      if (callee.type !== 'Identifier') {
+        throw new FormulaError(`Only the built-in functions can be called; '${describe(callee)}(…)' is not allowed.`);
+      }
+      const fn = String(callee.name);
+      if (!(fn in FORMULA_FUNCTIONS)) {
+        throw new FormulaError(
+          `Unknown function '${fn}'.${suggestion(fn, Object.keys(FORMULA_FUNCTIONS))} Available: ${Object.keys(FORMULA_FUNCTIONS).join(', ')}.`,
+        );
+      }
+      const [lo, hi] = FORMULA_FUNCTIONS[fn as FormulaFunction];
+      const args = (node.arguments as jsep.Expression[]).map((a) => convert(a, scope, used));
+      if (args.length < lo || args.length > hi) {
+        const want = lo === hi ? `${lo}` : hi === Infinity ? `at least ${lo}` : `${lo} to ${hi}`;
+        throw new FormulaError(`${fn}() takes ${want} argument${lo === 1 && hi === 1 ? '' : 's'}; found ${args.length}.`);
+      }
+      if (fn === 'if') return { kind: 'cond', test: args[0], then: args[1], else: args[2] };
+      return { kind: 'call', fn: fn as FormulaFunction, args };
+    }
+    case 'MemberExpression':
+      throw new FormulaError(`Member access ('${describe(node)}') is not allowed; use plain names.`);
+    case 'Compound':
+    case 'SequenceExpression':
+      throw new FormulaError('A formula is one expression; remove the extra "," or ";".');
+    case 'ArrayExpression':
+      throw new FormulaError('Lists in [ ] are not allowed; pass values to a function instead, e.g. max(a, b).');
+    case 'ThisExpression':
+      throw new FormulaError("'this' is not allowed.");
+    default:
+      throw new FormulaError(`Unsupported syntax (${node.type}).`);
+  }
+}
+
+export interface ParsedFormula {
+  ast: FormulaNode;
+  /** Column and scalar names the formula uses. */
+  names: string[];
+}
+
+/** Parse and check a formula; throws FormulaError with a plain-English message. */
+export function parseFormula(text: string, scope: FormulaScope): ParsedFormula {
+  if (typeof text !== 'string' || text.trim() === '') throw new FormulaError('The formula is empty.');
+  if (text.length > 5000) throw new FormulaError('The formula is longer than 5,000 characters.');
+  const assign = /(^|[^=!<>])=(?!=)/.exec(text);
+  if (assign) {
+    const at = assign.index + assign[1].length;
+    throw new FormulaError(`Assignment ('=') is not allowed (character ${at + 1}); use '==' to compare.`);
+  }
+  // '^' is power in formulas; jsep reads '**' as power with the right associativity.
+  const shifts: number[] = [];
+  let src = '';
+  for (let i = 0; i < text.length; i++) {
+    if (text[i] === '^') {
+      shifts.push(src.length);
+      src += '**';
+    } else src += text[i];
+  }
+  let tree: jsep.Expression;
+  parsing = true;
+  try {
+    tree = jsep(src);
+  } catch (err) {
+    const e = err as { description?: string; index?: number; message?: string };
+    const idx = typeof e.index === 'number' ? e.index - shifts.filter((s) => s < (e.index as number)).length : null;
+    throw new FormulaError(`Syntax error: ${e.description ?? e.message ?? 'could not read the formula'}${idx !== null ? ` at character ${idx + 1}` : ''}.`);
+  } finally {
+    parsing = false;
+  }
+  const used = new Set<string>();
+  const ast = convert(tree, scope, used);
+  return { ast, names: [...used] };
+}
+
+/** Check a formula; returns null when valid, else the message. */
+export function checkFormula(text: string, scope: FormulaScope): string | null {
+  try {
+    parseFormula(text, scope);
+    return null;
+  } catch (err) {
+    if (err instanceof FormulaError) return err.message;
+    throw err;
+  }
+}
+
+// ---- Column-wise compilation ------------------------------------------------------------
+
+/** Trials evaluated per pass (buffers stay in cache). */
+export const FORMULA_BLOCK = 4096;
+
+type Compiled = { scalar: true; value: number } | { scalar: false; run: (start: number, count: number) => Float64Array };
+
+export interface FormulaEnvironment {
+  column(name: string): Float64Array | null;
+  scalar(name: string): number | null;
+}
+
+function scalarBinary(op: BinaryOp, a: number, b: number): number {
+  switch (op) {
+    case '+':
+      return a + b;
+    case '-':
+      return a - b;
+    case '*':
+      return a * b;
+    case '/':
+      return a / b;
+    case '^':
+      return b === 2 ? a * a : Math.pow(a, b);
+    case '<':
+      return a !== a || b !== b ? NaN : a < b ? 1 : 0;
+    case '<=':
+      return a !== a || b !== b ? NaN : a <= b ? 1 : 0;
+    case '>':
+      return a !== a || b !== b ? NaN : a > b ? 1 : 0;
+    case '>=':
+      return a !== a || b !== b ? NaN : a >= b ? 1 : 0;
+    case '==':
+      return a !== a || b !== b ? NaN : a === b ? 1 : 0;
+    case '!=':
+      return a !== a || b !== b ? NaN : a !== b ? 1 : 0;
+    case '&&':
+      return a !== a || b !== b ? NaN : a !== 0 && b !== 0 ? 1 : 0;
+    case '||':
+      return a !== a || b !== b ? NaN : a !== 0 || b !== 0 ? 1 : 0;
+  }
+}
+
+const UNARY_FNS: Partial<Record<FormulaFunction, (x: number) => number>> = {
+  abs: Math.abs,
+  sqrt: Math.sqrt,
+  exp: Math.exp,
+  ln: Math.log,
+  log: Math.log,
+  log10: Math.log10,
+  floor: Math.floor,
+  ceil: Math.ceil,
+  round: Math.round,
+  sin: Math.sin,
+  cos: Math.cos,
+  tan: Math.tan,
+  asin: Math.asin,
+  acos: Math.acos,
+  atan: Math.atan,
+};
+
+function vec(run: (start: number, count: number) => Float64Array): Compiled {
+  return { scalar: false, run };
+}
+
+function compileNode(node: FormulaNode, env: FormulaEnvironment): Compiled {
+  switch (node.kind) {
+    case 'num':
+      return { scalar: true, value: node.value };
+    case 'name': {
+      const s = env.scalar(node.name);
+      if (s !== null) return { scalar: true, value: s };
+      const col = env.column(node.name);
+      if (!col) throw new FormulaError(`No values for '${node.name}'.`);
+      return vec((start, count) => col.subarray(start, start + count));
+    }
+    case 'neg': {
+      const a = compileNode(node.arg, env);
+      if (a.scalar) return { scalar: true, value: -a.value };
+      const buf = new Float64Array(FORMULA_BLOCK);
+      return vec((s, c) => {
+        const x = a.run(s, c);
+        for (let k = 0; k < c; k++) buf[k] = -x[k];
+        return buf;
+      });
+    }
+    case 'not': {
+      const a = compileNode(node.arg, env);
+      const f = (v: number) => (v !== v ? NaN : v === 0 ? 1 : 0);
+      if (a.scalar) return { scalar: true, value: f(a.value) };
+      const buf = new Float64Array(FORMULA_BLOCK);
+      return vec((s, c) => {
+        const x = a.run(s, c);
+        for (let k = 0; k < c; k++) buf[k] = f(x[k]);
+        return buf;
+      });
+    }
+    case 'bin':
+      return compileBinary(node.op, compileNode(node.left, env), compileNode(node.right, env));
+    case 'cond': {
+      const t = compileNode(node.test, env);
+      const a = compileNode(node.then, env);
+      const b = compileNode(node.else, env);
+      if (t.scalar) {
+        if (t.value !== t.value) return { scalar: true, value: NaN };
+        return t.value !== 0 ? a : b;
+      }
+      const buf = new Float64Array(FORMULA_BLOCK);
+      return vec((s, c) => {
+        const tv = t.run(s, c);
+        const av = a.scalar ? null : a.run(s, c);
+        const bv = b.scalar ? null : b.run(s, c);
+        const as = a.scalar ? a.value : 0;
+        const bs = b.scalar ? b.value : 0;
+        for (let k = 0; k < c; k++) {
+          const x = tv[k];
+          buf[k] = x !== x ? NaN : x !== 0 ? (av ? av[k] : as) : bv ? bv[k] : bs;
+        }
+        return buf;
+      });
+    }
+    case 'call':
+      return compileCall(node.fn, node.args.map((a) => compileNode(a, env)));
+    case 'lin': {
+      const cols = node.terms.map((t) => {
+        const col = env.column(t.name);
+        if (!col) throw new FormulaError(`No values for '${t.name}'.`);
+        return col;
+      });
+      const coefs = node.terms.map((t) => t.coef);
+      const c0 = node.constant;
+      if (cols.length === 0) return { scalar: true, value: c0 };
+      const buf = new Float64Array(FORMULA_BLOCK);
+      return vec((s, c) => {
+        buf.fill(c0, 0, c);
+        for (let i = 0; i < cols.length; i++) {
+          const col = cols[i];
+          const w = coefs[i];
+          if (w === 1) for (let k = 0; k < c; k++) buf[k] += col[s + k];
+          else if (w === -1) for (let k = 0; k < c; k++) buf[k] -= col[s + k];
+          else for (let k = 0; k < c; k++) buf[k] += w * col[s + k];
+        }
+        return buf;
+      });
+    }
+  }
+}
+
+function compileBinary(op: BinaryOp, a: Compiled, b: Compiled): Compiled {
+  if (a.scalar && b.scalar) return { scalar: true, value: scalarBinary(op, a.value, b.value) };
+  const buf = new Float64Array(FORMULA_BLOCK);
+  // Fast loops for the arithmetic operators; the rest go through scalarBinary.
+  if (!a.scalar && !b.scalar) {
+    const ra = a.run;
+    const rb = b.run;
+    switch (op) {
+      case '+':
+        return vec((s, c) => {
+          const x = ra(s, c);
+          const y = rb(s, c);
+          for (let k = 0; k < c; k++) buf[k] = x[k] + y[k];
+          return buf;
+        });
+      case '-':
+        return vec((s, c) => {
+          const x = ra(s, c);
+          const y = rb(s, c);
+          for (let k = 0; k < c; k++) buf[k] = x[k] - y[k];
+          return buf;
+        });
+      case '*':
+        return vec((s, c) => {
+          const x = ra(s, c);
+          const y = rb(s, c);
+          for (let k = 0; k < c; k++) buf[k] = x[k] * y[k];
+          return buf;
+        });
+      case '/':
+        return vec((s, c) => {
+          const x = ra(s, c);
+          const y = rb(s, c);
+          for (let k = 0; k < c; k++) buf[k] = x[k] / y[k];
+          return buf;
+        });
+      default:
+        return vec((s, c) => {
+          const x = ra(s, c);
+          const y = rb(s, c);
+          for (let k = 0; k < c; k++) buf[k] = scalarBinary(op, x[k], y[k]);
+          return buf;
+        });
+    }
+  }
+  if (a.scalar) {
+    const av = a.value;
+    const rb = (b as { run: (s: number, c: number) => Float64Array }).run;
+    switch (op) {
+      case '+':
+        return vec((s, c) => {
+          const y = rb(s, c);
+          for (let k = 0; k < c; k++) buf[k] = av + y[k];
+          return buf;
+        });
+      case '-':
+        return vec((s, c) => {
+          const y = rb(s, c);
+          for (let k = 0; k < c; k++) buf[k] = av - y[k];
+          return buf;
+        });
+      case '*':
+        return vec((s, c) => {
+          const y = rb(s, c);
+          for (let k = 0; k < c; k++) buf[k] = av * y[k];
+          return buf;
+        });
+      default:
+        return vec((s, c) => {
+          const y = rb(s, c);
+          for (let k = 0; k < c; k++) buf[k] = scalarBinary(op, av, y[k]);
+          return buf;
+        });
+    }
+  }
+  const bv = (b as { value: number }).value;
+  const ra = (a as { run: (s: number, c: number) => Float64Array }).run;
+  switch (op) {
+    case '+':
+      return vec((s, c) => {
+        const x = ra(s, c);
+        for (let k = 0; k < c; k++) buf[k] = x[k] + bv;
+        return buf;
+      });
+    case '-':
+      return vec((s, c) => {
+        const x = ra(s, c);
+        for (let k = 0; k < c; k++) buf[k] = x[k] - bv;
+        return buf;
+      });
+    case '*':
+      return vec((s, c) => {
+        const x = ra(s, c);
+        for (let k = 0; k < c; k++) buf[k] = x[k] * bv;
+        return buf;
+      });
+    case '/':
+      return vec((s, c) => {
+        const x = ra(s, c);
+        for (let k = 0; k < c; k++) buf[k] = x[k] / bv;
+        return buf;
+      });
+    case '^':
+      if (bv === 2) {
+        return vec((s, c) => {
+          const x = ra(s, c);
+          for (let k = 0; k < c; k++) buf[k] = x[k] * x[k];
+          return buf;
+        });
+      }
+      return vec((s, c) => {
+        const x = ra(s, c);
+        for (let k = 0; k < c; k++) buf[k] = Math.pow(x[k], bv);
+        return buf;
+      });
+    default:
+      return vec((s, c) => {
+        const x = ra(s, c);
+        for (let k = 0; k < c; k++) buf[k] = scalarBinary(op, x[k], bv);
+        return buf;
+      });
+  }
+}
+
+function compileCall(fn: FormulaFunction, args: Compiled[]): Compiled {
+  const unary = UNARY_FNS[fn];
+  if (unary) {
+    const a = args[0];
+    if (a.scalar) return { scalar: true, value: unary(a.value) };
+    const buf = new Float64Array(FORMULA_BLOCK);
+    return vec((s, c) => {
+      const x = a.run(s, c);
+      for (let k = 0; k < c; k++) buf[k] = unary(x[k]);
+      return buf;
+    });
+  }
+  if (fn === 'pow') return compileBinary('^', args[0], args[1]);
+  const fold = (f: (x: number, y: number) => number, finish?: (x: number) => number): Compiled => {
+    if (args.every((a) => a.scalar)) {
+      let v = (args[0] as { value: number }).value;
+      for (let i = 1; i < args.length; i++) v = f(v, (args[i] as { value: number }).value);
+      return { scalar: true, value: finish ? finish(v) : v };
+    }
+    const buf = new Float64Array(FORMULA_BLOCK);
+    return vec((s, c) => {
+      const first = args[0];
+      if (first.scalar) buf.fill(first.value, 0, c);
+      else buf.set(first.run(s, c).subarray(0, c));
+      for (let i = 1; i < args.length; i++) {
+        const a = args[i];
+        if (a.scalar) {
+          const v = a.value;
+          for (let k = 0; k < c; k++) buf[k] = f(buf[k], v);
+        } else {
+          const x = a.run(s, c);
+          for (let k = 0; k < c; k++) buf[k] = f(buf[k], x[k]);
+        }
+      }
+      if (finish) for (let k = 0; k < c; k++) buf[k] = finish(buf[k]);
+      return buf;
+    });
+  };
+  switch (fn) {
+    case 'min':
+      return fold(Math.min);
+    case 'max':
+      return fold(Math.max);
+    case 'sum':
+      return fold((x, y) => x + y);
+    case 'mean': {
+      const n = args.length;
+      return fold((x, y) => x + y, (x) => x / n);
+    }
+    case 'hypot': {
+      if (args.length === 1) return compileCall('abs', args);
+      if (args.every((a) => a.scalar)) return { scalar: true, value: Math.hypot(...args.map((a) => (a as { value: number }).value)) };
+      const buf = new Float64Array(FORMULA_BLOCK);
+      const vals = new Array<number>(args.length);
+      return vec((s, c) => {
+        const cols = args.map((a) => (a.scalar ? null : a.run(s, c)));
+        for (let k = 0; k < c; k++) {
+          for (let i = 0; i < args.length; i++) {
+            const col = cols[i];
+            vals[i] = col ? col[k] : (args[i] as { value: number }).value;
+          }
+          buf[k] = Math.hypot(...vals);
+        }
+        return buf;
+      });
+    }
+    case 'atan2': {
+      const [y, x] = args;
+      if (y.scalar && x.scalar) return { scalar: true, value: Math.atan2(y.value, x.value) };
+      const buf = new Float64Array(FORMULA_BLOCK);
+      return vec((s, c) => {
+        const yv = y.scalar ? null : y.run(s, c);
+        const xv = x.scalar ? null : x.run(s, c);
+        const ys = y.scalar ? y.value : 0;
+        const xs = x.scalar ? x.value : 0;
+        for (let k = 0; k < c; k++) buf[k] = Math.atan2(yv ? yv[k] : ys, xv ? xv[k] : xs);
+        return buf;
+      });
+    }
+    default:
+      throw new FormulaError(`Function '${fn}' cannot be compiled.`);
+  }
+}
+
+export interface CompiledFormula {
+  /** Write the formula's value for trials [start, start + count) into out at the same positions. */
+  evaluate(out: Float64Array, start: number, count: number): void;
+  /** True when the formula is a constant for the run. */
+  readonly constant: boolean;
+}
+
+/** Compile a parsed formula against the run's columns and dial values. */
+export function compileFormula(ast: FormulaNode, env: FormulaEnvironment): CompiledFormula {
+  const root = compileNode(ast, env);
+  return {
+    constant: root.scalar,
+    evaluate(out, start, count) {
+      for (let s = start; s < start + count; s += FORMULA_BLOCK) {
+        const c = Math.min(FORMULA_BLOCK, start + count - s);
+        if (root.scalar) out.fill(root.value, s, s + c);
+        else out.set(root.run(s, c).subarray(0, c), s);
+      }
+    },
+  };
+}
+
+/** Evaluate a formula once with scalar values (used by tests and analytic checks). */
+export function evaluateScalar(text: string, values: Record<string, number>): number {
+  const names = Object.keys(values);
+  const { ast } = parseFormula(text, { columns: [], scalars: names });
+  const c = compileNode(ast, { column: () => null, scalar: (n) => (n in values ? values[n] : null) });
+  if (!c.scalar) throw new FormulaError('Formula did not reduce to a number.');
+  return c.value;
+}

@@ -1,0 +1,140 @@
+/**
+ * Standard normal generators over a seeded Stream.
+ *
+ * Box-Muller (Box & Muller 1958, Ann. Math. Statist. 29(2):610-611): u1 in (0, 1], so
+ * ln(u1) is finite; both variates of each pair are used; the spare of an odd count is
+ * kept only inside this generator object, which belongs to one run (a new run builds new
+ * generators, so nothing survives a reseed).
+ *
+ * Ziggurat (Marsaglia & Tsang 2000, J. Stat. Softw. 5(8)) with 256 layers. One 32-bit
+ * draw gives the layer (low 8 bits), the sign (bit 8) and the position (top 23 bits), so
+ * the layer index and the position use disjoint bits (the weakness of the original
+ * RNOR noted by Doornik 2005). The tail uses Marsaglia's (1964) method.
+ */
+import { Stream, uniformOpenClosed } from './rng';
+import { normalSf } from './special';
+
+export type NormalMethod = 'box-muller' | 'ziggurat';
+
+export interface NormalGenerator {
+  readonly method: NormalMethod;
+  /** Fill out[start .. start+count) with standard normal variates. */
+  fill(out: Float64Array, start: number, count: number): void;
+}
+
+const TWO_PI = 2 * Math.PI;
+
+/** The Box-Muller transform of one pair; u1 must be in (0, 1]. */
+export function boxMuller(u1: number, u2: number): [number, number] {
+  const r = Math.sqrt(-2 * Math.log(u1));
+  const t = TWO_PI * u2;
+  return [r * Math.cos(t), r * Math.sin(t)];
+}
+
+export class BoxMullerGenerator implements NormalGenerator {
+  readonly method = 'box-muller' as const;
+  private spare = 0;
+  private hasSpare = false;
+  constructor(private readonly stream: Stream) {}
+
+  fill(out: Float64Array, start: number, count: number): void {
+    let k = start;
+    const end = start + count;
+    if (k < end && this.hasSpare) {
+      out[k++] = this.spare;
+      this.hasSpare = false;
+    }
+    const s = this.stream;
+    while (k + 1 < end) {
+      const u1 = s.uniformOpenClosed();
+      const u2 = s.uniform();
+      const r = Math.sqrt(-2 * Math.log(u1));
+      const t = TWO_PI * u2;
+      out[k++] = r * Math.cos(t);
+      out[k++] = r * Math.sin(t);
+    }
+    if (k < end) {
+      const u1 = s.uniformOpenClosed();
+      const u2 = s.uniform();
+      const r = Math.sqrt(-2 * Math.log(u1));
+      const t = TWO_PI * u2;
+      out[k++] = r * Math.cos(t);
+      this.spare = r * Math.sin(t);
+      this.hasSpare = true;
+    }
+  }
+}
+
+// ---- Ziggurat tables (computed once; pure arithmetic, identical on every engine) ----
+const ZN = 256;
+const ZR = 3.6541528853610088; // rightmost layer edge for 256 layers (Marsaglia & Tsang 2000)
+const f = (x: number) => Math.exp(-0.5 * x * x);
+/** Area of each layer under exp(-x^2/2): the base strip r f(r) plus the tail beyond r. */
+const ZV = ZR * f(ZR) + Math.sqrt(Math.PI / 2) * 2 * normalSf(ZR);
+const ZX = new Float64Array(ZN + 1);
+const ZF = new Float64Array(ZN + 1);
+const ZW = new Float64Array(ZN); // x[i] / 2^23
+const ZK = new Uint32Array(ZN); // acceptance threshold on the 23-bit position
+(() => {
+  ZX[0] = ZV / f(ZR);
+  ZX[1] = ZR;
+  for (let i = 1; i < ZN - 1; i++) ZX[i + 1] = Math.sqrt(-2 * Math.log(ZV / ZX[i] + f(ZX[i])));
+  ZX[ZN] = 0;
+  for (let i = 0; i <= ZN; i++) ZF[i] = f(ZX[i]);
+  const scale = 8388608; // 2^23
+  for (let i = 0; i < ZN; i++) {
+    ZW[i] = ZX[i] / scale;
+    ZK[i] = Math.floor((ZX[i + 1] / ZX[i]) * scale);
+  }
+})();
+
+/** Ziggurat layer edges, exported for tests. */
+export const ZIGGURAT = { layers: ZN, r: ZR, v: ZV, x: ZX };
+
+export class ZigguratGenerator implements NormalGenerator {
+  readonly method = 'ziggurat' as const;
+  constructor(private readonly stream: Stream) {}
+
+  private slow(i: number, x: number): number {
+    const s = this.stream;
+    for (;;) {
+      if (i === 0) {
+        // Tail beyond r (Marsaglia 1964).
+        let xt: number;
+        let yt: number;
+        do {
+          xt = -Math.log(uniformOpenClosed(s.nextInt32())) / ZR;
+          yt = -Math.log(uniformOpenClosed(s.nextInt32()));
+        } while (yt + yt < xt * xt);
+        return x < 0 ? -(ZR + xt) : ZR + xt;
+      }
+      // Wedge between layers i and i + 1.
+      const ax = Math.abs(x);
+      const y = ZF[i] + s.uniform() * (ZF[i + 1] - ZF[i]);
+      if (y < Math.exp(-0.5 * ax * ax)) return x;
+      const u = s.nextInt32();
+      i = u & 255;
+      const j = u >>> 9;
+      const xv = j * ZW[i];
+      x = u & 256 ? -xv : xv;
+      if (j < ZK[i]) return x;
+    }
+  }
+
+  fill(out: Float64Array, start: number, count: number): void {
+    const s = this.stream;
+    const end = start + count;
+    for (let k = start; k < end; k++) {
+      const u = s.nextInt32();
+      const i = u & 255;
+      const j = u >>> 9;
+      const xv = j * ZW[i];
+      const x = u & 256 ? -xv : xv;
+      out[k] = j < ZK[i] ? x : this.slow(i, x);
+    }
+  }
+}
+
+export function createNormalGenerator(method: NormalMethod, stream: Stream): NormalGenerator {
+  return method === 'ziggurat' ? new ZigguratGenerator(stream) : new BoxMullerGenerator(stream);
+}

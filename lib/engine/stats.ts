@@ -1,0 +1,267 @@
+/**
+ * Statistics of simulated outputs. Everything here is deterministic given the sample
+ * columns (fixed summation orders), so a browser run and a server run agree bit for bit.
+ */
+import { lgamma, normalSf } from './special';
+import { averageRanks, sortedCopy } from './sort';
+
+/** The one pinned percentile definition (shown in the UI and the PDF). */
+export const PERCENTILE_DEFINITION = {
+  id: 'hyndman-fan-6',
+  name: 'Hyndman–Fan type 6',
+  text:
+    'Percentiles follow Hyndman & Fan (1996) definition 6: the p-th percentile lies at rank p(N + 1) of the N sorted ' +
+    'valid trials, interpolating linearly between neighbouring trials and clamped to the smallest and largest trial. ' +
+    'It is the definition used in the NIST/SEMATECH e-Handbook of Statistical Methods, section 7.2.6.2.',
+} as const;
+
+/** Confidence level of every interval the engine reports. */
+export const CONFIDENCE_LEVEL = 0.95;
+const Z975 = 1.959963984540054; // Phi^-1(0.975)
+
+export interface Interval {
+  low: number;
+  high: number;
+}
+
+/** Running mean and variance (Welford 1962, Technometrics 4(3):419-420). */
+export function welford(values: Float64Array): { n: number; mean: number; variance: number } {
+  let n = 0;
+  let mean = 0;
+  let m2 = 0;
+  for (let k = 0; k < values.length; k++) {
+    const x = values[k];
+    n++;
+    const d = x - mean;
+    mean += d / n;
+    m2 += d * (x - mean);
+  }
+  // Sample variance with the n - 1 divisor.
+  return { n, mean: n > 0 ? mean : NaN, variance: n > 1 ? m2 / (n - 1) : NaN };
+}
+
+/** Hyndman-Fan type 6 percentile of ascending data, p in [0, 1]. */
+export function percentileSorted(sorted: Float64Array | number[], p: number): number {
+  const n = sorted.length;
+  if (n === 0) return NaN;
+  const h = p * (n + 1); // 1-based rank
+  if (h <= 1) return sorted[0];
+  if (h >= n) return sorted[n - 1];
+  const j = Math.floor(h);
+  const g = h - j;
+  const lo = sorted[j - 1];
+  const hi = sorted[j];
+  return g === 0 ? lo : lo + g * (hi - lo);
+}
+
+/** Wilson score interval for a binomial proportion (Wilson 1927), 95 %. */
+export function wilsonInterval(count: number, n: number, z = Z975): Interval {
+  if (n <= 0) return { low: 0, high: 1 };
+  const p = count / n;
+  const z2 = z * z;
+  const denom = 1 + z2 / n;
+  const centre = (p + z2 / (2 * n)) / denom;
+  const half = (z * Math.sqrt((p * (1 - p)) / n + z2 / (4 * n * n))) / denom;
+  return { low: Math.max(0, centre - half), high: Math.min(1, centre + half) };
+}
+
+/**
+ * Distribution-free confidence interval for the p-quantile from order statistics: with
+ * B ~ Binomial(n, p) the number of trials below the true quantile, [X(l), X(u)] covers it
+ * with probability P(l <= B < u). l is the largest rank with P(B < l) <= 2.5 % and u the
+ * smallest with P(B >= u) <= 2.5 % (exact binomial sums). Ranks are 1-based; null when the
+ * sample is too small for that side.
+ */
+export function orderStatisticRanks(n: number, p: number, conf = CONFIDENCE_LEVEL): { low: number | null; high: number | null } {
+  if (n < 1 || !(p > 0 && p < 1)) return { low: null, high: null };
+  const tail = (1 - conf) / 2;
+  const q = 1 - p;
+  const mode = Math.min(n, Math.floor((n + 1) * p));
+  const logMode = lgamma(n + 1) - lgamma(mode + 1) - lgamma(n - mode + 1) + mode * Math.log(p) + (n - mode) * Math.log(q);
+  const pm = Math.exp(logMode);
+  // pmf below the mode (descending k) and above it.
+  const below: number[] = [];
+  let v = pm;
+  for (let k = mode; k > 0; k--) {
+    v *= (k / (n - k + 1)) * (q / p);
+    if (v < 1e-300 || v < pm * 1e-18) break;
+    below.push(v); // pmf(k - 1)
+  }
+  const above: number[] = [];
+  v = pm;
+  for (let k = mode; k < n; k++) {
+    v *= ((n - k) / (k + 1)) * (p / q);
+    if (v < 1e-300 || v < pm * 1e-18) break;
+    above.push(v); // pmf(k + 1)
+  }
+  let total = pm;
+  for (const b of below) total += b;
+  for (const a of above) total += a;
+  // Lower: accumulate P(B <= k) from the bottom of the window.
+  let low: number | null = null;
+  let cum = 0;
+  const firstK = mode - below.length;
+  for (let i = below.length - 1, k = firstK; i >= -1; i--, k++) {
+    cum += (i >= 0 ? below[i] : pm) / total;
+    if (cum > tail) break;
+    low = k + 1; // P(B <= k) <= tail, so P(B < k + 1) <= tail
+  }
+  // Upper: accumulate P(B >= k) from the top.
+  let high: number | null = null;
+  cum = 0;
+  const lastK = mode + above.length;
+  for (let i = above.length - 1, k = lastK; i >= -1; i--, k--) {
+    cum += (i >= 0 ? above[i] : pm) / total;
+    if (cum > tail) break;
+    high = k; // P(B >= k) <= tail
+  }
+  if (low !== null && low < 1) low = null;
+  if (high !== null && high > n) high = null;
+  return { low, high };
+}
+
+export interface PercentileEstimate {
+  /** Probability level in [0, 1]. */
+  p: number;
+  value: number;
+  /** 95 % distribution-free interval from order statistics, null when the sample is too small. */
+  ci: Interval | null;
+}
+
+export function percentileEstimates(sorted: Float64Array, levels: number[]): PercentileEstimate[] {
+  const n = sorted.length;
+  return levels.map((p) => {
+    const r = orderStatisticRanks(n, p);
+    return {
+      p,
+      value: percentileSorted(sorted, p),
+      ci: r.low !== null && r.high !== null ? { low: sorted[r.low - 1], high: sorted[r.high - 1] } : null,
+    };
+  });
+}
+
+export interface HistogramBin {
+  x0: number;
+  x1: number;
+  count: number;
+}
+
+/** Equal-width bins over [min, max]; the maximum falls in the last bin. */
+export function histogram(sorted: Float64Array, bins: number): HistogramBin[] {
+  const n = sorted.length;
+  if (n === 0) return [];
+  const min = sorted[0];
+  const max = sorted[n - 1];
+  if (!(max > min)) return [{ x0: min, x1: max, count: n }];
+  const width = (max - min) / bins;
+  const out: HistogramBin[] = [];
+  for (let b = 0; b < bins; b++) out.push({ x0: min + b * width, x1: b === bins - 1 ? max : min + (b + 1) * width, count: 0 });
+  // Sorted input: walk once.
+  let b = 0;
+  for (let k = 0; k < n; k++) {
+    const x = sorted[k];
+    while (b < bins - 1 && x >= out[b].x1) b++;
+    out[b].count++;
+  }
+  return out;
+}
+
+export interface EcdfPoint {
+  x: number;
+  /** Fraction of valid trials <= x. */
+  p: number;
+}
+
+/** Empirical CDF downsampled to at most maxPoints points at evenly spaced ranks. */
+export function ecdfPoints(sorted: Float64Array, maxPoints: number): EcdfPoint[] {
+  const n = sorted.length;
+  if (n === 0) return [];
+  const m = Math.max(2, Math.min(maxPoints, n));
+  const out: EcdfPoint[] = [];
+  let prev = -1;
+  for (let i = 0; i < m; i++) {
+    let r = Math.round((i * (n - 1)) / (m - 1));
+    if (r <= prev) continue;
+    // Step to the last of a run of equal values so p is the ECDF value.
+    while (r + 1 < n && sorted[r + 1] === sorted[r]) r++;
+    if (r <= prev) continue;
+    out.push({ x: sorted[r], p: (r + 1) / n });
+    prev = r;
+  }
+  return out;
+}
+
+/** Fraction of ascending data <= v. */
+export function fractionAtOrBelow(sorted: Float64Array, v: number): number {
+  const n = sorted.length;
+  if (n === 0) return NaN;
+  let lo = 0;
+  let hi = n;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (sorted[mid] <= v) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo / n;
+}
+
+export function pearson(a: Float64Array, b: Float64Array): number {
+  const n = a.length;
+  let ma = 0;
+  let mb = 0;
+  for (let k = 0; k < n; k++) {
+    ma += a[k];
+    mb += b[k];
+  }
+  ma /= n;
+  mb /= n;
+  let sab = 0;
+  let saa = 0;
+  let sbb = 0;
+  for (let k = 0; k < n; k++) {
+    const da = a[k] - ma;
+    const db = b[k] - mb;
+    sab += da * db;
+    saa += da * da;
+    sbb += db * db;
+  }
+  return saa > 0 && sbb > 0 ? sab / Math.sqrt(saa * sbb) : NaN;
+}
+
+/** Spearman rank correlation (Pearson correlation of average ranks). */
+export function spearman(a: Float64Array, b: Float64Array): number {
+  return pearson(averageRanks(a), averageRanks(b));
+}
+
+export interface Capability {
+  /** Pp = (USL - LSL) / 6 sigma, overall (long-term) variation; null unless both limits exist. */
+  pp: number | null;
+  /** Ppk = min(USL - mean, mean - LSL) / 3 sigma over the limits given. */
+  ppk: number | null;
+  /** Normal-theory fraction outside the limits, in ppm, from the mean and sd. */
+  ppmNormal: number | null;
+}
+
+/** Pp / Ppk and normal-theory ppm (NIST e-Handbook §6.1.6 definitions, with overall sigma). */
+export function capability(mean: number, sd: number, lower: number | null, upper: number | null): Capability {
+  if (!(sd > 0) || (lower === null && upper === null)) return { pp: null, ppk: null, ppmNormal: null };
+  const pp = lower !== null && upper !== null ? (upper - lower) / (6 * sd) : null;
+  const sides: number[] = [];
+  if (upper !== null) sides.push((upper - mean) / (3 * sd));
+  if (lower !== null) sides.push((mean - lower) / (3 * sd));
+  const ppk = Math.min(...sides);
+  let frac = 0;
+  if (lower !== null) frac += normalSf((mean - lower) / sd);
+  if (upper !== null) frac += normalSf((upper - mean) / sd);
+  return { pp, ppk, ppmNormal: frac * 1e6 };
+}
+
+/** Normal-theory fraction outside [lower, upper] for N(mean, sd), in ppm. */
+export function normalPpmOutside(mean: number, sd: number, lower: number | null, upper: number | null): number {
+  let frac = 0;
+  if (lower !== null) frac += normalSf((mean - lower) / sd);
+  if (upper !== null) frac += normalSf((upper - mean) / sd);
+  return frac * 1e6;
+}
+
+export { averageRanks, sortedCopy };
