@@ -1193,7 +1193,9 @@ export class FakeStripe {
     const total = invoice.total;
     invoice.ending_balance = total + customer.balance >= 0 ? 0 : total + customer.balance;
     invoice.next_payment_attempt = nextAttempt;
-    if (invoice.parent?.subscription_details && details?.has('proration_date')) {
+    // Stripe reports the moment it prorated at whenever the preview carries prorations, so the
+    // app can pass the same proration_date to the real update and charge what it showed.
+    if (invoice.parent?.subscription_details && (prorations.length > 0 || details?.has('proration_date'))) {
       invoice.parent.subscription_details.subscription_proration_date = at;
     }
     return invoice;

@@ -170,6 +170,31 @@ describe('seat changes', () => {
     expect(renewal.amount_due).toBe(Math.max(0, UNIT + downTotal));
   });
 
+  it('reports the proration moment of a preview, and an update at that moment charges the quoted amount', async () => {
+    const { subscription, customer } = await subscribe(stripe, 2);
+    const item = subscription.items.data[0];
+    const preview = await stripe.invoices.createPreview({
+      customer: customer.id,
+      subscription: subscription.id,
+      subscription_details: { items: [{ id: item.id, quantity: 7 }], proration_behavior: 'always_invoice' },
+    });
+    const at = preview.parent?.subscription_details?.subscription_proration_date;
+    expect(at).toBeGreaterThanOrEqual(item.current_period_start);
+    expect(at).toBeLessThan(item.current_period_end);
+    expect(preview.amount_due).toBe(expectedProration(7, item.current_period_start, item.current_period_end, at!) - expectedProration(2, item.current_period_start, item.current_period_end, at!));
+    const updated = await stripe.subscriptions.update(subscription.id, {
+      items: [{ id: item.id, quantity: 7 }],
+      proration_behavior: 'always_invoice',
+      payment_behavior: 'error_if_incomplete',
+      proration_date: at,
+    });
+    expect((await stripe.invoices.retrieve(updated.latest_invoice as string)).amount_paid).toBe(preview.amount_due);
+    const outside = await stripe.subscriptions
+      .update(subscription.id, { items: [{ id: item.id, quantity: 6 }], proration_date: item.current_period_end + 10 })
+      .then(() => null, (e: unknown) => e);
+    expect((outside as Stripe.errors.StripeError).param).toBe('proration_date');
+  });
+
   it('refuses an upgrade with error_if_incomplete when the card on file is declined, changing nothing', async () => {
     const { subscription, customer } = await subscribe(stripe, 2);
     await admin(`/_fake/card?customer=${customer.id}&number=4000000000000002`);
