@@ -5,63 +5,8 @@ import { newId, nowIso } from '@/db/ids';
 
 // Models and their immutable versions. Every query is scoped by firm; model JSON is stored as text and parsed here.
 
-export type TemplateId = 'linear-stack' | 'cost-range' | 'formula';
-export type CheckState = 'unchecked' | 'signed_off' | 'sent_back';
-
-export interface CheckComment {
-  path: string;
-  text: string;
-}
-
-export interface ModelRecord {
-  id: string;
-  firmId: string;
-  title: string;
-  template: TemplateId;
-  /** The model a new or duplicated model starts from, before (and independent of) its versions. */
-  draft: unknown;
-  createdBy: string | null;
-  createdByName: string | null;
-  createdAt: string;
-  updatedBy: string | null;
-  updatedByName: string | null;
-  updatedAt: string;
-  archivedAt: string | null;
-}
-
-export interface VersionSummary {
-  id: string;
-  modelId: string;
-  number: number;
-  authorId: string | null;
-  authorName: string | null;
-  createdAt: string;
-  note: string | null;
-  checkState: CheckState;
-  checkerId: string | null;
-  checkerName: string | null;
-  checkedAt: string | null;
-  checkNote: string | null;
-  comments: CheckComment[];
-}
-
-export interface VersionRecord extends VersionSummary {
-  model: unknown;
-}
-
-export interface ModelListRow {
-  id: string;
-  title: string;
-  template: TemplateId;
-  createdAt: string;
-  createdByName: string | null;
-  updatedAt: string;
-  updatedByName: string | null;
-  archivedAt: string | null;
-  latestVersion: { number: number; checkState: CheckState; createdAt: string; authorName: string | null } | null;
-  /** The live widget, if the model is published, and which version it shows. */
-  published: { widgetId: string; versionNumber: number; publishedAt: string } | null;
-}
+export type { TemplateId, CheckState, CheckComment, ModelRecord, VersionSummary, VersionRecord, ModelListRow } from '@/lib/models/types';
+import type { TemplateId, CheckState, CheckComment, ModelRecord, VersionSummary, VersionRecord, ModelListRow } from '@/lib/models/types';
 
 type Db = Knex | Knex.Transaction;
 const db = (trx?: Knex.Transaction): Db => trx ?? getDb();

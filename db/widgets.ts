@@ -2,41 +2,12 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';
-import type { CheckState, TemplateId } from '@/db/models';
+import type { CheckState, TemplateId } from '@/lib/models/types';
 
 // Published widgets: a checked version of a model plus how a client sees it. Scoped by firm.
 
-export interface WidgetRecord {
-  id: string;
-  firmId: string;
-  modelId: string;
-  modelTitle: string;
-  template: TemplateId;
-  versionId: string;
-  versionNumber: number;
-  versionCheckState: CheckState;
-  title: string;
-  panels: string[];
-  headline: string;
-  dialIds: string[];
-  brandColor: string;
-  showLogo: boolean;
-  publishedBy: string | null;
-  publishedByName: string | null;
-  publishedAt: string;
-  updatedAt: string;
-  unpublishedAt: string | null;
-}
-
-/** A live widget with everything a viewer's page or a snapshot needs: the version's model and its sign-off. */
-export interface PublishedWidget extends WidgetRecord {
-  model: unknown;
-  versionCreatedAt: string;
-  authorName: string | null;
-  checkerName: string | null;
-  checkedAt: string | null;
-  firmName: string;
-}
+export type { WidgetRecord, PublishedWidget } from '@/lib/models/types';
+import type { WidgetRecord, PublishedWidget } from '@/lib/models/types';
 
 const COLUMNS = [
   'w.id',
