@@ -1,5 +1,8 @@
 import { defineConfig } from 'vitest/config';
 import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const __dirname = path.dirname(fileURLToPath(import.meta.url));
 
 const alias = { '@': path.resolve(__dirname, '.'), 'server-only': path.resolve(__dirname, 'tests/support/server-only-stub.ts') };
 
