@@ -85,7 +85,7 @@ export function percentAxis(scale: ScaleLinear<number, number>, count: number, n
   const step = values.length > 1 ? Math.abs(values[1] - values[0]) * 100 : 10;
   const decimals = decimalsForStep(step);
   return {
-    ticks: values.map((value) => ({ value, pos: scale(value), label: formatValue(value * 100, null, { decimals, compact: false }) + '\u202f%' })),
+    ticks: values.map((value) => ({ value, pos: scale(value), label: formatValue(value * 100, null, { decimals, compact: false }) + '\u00a0%' })),
     title: name,
   };
 }

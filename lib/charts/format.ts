@@ -1,8 +1,12 @@
 // Number formatting for charts, headline figures and the PDF. Locale-independent on purpose:
 // the same run must print the same text in the browser, in the SVG download and in the server's PDF.
 
-/** Narrow no-break space: the SI/ISO 80000 thousands separator, and the gap before a unit. */
-export const NNBSP = '\u202f';
+/**
+ * No-break space: the thousands separator and the gap before a unit. ISO 80000 prefers a narrow space,
+ * but the shipped IBM Plex latin subsets have no U+202F or (in Mono) U+2009, so the one space every
+ * face has keeps numbers in one font, in the browser and in the PDF.
+ */
+export const NBSP = '\u00a0';
 /** Typographic minus sign (U+2212), so negative figures line up with positive ones in tabular fonts. */
 export const MINUS = '\u2212';
 
@@ -28,7 +32,7 @@ export function unitStyle(unit: string | null | undefined): UnitStyle {
   if (!u) return { prefix: '', suffix: '' };
   const sym = PREFIX_SYMBOLS[u] ?? PREFIX_SYMBOLS[u.toUpperCase()];
   if (sym) return { prefix: sym, suffix: '' };
-  return { prefix: '', suffix: NNBSP + u };
+  return { prefix: '', suffix: NBSP + u };
 }
 
 /** True when the unit is money (compact k/M suffixes make sense). */
@@ -42,7 +46,7 @@ function groupDigits(intPart: string): string {
   if (intPart.length <= 4) return intPart;
   let out = '';
   for (let i = 0; i < intPart.length; i++) {
-    if (i > 0 && (intPart.length - i) % 3 === 0) out += NNBSP;
+    if (i > 0 && (intPart.length - i) % 3 === 0) out += NBSP;
     out += intPart[i];
   }
   return out;
@@ -111,9 +115,9 @@ export function formatValue(value: number, unit?: string | null, opts: FormatOpt
   const decimals = opts.decimals ?? decimalsForSignificant(v, opts.significant ?? 4);
   let num = formatFixed(v, decimals);
   if (opts.trim && num.includes('.')) num = num.replace(/0+$/, '').replace(/\.$/, '');
-  if (opts.bare) return compact.symbol ? num + NNBSP + compact.symbol : num;
+  if (opts.bare) return compact.symbol ? num + NBSP + compact.symbol : num;
   const { prefix, suffix } = unitStyle(unit);
-  const compactText = compact.symbol ? NNBSP + compact.symbol : '';
+  const compactText = compact.symbol ? NBSP + compact.symbol : '';
   if (prefix) {
     const neg = num.startsWith(MINUS);
     return (neg ? MINUS : '') + prefix + (neg ? num.slice(1) : num) + compactText;
@@ -132,7 +136,7 @@ export function formatPercent(p: number, opts: { decimals?: number } = {}): stri
     // 99.97 % must not print as 100 %: keep digits until the value differs from 100.
     if (a > 99 && a < 100) decimals = Math.max(1, decimalsForSignificant(100 - a, 1));
   }
-  return formatFixed(pct, Math.min(decimals, 6)) + NNBSP + '%';
+  return formatFixed(pct, Math.min(decimals, 6)) + NBSP + '%';
 }
 
 /** Parts per million with sensible digits: 0 → "0 ppm", 2.7 → "2.7 ppm", 2699.8 → "2 700 ppm". */
@@ -141,7 +145,7 @@ export function formatPpm(ppm: number): string {
   const a = Math.abs(ppm);
   const decimals = a === 0 ? 0 : a >= 100 ? 0 : a >= 1 ? 1 : decimalsForSignificant(a, 2);
   const rounded = a >= 1000 ? Math.round(ppm / 10) * 10 : ppm;
-  return formatFixed(rounded, Math.min(decimals, 6)) + NNBSP + 'ppm';
+  return formatFixed(rounded, Math.min(decimals, 6)) + NBSP + 'ppm';
 }
 
 /** "P80" for 0.8, "P97.5" for 0.975. */
@@ -158,11 +162,11 @@ export function formatCount(n: number): string {
 /** Run time: "84 ms", "1.42 s", "2 min 05 s". */
 export function formatDuration(ms: number): string {
   if (!Number.isFinite(ms) || ms < 0) return '—';
-  if (ms < 1000) return `${Math.round(ms)}${NNBSP}ms`;
-  if (ms < 60_000) return `${(ms / 1000).toFixed(ms < 10_000 ? 2 : 1)}${NNBSP}s`;
+  if (ms < 1000) return `${Math.round(ms)}${NBSP}ms`;
+  if (ms < 60_000) return `${(ms / 1000).toFixed(ms < 10_000 ? 2 : 1)}${NBSP}s`;
   const m = Math.floor(ms / 60_000);
   const s = Math.round((ms % 60_000) / 1000);
-  return `${m}${NNBSP}min ${String(s).padStart(2, '0')}${NNBSP}s`;
+  return `${m}${NBSP}min ${String(s).padStart(2, '0')}${NBSP}s`;
 }
 
 /** Axis labels for a set of tick values: one shared precision from the step and one compact scale. */

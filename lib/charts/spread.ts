@@ -246,22 +246,25 @@ export function binValues(values: ArrayLike<number>, opts: { count?: number; lim
   const anchor = opts.limits?.lower ?? opts.limits?.upper ?? null;
   let start = lo;
   if (anchor != null && Number.isFinite(anchor)) {
-    // Shift the grid so the limit is an edge; one extra bin keeps the maximum covered.
-    start = anchor - Math.ceil((anchor - lo) / step) * step;
-    if (start + count * step < hi) step = (hi - start) / count;
-    if (opts.limits?.lower != null && opts.limits?.upper != null) {
-      // Both limits on edges when the spec width divides into whole steps.
-      const width = opts.limits.upper - opts.limits.lower;
-      const n = Math.max(1, Math.round(width / step));
-      step = width / n;
-      start = opts.limits.lower - Math.ceil((opts.limits.lower - lo) / step) * step;
+    const lower = opts.limits?.lower;
+    const upper = opts.limits?.upper;
+    if (lower != null && upper != null && Number.isFinite(lower) && Number.isFinite(upper) && (upper - lower) / step >= 0.5) {
+      // Both limits on edges: a whole number of steps across the specification width.
+      step = (upper - lower) / Math.max(1, Math.round((upper - lower) / step));
     }
+    // Shift the grid so the limit is an edge; the first edge is at or below the minimum.
+    start = anchor - Math.ceil((anchor - lo) / step) * step;
   }
+  // Thresholds by index (never by repeated addition, which can stall at large magnitudes).
+  const k = Math.min(2 * count + 2, Math.max(1, Math.ceil((hi - start) / step)));
   const thresholds: number[] = [];
-  for (let t = start + step; t < hi; t += step) thresholds.push(t);
-  const end = start + (thresholds.length + 1) * step;
+  for (let j = 1; j < k; j++) {
+    const t = start + j * step;
+    if (t > (thresholds[thresholds.length - 1] ?? start) && t < hi) thresholds.push(t);
+  }
+  const end = Math.max(hi, start + k * step);
   const binner = d3bin()
-    .domain([start, Math.max(end, hi)])
+    .domain([Math.min(start, lo), end])
     .thresholds(thresholds);
   return binner(data).map((b) => ({ x0: b.x0 as number, x1: b.x1 as number, count: b.length }));
 }

@@ -109,7 +109,8 @@ function nodeXml(n: SceneNode, prefix: string, clipIds: { next: number }, defs: 
         ['y', n.y],
         ['font-family', n.font === 'mono' ? CHART_FONTS.mono : CHART_FONTS.sans],
         ['font-size', n.size],
-        ['font-weight', n.weight && n.weight !== 400 ? n.weight : undefined],
+        // 600 is written "bold": browsers then pick the shipped 600 face, and svg-to-pdfkit passes bold=true to its font callback.
+        ['font-weight', n.weight === 600 ? 'bold' : n.weight === 500 ? 500 : undefined],
         ['fill', n.fill],
         ['text-anchor', n.anchor && n.anchor !== 'start' ? n.anchor : undefined],
         ['dominant-baseline', n.baseline ? BASELINE[n.baseline] : undefined],
@@ -128,6 +129,11 @@ function nodeXml(n: SceneNode, prefix: string, clipIds: { next: number }, defs: 
       return `<g${attrs([['transform', transform], ['clip-path', clip], ['opacity', op]])}>${inner}</g>`;
     }
   }
+}
+
+/** Which of the two chart faces a font-family attribute asks for (for svg-to-pdfkit's fontCallback). */
+export function fontRoleOf(family: string): 'sans' | 'mono' {
+  return /mono/i.test(family) ? 'mono' : 'sans';
 }
 
 /** The scene as a standalone SVG document (UTF-8). */
