@@ -1,4 +1,6 @@
 import { after } from 'next/server';
+import Stripe from 'stripe';
+import { z } from 'zod';
 import { route, json } from '@/lib/http/handler';
 import { AppError } from '@/lib/http/errors';
 import { verifyWebhook, stripe } from '@/lib/billing/stripe';
@@ -6,6 +8,9 @@ import { processStripeEvent } from '@/lib/billing/webhooks';
 import { deliverNotices } from '@/lib/billing/mail';
 
 export const dynamic = 'force-dynamic';
+
+// The least every event carries; anything else is read by the handler for its own event type.
+const eventShape = z.object({ id: z.string().min(1), type: z.string().min(1), created: z.number().int(), data: z.object({ object: z.record(z.string(), z.unknown()) }) });
 
 const deps = {
   fetchSubscription: async (id: string) => {
@@ -28,9 +33,16 @@ export const POST = route(async (req) => {
     event = verifyWebhook(raw, req.headers.get('stripe-signature'));
   } catch (err) {
     const text = err instanceof Error ? err.message : '';
-    const why = !req.headers.get('stripe-signature') ? 'no Stripe-Signature header' : /tolerance/i.test(text) ? 'the signature is too old' : 'the signature does not match this endpoint’s secret';
+    const why = !req.headers.get('stripe-signature')
+      ? 'no Stripe-Signature header'
+      : !(err instanceof Stripe.errors.StripeSignatureVerificationError)
+        ? 'the body is not a Stripe event'
+        : /tolerance/i.test(text)
+          ? 'the signature is too old'
+          : 'the signature does not match this endpoint’s secret';
     throw new AppError('bad_request', `Webhook refused: ${why}. Nothing was changed.`);
   }
+  if (!eventShape.safeParse(event).success) throw new AppError('bad_request', 'Webhook refused: the body is not a Stripe event. Nothing was changed.');
   const result = await processStripeEvent(event, deps);
   // E-mails go out after the response, so a slow mail relay never makes Stripe retry an event already applied.
   if (result.notices.length) after(() => deliverNotices(result.notices));
