@@ -243,3 +243,43 @@ export async function passDailyCounts(firmId: string, passId: string, days: numb
   }
   return out;
 }
+
+export interface HostPass {
+  passId: string;
+  clientId: string;
+  clientName: string;
+  firmName: string;
+  widgetTitle: string;
+  token: PassTokenRow;
+}
+
+/**
+ * Development only (the demo host page): live passes of clients that allow this origin, across firms, with
+ * each pass's newest live token.
+ */
+export async function listLivePassesForOrigin(origin: string): Promise<HostPass[]> {
+  const now = nowIso();
+  const rows = await getDb()('passes as p')
+    .join('clients as c', 'c.id', 'p.client_id')
+    .join('widgets as w', 'w.id', 'p.widget_id')
+    .join('firms as f', 'f.id', 'p.firm_id')
+    .join('pass_tokens as t', 't.pass_id', 'p.id')
+    .whereNull('p.revoked_at')
+    .whereNull('c.archived_at')
+    .whereNull('w.unpublished_at')
+    .whereNull('t.revoked_at')
+    .where('t.expires_at', '>', now)
+    .where('c.allowed_origins', 'like', `%${JSON.stringify(origin)}%`)
+    .select('p.id as pass_id', 'c.id as client_id', 'c.name as client_name', 'c.allowed_origins', 'f.name as firm_name', 'w.title as widget_title', ...TOKEN_COLUMNS.map((c) => `t.${c}`))
+    .orderBy('c.name')
+    .orderBy('p.created_at')
+    .orderBy('t.issued_at', 'desc');
+  const seen = new Set<string>();
+  const out: HostPass[] = [];
+  for (const r of rows as Record<string, unknown>[]) {
+    if (seen.has(r.pass_id as string) || !(JSON.parse(r.allowed_origins as string) as string[]).includes(origin)) continue;
+    seen.add(r.pass_id as string);
+    out.push({ passId: r.pass_id as string, clientId: r.client_id as string, clientName: r.client_name as string, firmName: r.firm_name as string, widgetTitle: r.widget_title as string, token: toToken(r) });
+  }
+  return out;
+}

@@ -22,6 +22,8 @@ export interface StackOptions {
 
 export interface Stack {
   appUrl: string;
+  /** The demo host page (an invented client portal on a second origin), when hostPagePort was given. */
+  hostPageUrl: string | null;
   mailboxUrl: string;
   stripeUrl: string;
   env: Record<string, string>;
@@ -45,6 +47,7 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     FAKE_STRIPE_URL: `http://127.0.0.1:${o.stripePort}`,
     STRIPE_WEBHOOK_SECRET: WEBHOOK_SECRET,
     NEXT_TELEMETRY_DISABLED: '1',
+    ...(o.hostPagePort ? { DEMO_HOST_PAGE_URL: `http://localhost:${o.hostPagePort}` } : {}),
     ...o.extraEnv,
   };
   Object.assign(process.env, env);
@@ -66,15 +69,18 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });
   await waitForHttp(`${appUrl}/`, next);
+  const { startHostPage } = await import('@/lib/dev/host-page');
+  const hostPage = o.hostPagePort ? await startHostPage({ port: o.hostPagePort, appUrl }) : null;
 
   return {
     appUrl,
+    hostPageUrl: hostPage?.url ?? null,
     mailboxUrl: `http://127.0.0.1:${o.mailboxPort}`,
     stripeUrl: `http://127.0.0.1:${o.stripePort}`,
     env,
     async stop() {
       next.kill('SIGTERM');
-      await Promise.allSettled([smtp.close(), stripe.close()]);
+      await Promise.allSettled([smtp.close(), stripe.close(), hostPage?.close()]);
     },
     seedMessage,
   };

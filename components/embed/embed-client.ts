@@ -1,0 +1,80 @@
+// The embed page's API client. The bearer token lives only in this closure (never in cookies or storage):
+// a browser would not send the app's cookies inside a cross-site frame, and the page needs none.
+import type { EmbedSessionResponse, EmbedWidgetPayload } from '@/lib/embed/payload';
+
+export class EmbedAccessError extends Error {
+  readonly status: number;
+  readonly title: string;
+  readonly body: string;
+  constructor(status: number, message: string) {
+    super(message);
+    this.status = status;
+    const i = message.indexOf('. ');
+    this.title = i > 0 ? message.slice(0, i) : 'This widget cannot be shown';
+    this.body = i > 0 ? message.slice(i + 2) : message;
+  }
+}
+
+async function readError(res: Response): Promise<EmbedAccessError> {
+  let message = res.status === 429 ? 'Too many requests. Wait a moment and try again.' : 'This widget cannot be shown. Reload the page to try again.';
+  try {
+    const b = (await res.json()) as { error?: { message?: unknown } };
+    if (typeof b.error?.message === 'string') message = b.error.message;
+  } catch {
+    // no body
+  }
+  return new EmbedAccessError(res.status, message);
+}
+
+export interface EmbedClient {
+  loadWidget(): Promise<EmbedWidgetPayload>;
+  reportDial(dialId: string, value: number): Promise<void>;
+}
+
+export function createEmbedClient(o: { passId: string; pass: string; origin: string | null }): EmbedClient {
+  let token: string | null = null;
+  let expiresAt = 0;
+
+  async function exchange(): Promise<void> {
+    const res = await fetch('/api/embed/session', {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify({ passId: o.passId, pass: o.pass, origin: o.origin }),
+      credentials: 'omit',
+      cache: 'no-store',
+    });
+    if (!res.ok) throw await readError(res);
+    const s = (await res.json()) as EmbedSessionResponse;
+    token = s.token;
+    expiresAt = s.expiresAt * 1000;
+  }
+
+  /** One call with the bearer; a refused token is exchanged again once (it may simply have run out). */
+  async function call(method: 'GET' | 'POST', path: string, body?: unknown): Promise<Response> {
+    for (let attempt = 0; attempt < 2; attempt++) {
+      if (!token || expiresAt - Date.now() < 30_000) await exchange();
+      const res = await fetch(path, {
+        method,
+        headers: { authorization: `Bearer ${token}`, ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
+        body: body === undefined ? undefined : JSON.stringify(body),
+        credentials: 'omit',
+        cache: 'no-store',
+      });
+      if (res.status === 401 && attempt === 0) {
+        token = null;
+        continue;
+      }
+      if (!res.ok) throw await readError(res);
+      return res;
+    }
+    throw new EmbedAccessError(401, 'This widget cannot be shown. Reload the page to try again.');
+  }
+
+  const base = `/api/embed/passes/${encodeURIComponent(o.passId)}`;
+  return {
+    loadWidget: async () => (await (await call('GET', `${base}/widget`)).json()) as EmbedWidgetPayload,
+    reportDial: async (dialId, value) => {
+      await call('POST', `${base}/events`, { kind: 'dial', dialId, value });
+    },
+  };
+}
