@@ -52,8 +52,8 @@ export async function startStack(o: StackOptions): Promise<Stack> {
   };
   Object.assign(process.env, env);
 
-  const { migrateAndSeed } = await import('@/lib/dev/migrate-and-seed');
-  const seedMessage = await migrateAndSeed(o.seed);
+  // Migrations are TypeScript files that Knex loads with require(): run them under tsx in a child process.
+  const seedMessage = await runCli([o.seed ? 'seed' : 'migrate'], { ...process.env, ...env });
 
   const smtp = await startFakeSmtp({ smtpPort: o.smtpPort, httpPort: o.mailboxPort, dir: path.join(o.dataDir, 'mailbox') });
   const stripe = await startFakeStripe({
@@ -64,7 +64,7 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     publicUrl: `http://localhost:${o.stripePort}`,
   });
 
-  const next = spawn(process.execPath, [require.resolve('next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
+  const next = spawn(process.execPath, [path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
     env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
     stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });
@@ -84,6 +84,19 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     },
     seedMessage,
   };
+}
+
+function runCli(args: string[], childEnv: NodeJS.ProcessEnv): Promise<string> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, [path.resolve('node_modules/tsx/dist/cli.mjs'), '--conditions=react-server', 'db/cli.ts', ...args], {
+      env: { ...childEnv, NODE_OPTIONS: '' },
+      stdio: ['ignore', 'pipe', 'pipe'],
+    });
+    let out = '';
+    child.stdout.on('data', (d) => (out += d));
+    child.stderr.on('data', (d) => (out += d));
+    child.on('exit', (code) => (code === 0 ? resolve(out.trim()) : reject(new Error(`db/cli.ts ${args.join(' ')} failed:\n${out}`))));
+  });
 }
 
 async function waitForHttp(url: string, child: ChildProcess, timeoutMs = 60_000): Promise<void> {
