@@ -1,5 +1,5 @@
 import { scaleLinear, type ScaleLinear } from 'd3-scale';
-import { compactFor, decimalsForStep, formatValue, isCurrency } from './format';
+import { compactFor, decimalsForStep, formatValue, isCurrency, unitFactor } from './format';
 
 /** One tick on an axis: its value, its pixel position and its printed label. */
 export interface Tick {
@@ -67,7 +67,7 @@ export function linearAxis(scale: ScaleLinear<number, number>, count: number, na
   const maxAbs = values.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
   const compact = compactFor(maxAbs, unit);
   const step = values.length > 1 ? Math.abs(values[1] - values[0]) : Math.abs(values[0] ?? 1) || 1;
-  const decimals = decimalsForStep(step / compact.divisor);
+  const decimals = decimalsForStep((step * unitFactor(unit)) / compact.divisor);
   const money = isCurrency(unit);
   return {
     ticks: values.map((value) => ({

@@ -27,18 +27,41 @@ export interface UnitStyle {
   suffix: string;
 }
 
+const MAGNITUDE: Record<string, number> = { k: 1e3, K: 1e3, M: 1e6, MM: 1e6, mn: 1e6, bn: 1e9 };
+
+/**
+ * A money unit, possibly in thousands or millions ("kEUR", "k€", "MUSD"): its symbol and the factor that
+ * turns a model value into currency units. Null for anything that is not money we know.
+ */
+export function currencyOf(unit: string | null | undefined): { symbol: string; factor: number } | null {
+  const u = (unit ?? '').trim();
+  if (!u) return null;
+  const direct = PREFIX_SYMBOLS[u] ?? PREFIX_SYMBOLS[u.toUpperCase()];
+  if (direct) return { symbol: direct, factor: 1 };
+  const m = /^(k|K|M|MM|mn|bn)\s?(.+)$/.exec(u);
+  if (m) {
+    const sym = PREFIX_SYMBOLS[m[2]] ?? PREFIX_SYMBOLS[m[2].toUpperCase()];
+    if (sym) return { symbol: sym, factor: MAGNITUDE[m[1]] };
+  }
+  return null;
+}
+
+/** Factor from model values to printed values (1000 for "kEUR", else 1). */
+export function unitFactor(unit: string | null | undefined): number {
+  return currencyOf(unit)?.factor ?? 1;
+}
+
 export function unitStyle(unit: string | null | undefined): UnitStyle {
   const u = (unit ?? '').trim();
   if (!u) return { prefix: '', suffix: '' };
-  const sym = PREFIX_SYMBOLS[u] ?? PREFIX_SYMBOLS[u.toUpperCase()];
-  if (sym) return { prefix: sym, suffix: '' };
+  const cur = currencyOf(u);
+  if (cur) return { prefix: cur.symbol, suffix: '' };
   return { prefix: '', suffix: NBSP + u };
 }
 
 /** True when the unit is money (compact k/M suffixes make sense). */
 export function isCurrency(unit: string | null | undefined): boolean {
-  const u = (unit ?? '').trim();
-  return Boolean(u && (PREFIX_SYMBOLS[u] ?? PREFIX_SYMBOLS[u.toUpperCase()]));
+  return currencyOf(unit) !== null;
 }
 
 function groupDigits(intPart: string): string {
@@ -86,8 +109,10 @@ export interface Compact {
 const NO_COMPACT: Compact = { divisor: 1, symbol: '' };
 
 /** k / M / bn for money of that size; plain numbers otherwise. */
-export function compactFor(maxAbs: number, unit: string | null | undefined): Compact {
-  if (!isCurrency(unit)) return NO_COMPACT;
+export function compactFor(maxAbsRaw: number, unit: string | null | undefined): Compact {
+  const cur = currencyOf(unit);
+  if (!cur) return NO_COMPACT;
+  const maxAbs = maxAbsRaw * cur.factor;
   if (maxAbs >= 1e9) return { divisor: 1e9, symbol: 'bn' };
   if (maxAbs >= 1e6) return { divisor: 1e6, symbol: 'M' };
   if (maxAbs >= 1e4) return { divisor: 1e3, symbol: 'k' };
@@ -111,7 +136,7 @@ export interface FormatOptions {
 export function formatValue(value: number, unit?: string | null, opts: FormatOptions = {}): string {
   const compact: Compact =
     opts.compact === false ? NO_COMPACT : typeof opts.compact === 'object' ? opts.compact : compactFor(Math.abs(value), unit);
-  const v = value / compact.divisor;
+  const v = (value * unitFactor(unit)) / compact.divisor;
   const decimals = opts.decimals ?? decimalsForSignificant(v, opts.significant ?? 4);
   let num = formatFixed(v, decimals);
   if (opts.trim && num.includes('.')) num = num.replace(/0+$/, '').replace(/\.$/, '');
@@ -174,7 +199,8 @@ export function tickLabels(values: readonly number[], unit?: string | null, opts
   if (!values.length) return [];
   const maxAbs = Math.max(...values.map((v) => Math.abs(v)));
   const compact = compactFor(maxAbs, unit);
-  const step = values.length > 1 ? Math.abs(values[1] - values[0]) / compact.divisor : Math.abs(values[0]) / compact.divisor || 1;
+  const f = unitFactor(unit);
+  const step = ((values.length > 1 ? Math.abs(values[1] - values[0]) : Math.abs(values[0]) || 1) * f) / compact.divisor;
   const decimals = decimalsForStep(step);
   const withUnit = opts.withUnit ?? true;
   return values.map((v) => formatValue(v, withUnit ? unit : null, { decimals, compact }));

@@ -61,6 +61,16 @@ describe('formatValue', () => {
     expect(formatValue(-2_500_000, 'EUR', { decimals: 1 })).toBe(`${MINUS}€2.5${S}M`);
     expect(formatValue(3.2e9, 'USD', { decimals: 1 })).toBe(`$3.2${S}bn`);
   });
+  it('reads money in thousands or millions ("kEUR") as currency with its factor', () => {
+    expect(formatValue(522, 'kEUR', { decimals: 0 })).toBe(`€522${S}k`);
+    expect(formatValue(618.774, 'kEUR')).toBe(`€618.8${S}k`);
+    expect(formatValue(1204.5, 'k€', { decimals: 2 })).toBe(`€1.20${S}M`);
+    expect(formatValue(3.5, 'MUSD', { decimals: 1 })).toBe(`$3.5${S}M`);
+    expect(tickLabels([500, 550, 600, 650], 'kEUR')).toEqual([`€500${S}k`, `€550${S}k`, `€600${S}k`, `€650${S}k`]);
+    expect(tickLabels([900, 1000, 1100], 'kEUR')).toEqual([`€0.9${S}M`, `€1.0${S}M`, `€1.1${S}M`]);
+    expect(formatValue(12, 'kg', { decimals: 0 })).toBe(`12${S}kg`);
+  });
+
   it('leaves unknown currency codes as a suffix unit, uncompacted', () => {
     expect(formatValue(1_250_000, 'CHF', { decimals: 0 })).toBe(`1${S}250${S}000${S}CHF`);
   });
