@@ -15,11 +15,12 @@ export function copyMatrix(m: Matrix): Matrix {
 
 /**
  * Sets entry (i, j) and its mirror (j, i). The diagonal is locked at 1, so an edit there is ignored.
- * Values are clamped to [-1, 1]; a non-finite value is refused (the matrix is returned unchanged).
+ * Values are clamped to [-1, 1] unless `clamp` is false (the editor keeps what was typed so the schema names
+ * the bad entry); a non-finite value is refused (the matrix is returned unchanged).
  */
-export function setSymmetric(m: Matrix, i: number, j: number, value: number): Matrix {
+export function setSymmetric(m: Matrix, i: number, j: number, value: number, clamp = true): Matrix {
   if (i === j || !Number.isFinite(value) || i < 0 || j < 0 || i >= m.length || j >= m.length) return m;
-  const v = Math.max(-1, Math.min(1, value));
+  const v = clamp ? Math.max(-1, Math.min(1, value)) : value;
   const out = copyMatrix(m);
   out[i][j] = v;
   out[j][i] = v;

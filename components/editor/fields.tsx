@@ -1,6 +1,6 @@
 'use client';
 
-import { useState, type ReactNode } from 'react';
+import { useEffect, useState, type ReactNode } from 'react';
 import { useController, useFormContext } from 'react-hook-form';
 import { controlClasses, FieldError } from '@/components/ui/field';
 import { cx } from '@/components/ui/cx';
@@ -296,6 +296,8 @@ export function NumberListInput({ path, label, hideLabel, hint, className, rows 
     const same = Array.isArray(field.value) && parsed.bad.length === 0 && parsed.values.length === field.value.length && parsed.values.every((x, k) => x === (field.value as number[])[k]);
     if (!same && !problem) setText(toText(field.value));
   }
+  // A list that goes away (another law picked, row removed) takes its local problem with it.
+  useEffect(() => () => setLocal(path, null), [path, setLocal]);
   const count = Array.isArray(field.value) ? field.value.length : 0;
   return (
     <FieldShell

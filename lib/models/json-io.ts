@@ -32,7 +32,6 @@ export function exportModelJson(model: StochosModel): string {
 /** `<title>.stochos.json`, with characters that file systems refuse replaced. */
 export function modelFileName(title: string): string {
   const base = (title ?? '')
-    // eslint-disable-next-line no-control-regex
     .replace(/[\u0000-\u001f\u007f/\\:*?"<>|]+/g, '-')
     .replace(/\s+/g, ' ')
     .replace(/^[\s.-]+|[\s.-]+$/g, '')

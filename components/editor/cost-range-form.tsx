@@ -1,0 +1,395 @@
+'use client';
+
+import { useMemo, useState } from 'react';
+import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
+import { Term } from '@/components/ui/term';
+import { checkCorrelation } from '@/lib/engine/linalg';
+import { AddButton, EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
+import { GroupMessages, NumberInput, SelectInput, TextInput, type Choice } from './fields';
+import { useEditor } from './editor-context';
+import { allIds, makeId } from './model-helpers';
+import { shortNumber } from './numbers';
+
+const THREE_POINT: Choice<'pert' | 'triangular' | 'uniform'>[] = [
+  { value: 'pert', label: 'Beta-PERT' },
+  { value: 'triangular', label: 'Triangular' },
+  { value: 'uniform', label: 'Uniform (low to high)' },
+];
+
+interface ItemRow {
+  id?: string;
+  name?: string;
+  mostLikely?: number;
+}
+interface GroupRow {
+  id?: string;
+  name?: string;
+  items?: string[];
+  rho?: number;
+}
+
+function LineItems({ currency }: { currency: string }) {
+  const { control, getValues } = useFormContext();
+  const { fields, append, remove, move } = useFieldArray({ control, name: 'items', keyName: '_key' });
+  const rows = (useWatch({ control, name: 'items' }) ?? []) as ItemRow[];
+  const sumMostLikely = rows.reduce((s, r) => s + (typeof r?.mostLikely === 'number' && Number.isFinite(r.mostLikely) ? r.mostLikely : 0), 0);
+
+  return (
+    <Section
+      id="cost-items"
+      title="Line items"
+      description={
+        <>
+          Each cost as a <Term term="three-point estimate">three-point estimate</Term>: low, most likely and high. Beta-PERT suits most items; triangular gives more weight to the
+          tails.
+        </>
+      }
+      actions={<TextInput path="currency" label="Currency or unit" className="w-32" mono maxLength={8} />}
+    >
+      <GroupMessages path="items" className="mb-3" />
+      {fields.length === 0 ? (
+        <EmptyRows>No line items yet. Add the first cost item of the estimate.</EmptyRows>
+      ) : (
+        <ScrollTable caption="Line items" minWidth={820}>
+          <thead>
+            <tr>
+              <Th className="w-8">#</Th>
+              <Th className="min-w-56">Name and key</Th>
+              <Th className="w-28">Low</Th>
+              <Th className="w-28">Most likely</Th>
+              <Th className="w-28">High</Th>
+              <Th className="w-40">Distribution</Th>
+              <Th className="w-24">
+                <span className="sr-only">Row actions</span>
+              </Th>
+            </tr>
+          </thead>
+          <tbody>
+            {fields.map((f, i) => {
+              const row = rows[i] ?? {};
+              const what = row.name?.trim() || `item ${i + 1}`;
+              const p = `items.${i}`;
+              return (
+                <tr key={f._key}>
+                  <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
+                  <Td>
+                    <TextInput path={`${p}.name`} label={`Name of line item ${i + 1}`} hideLabel />
+                    <TextInput path={`${p}.id`} label={`Key of line item ${i + 1}`} hideLabel mono inputClassName="mt-1 h-6! text-xs! text-ink-600" />
+                  </Td>
+                  <Td>
+                    <NumberInput path={`${p}.low`} label={`Low estimate of ${what}`} hideLabel />
+                  </Td>
+                  <Td>
+                    <NumberInput path={`${p}.mostLikely`} label={`Most likely estimate of ${what}`} hideLabel />
+                  </Td>
+                  <Td>
+                    <NumberInput path={`${p}.high`} label={`High estimate of ${what}`} hideLabel />
+                  </Td>
+                  <Td>
+                    <SelectInput path={`${p}.distribution`} label={`Distribution of ${what}`} hideLabel choices={THREE_POINT} />
+                  </Td>
+                  <Td>
+                    <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} minRows={1} />
+                  </Td>
+                </tr>
+              );
+            })}
+          </tbody>
+          <tfoot>
+            <tr>
+              <Td />
+              <Td className="pt-2 text-right text-xs font-medium text-ink-600">Sum of most likely values</Td>
+              <Td />
+              <Td className="num pt-2 pr-3 text-right text-sm text-ink-900">
+                {shortNumber(sumMostLikely, 2)} <span className="text-xs text-ink-600">{currency}</span>
+              </Td>
+              <Td colSpan={3} />
+            </tr>
+          </tfoot>
+        </ScrollTable>
+      )}
+      <div className="mt-3">
+        <AddButton
+          onClick={() => {
+            const n = fields.length + 1;
+            append({ id: makeId(`item_${n}`, allIds(getValues())), name: `Item ${n}`, low: 90, mostLikely: 100, high: 130, distribution: 'pert' });
+          }}
+        >
+          Add line item
+        </AddButton>
+      </div>
+    </Section>
+  );
+}
+
+function GroupItemsPicker({ index, items }: { index: number; items: ItemRow[] }) {
+  const { control, setValue } = useFormContext();
+  const { readOnly, idFor } = useEditor();
+  const path = `correlationGroups.${index}.items`;
+  const chosen = (useWatch({ control, name: path }) ?? []) as string[];
+  const legendId = `${idFor(path)}-legend`;
+  const toggle = (id: string, on: boolean) => {
+    const next = on ? [...chosen.filter((x) => x !== id), id] : chosen.filter((x) => x !== id);
+    // Keep the line items' order so the list reads like the table.
+    const order = new Map(items.map((it, k) => [it.id, k]));
+    next.sort((a, b) => (order.get(a) ?? 1e9) - (order.get(b) ?? 1e9));
+    setValue(path, next, { shouldDirty: true });
+  };
+  return (
+    <fieldset aria-describedby={`${idFor(path)}-error`}>
+      <legend id={legendId} className="mb-1 text-[0.8125rem] font-medium text-ink-800">
+        Items in this group
+      </legend>
+      <div id={idFor(path)} tabIndex={-1} className="flex flex-wrap gap-x-4 gap-y-1.5">
+        {items.map((it, k) => {
+          if (!it?.id) return null;
+          const boxId = `${idFor(path)}-${k}`;
+          return (
+            <label key={`${it.id}-${k}`} htmlFor={boxId} className="inline-flex items-center gap-1.5 text-sm text-ink-800">
+              <input id={boxId} type="checkbox" className="h-4 w-4 accent-accent-700" checked={chosen.includes(it.id)} disabled={readOnly} onChange={(e) => toggle(it.id as string, e.target.checked)} />
+              {it.name?.trim() || it.id}
+            </label>
+          );
+        })}
+      </div>
+      <GroupMessages path={path} />
+      {chosen.map((_, j) => (
+        <GroupMessages key={j} path={`${path}.${j}`} />
+      ))}
+    </fieldset>
+  );
+}
+
+function CorrelationGroups() {
+  const { control, getValues } = useFormContext();
+  const { fields, append, remove } = useFieldArray({ control, name: 'correlationGroups', keyName: '_key' });
+  const groupsRaw = useWatch({ control, name: 'correlationGroups' }) as GroupRow[] | undefined;
+  const itemsRaw = useWatch({ control, name: 'items' }) as ItemRow[] | undefined;
+  const groups = useMemo(() => groupsRaw ?? [], [groupsRaw]);
+  const items = useMemo(() => itemsRaw ?? [], [itemsRaw]);
+
+  // The groups together must form a valid correlation matrix; checked live so the author sees it while editing.
+  const combined = useMemo(() => {
+    const ids = items.map((it) => it?.id).filter((id): id is string => typeof id === 'string' && groups.some((g) => g?.items?.includes(id)));
+    if (ids.length < 2) return null;
+    const index = new Map(ids.map((id, k) => [id, k]));
+    const m: number[][] = ids.map((_, a) => ids.map((__, b) => (a === b ? 1 : 0)));
+    for (const g of groups) {
+      if (!g?.items || typeof g.rho !== 'number' || !Number.isFinite(g.rho)) return null;
+      for (const a of g.items)
+        for (const b of g.items) {
+          const ia = index.get(a);
+          const ib = index.get(b);
+          if (ia !== undefined && ib !== undefined && ia !== ib) m[ia][ib] = g.rho;
+        }
+    }
+    return { n: ids.length, check: checkCorrelation(m) };
+  }, [groups, items]);
+
+  return (
+    <Section
+      id="cost-groups"
+      title="Correlation groups"
+      description="Items that tend to overrun together, such as work sharing crews or access, with the correlation (ρ, from −1 to 1) between every pair in the group."
+    >
+      <GroupMessages path="correlationGroups" className="mb-3" />
+      {combined && combined.check.smallestEigenvalue !== null ? (
+        <p className={combined.check.positiveSemiDefinite ? 'mb-3 text-sm text-ink-700' : 'mb-3 text-sm font-medium text-danger-700'} role="status">
+          {combined.check.positiveSemiDefinite ? (
+            <>
+              Together the groups form a valid correlation matrix over {combined.n} items (smallest eigenvalue <span className="num">{shortNumber(combined.check.smallestEigenvalue)}</span>).
+            </>
+          ) : (
+            <>
+              Together the groups are not a valid correlation matrix over {combined.n} items: its smallest eigenvalue is{' '}
+              <span className="num">{combined.check.smallestEigenvalue.toPrecision(4)}</span>. Lower the correlations or split overlapping groups.
+            </>
+          )}
+        </p>
+      ) : null}
+      {fields.length === 0 ? (
+        <EmptyRows>No correlation groups: every item varies independently. Add a group for items that tend to overrun together.</EmptyRows>
+      ) : (
+        <ul className="space-y-3">
+          {fields.map((f, i) => {
+            const g = groups[i] ?? {};
+            const what = g.name?.trim() || `group ${i + 1}`;
+            const p = `correlationGroups.${i}`;
+            return (
+              <li key={f._key} className="rounded-md border border-ink-200 bg-ink-50/60 p-3">
+                <div className="flex flex-wrap items-start gap-3">
+                  <TextInput path={`${p}.name`} label="Group name" className="min-w-48 flex-1" />
+                  <TextInput path={`${p}.id`} label="Key" className="w-40" mono />
+                  <NumberInput path={`${p}.rho`} label="Correlation ρ" className="w-28" />
+                  <div className="ml-auto pt-5">
+                    <RowButtons index={i} count={fields.length} what={what} onRemove={() => remove(i)} />
+                  </div>
+                </div>
+                <div className="mt-2">
+                  <GroupItemsPicker index={i} items={items} />
+                </div>
+              </li>
+            );
+          })}
+        </ul>
+      )}
+      <div className="mt-3">
+        <AddButton onClick={() => append({ id: makeId(`group_${fields.length + 1}`, allIds(getValues())), name: `Group ${fields.length + 1}`, items: [], rho: 0.3 })}>Add correlation group</AddButton>
+      </div>
+    </Section>
+  );
+}
+
+function RiskRegister({ currency }: { currency: string }) {
+  const { control, getValues } = useFormContext();
+  const { fields, append, remove, move } = useFieldArray({ control, name: 'riskEvents', keyName: '_key' });
+  const rows = (useWatch({ control, name: 'riskEvents' }) ?? []) as ItemRow[];
+  const [percent, setPercent] = useState(false);
+
+  return (
+    <Section
+      id="cost-risks"
+      title="Risk register"
+      description={`Events that may or may not happen. In each trial an event occurs with its probability and then adds an impact drawn from its range (${currency || 'currency'}).`}
+      actions={
+        <div role="group" aria-label="Enter probabilities as" className="inline-flex rounded-md border border-ink-300 bg-white p-0.5 text-sm">
+          {[
+            { on: false, label: '0 – 1' },
+            { on: true, label: '%' },
+          ].map((o) => (
+            <button
+              key={o.label}
+              type="button"
+              aria-pressed={percent === o.on}
+              onClick={() => setPercent(o.on)}
+              className={percent === o.on ? 'rounded bg-accent-700 px-2.5 py-1 font-medium text-white' : 'rounded px-2.5 py-1 text-ink-700 hover:bg-ink-100'}
+            >
+              <span className="sr-only">Probabilities as </span>
+              {o.label}
+            </button>
+          ))}
+        </div>
+      }
+    >
+      <GroupMessages path="riskEvents" className="mb-3" />
+      {fields.length === 0 ? (
+        <EmptyRows>The risk register is empty. Add an event that may happen, with its probability and the range of its cost if it does.</EmptyRows>
+      ) : (
+        <ScrollTable caption="Risk register" minWidth={900}>
+          <thead>
+            <tr>
+              <Th className="w-8">#</Th>
+              <Th className="min-w-56">Risk and key</Th>
+              <Th className="w-28">Probability{percent ? ' (%)' : ' (0–1)'}</Th>
+              <Th className="w-28">Impact low</Th>
+              <Th className="w-28">Most likely</Th>
+              <Th className="w-28">High</Th>
+              <Th className="w-40">Impact distribution</Th>
+              <Th className="w-24">
+                <span className="sr-only">Row actions</span>
+              </Th>
+            </tr>
+          </thead>
+          <tbody>
+            {fields.map((f, i) => {
+              const what = rows[i]?.name?.trim() || `risk ${i + 1}`;
+              const p = `riskEvents.${i}`;
+              return (
+                <tr key={f._key}>
+                  <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
+                  <Td>
+                    <TextInput path={`${p}.name`} label={`Name of risk ${i + 1}`} hideLabel />
+                    <TextInput path={`${p}.id`} label={`Key of risk ${i + 1}`} hideLabel mono inputClassName="mt-1 h-6! text-xs! text-ink-600" />
+                  </Td>
+                  <Td>
+                    <NumberInput
+                      key={percent ? 'pct' : 'unit'}
+                      path={`${p}.probability`}
+                      label={`Probability of ${what}${percent ? ', in per cent' : ', from 0 to 1'}`}
+                      hideLabel
+                      scale={percent ? 100 : 1}
+                      unit={percent ? '%' : undefined}
+                    />
+                  </Td>
+                  <Td>
+                    <NumberInput path={`${p}.impact.low`} label={`Low impact of ${what}`} hideLabel />
+                  </Td>
+                  <Td>
+                    <NumberInput path={`${p}.impact.mostLikely`} label={`Most likely impact of ${what}`} hideLabel />
+                  </Td>
+                  <Td>
+                    <NumberInput path={`${p}.impact.high`} label={`High impact of ${what}`} hideLabel />
+                  </Td>
+                  <Td>
+                    <SelectInput path={`${p}.impact.distribution`} label={`Impact distribution of ${what}`} hideLabel choices={THREE_POINT} />
+                    <GroupMessages path={`${p}.impact`} />
+                  </Td>
+                  <Td>
+                    <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} />
+                  </Td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </ScrollTable>
+      )}
+      <div className="mt-3">
+        <AddButton
+          onClick={() => {
+            const n = fields.length + 1;
+            append({ id: makeId(`risk_${n}`, allIds(getValues())), name: `Risk ${n}`, probability: 0.2, impact: { low: 10, mostLikely: 20, high: 40, distribution: 'pert' } });
+          }}
+        >
+          Add risk
+        </AddButton>
+      </div>
+    </Section>
+  );
+}
+
+function EstimateAndBudget({ currency }: { currency: string }) {
+  const { control } = useFormContext();
+  const confidence = useWatch({ control, name: 'confidence' }) as number | undefined;
+  const pLabel = typeof confidence === 'number' && confidence > 0 && confidence < 1 ? `P${shortNumber(confidence * 100, 1)}` : null;
+  return (
+    <Section
+      id="cost-budget"
+      title="Base estimate, budget and confidence"
+      description={
+        <>
+          The <Term term="contingency">contingency</Term> is read off the <Term term="S-curve">S-curve</Term> at the chosen confidence, over the base estimate.
+        </>
+      }
+    >
+      <div className="grid max-w-2xl gap-4 sm:grid-cols-3">
+        <NumberInput path="baseEstimate" label="Base estimate" unit={currency || undefined} dense={false} placeholder="optional" />
+        <NumberInput path="budget" label="Budget" unit={currency || undefined} dense={false} placeholder="optional" />
+        <NumberInput
+          path="confidence"
+          label="Chosen confidence (P-level)"
+          scale={100}
+          unit="%"
+          dense={false}
+          hint={
+            <>
+              {pLabel ? `Contingency is reported at ${pLabel}. ` : null}For example 80 for <Term term="P80">P80</Term>.
+            </>
+          }
+        />
+      </div>
+    </Section>
+  );
+}
+
+export function CostRangeForm() {
+  const { control } = useFormContext();
+  const currency = (useWatch({ control, name: 'currency' }) as string | undefined) ?? '';
+  return (
+    <>
+      <LineItems currency={currency} />
+      <CorrelationGroups />
+      <RiskRegister currency={currency} />
+      <EstimateAndBudget currency={currency} />
+    </>
+  );
+}

@@ -1,0 +1,1 @@
+export { ModelEditor, type ModelEditorProps } from './model-editor';
