@@ -144,7 +144,8 @@ export async function acceptInvitation(input: z.infer<typeof acceptInvitationSch
     let userId = await findUserIdByEmail(inv.email, trx);
     if (userId && (await hasActiveMembership(userId, trx))) throw conflict('This account already belongs to a firm on Stochos.');
     if (!userId) userId = await insertUser({ email: inv.email, name: input.name!, passwordHash, verified: true }, trx);
-    await assertSeatAvailable(inv.firmId, { adding: 1, countInvitations: false, excludeInvitationId: inv.id }, trx);
+    // The owner takes no seat; authors and checkers do.
+    if (inv.role !== 'owner') await assertSeatAvailable(inv.firmId, { adding: 1, countInvitations: false }, trx);
     const membershipId = await insertMembership(inv.firmId, userId, inv.role, trx);
     if (!(await markInvitationAccepted(inv.id, trx))) throw new AppError('gone', 'This invitation was already used.');
     await recordAudit({ firmId: inv.firmId, actorUserId: userId, action: 'member.joined', targetType: 'member', targetId: membershipId, detail: { email: inv.email, role: inv.role } }, trx);

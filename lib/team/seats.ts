@@ -20,7 +20,7 @@ export async function seatUsage(firmId: string, trx?: Knex.Transaction): Promise
 
 export async function assertSeatAvailable(
   firmId: string,
-  opts: { adding: number; countInvitations: boolean; excludeInvitationId?: string },
+  opts: { adding: number; countInvitations: boolean },
   trx: Knex.Transaction,
 ): Promise<void> {
   const u = await seatUsage(firmId, trx);

@@ -48,7 +48,8 @@ export class Client {
     const form = new URLSearchParams({ csrfToken, email, password, json: 'true', callbackUrl: `${this.base}/app` });
     const res = await this.request('POST', '/api/auth/callback/credentials', form.toString(), { 'content-type': 'application/x-www-form-urlencoded' });
     const location = res.headers.get('location') ?? '';
-    const data = res.status === 200 ? ((await res.json()) as { url?: string }) : null;
+    // next-auth answers 200 or 401 with { url } when json=true; the url carries ?error= on failure.
+    const data = (res.headers.get('content-type') ?? '').includes('json') ? ((await res.json()) as { url?: string }) : null;
     const url = new URL(data?.url ?? (location || this.base), this.base);
     const error = url.searchParams.get('error');
     return { ok: !error && this.cookies.has('next-auth.session-token'), error };
