@@ -12,9 +12,11 @@
  * Iman & Conover (1982, Commun. Statist. Simul. Comput. 11(3):311-334): members are
  * sampled independently, then each column is reordered to follow the ranks of van der
  * Waerden scores correlated to the target; marginals are untouched (only reordered).
+ * Here the matrix holds rank (Spearman) correlations; under the copula it holds the
+ * correlations of the normal scores (the Pearson correlation for normal inputs).
  */
 import type { Marginal } from './distributions';
-import { inverseSqrt, symmetricSqrt } from './linalg';
+import { checkCorrelation, inverseSqrt, nearestCorrelation, symmetricSqrt } from './linalg';
 import { Stream } from './rng';
 import type { SamplerContext, SamplingMethod, ScoreSource } from './samplers';
 import { scoreSourceFor } from './samplers';
@@ -110,9 +112,13 @@ export function imanConover(columns: Float64Array[], target: number[][], seed: s
     }
     return r;
   });
-  // T = correlation of the score columns; M = C^1/2 T^-1/2 maps them to correlation C.
+  // The target is a rank (Spearman) correlation; normal scores need the Pearson
+  // correlation 2 sin(pi rho_S / 6) to give it (bivariate normal: rho_S = (6/pi) asin(rho/2)).
+  let scoreTarget = target.map((row, i) => row.map((r, j) => (i === j ? 1 : 2 * Math.sin((Math.PI * r) / 6))));
+  if (!checkCorrelation(scoreTarget).positiveSemiDefinite) scoreTarget = nearestCorrelation(scoreTarget).matrix;
+  // T = correlation of the score columns; M = P T^-1/2 maps them to correlation P P^T.
   const T = R.map((ri, i) => R.map((rj, j) => (i === j ? 1 : pearson(ri, rj))));
-  const P = symmetricSqrt(target);
+  const P = symmetricSqrt(scoreTarget);
   const Qinv = inverseSqrt(T);
   const M = P.map((row) => Qinv[0].map((_, j) => row.reduce((s, v, l) => s + v * Qinv[l][j], 0)));
   for (let i = 0; i < k; i++) {
@@ -135,8 +141,11 @@ export interface AchievedCorrelation {
   target: number[][];
   pearson: number[][];
   spearman: number[][];
-  /** Gaussian copula: the rank correlation the target implies, (6/pi) asin(rho/2). */
-  expectedSpearman: number[][] | null;
+  /**
+   * The rank correlation the method aims at: Gaussian copula (6/pi) asin(rho/2) of the
+   * normal-score correlation rho; Iman-Conover the target itself (a rank correlation).
+   */
+  expectedSpearman: number[][];
   trials: number;
 }
 
@@ -166,7 +175,7 @@ export function achievedCorrelation(
     target,
     pearson: pm,
     spearman: sm,
-    expectedSpearman: method === 'copula' ? target.map((row) => row.map((r) => (6 / Math.PI) * Math.asin(r / 2))) : null,
+    expectedSpearman: method === 'copula' ? target.map((row) => row.map((r) => (6 / Math.PI) * Math.asin(r / 2))) : target.map((row) => row.slice()),
     trials: n,
   };
 }

@@ -54,6 +54,8 @@ export type FormulaFunction = keyof typeof FORMULA_FUNCTIONS;
 
 export const FORMULA_CONSTANTS: Record<string, number> = { pi: Math.PI, e: Math.E };
 
+const own = (obj: object, key: string) => Object.prototype.hasOwnProperty.call(obj, key);
+
 /** Names an input, dial or output may not take. */
 export const RESERVED_NAMES = new Set<string>([
   ...Object.keys(FORMULA_FUNCTIONS),
@@ -65,6 +67,13 @@ export const RESERVED_NAMES = new Set<string>([
   'undefined',
   'NaN',
   'Infinity',
+  // Names that would collide with JavaScript object internals when used as keys.
+  'constructor',
+  'prototype',
+  '__proto__',
+  'hasOwnProperty',
+  'toString',
+  'valueOf',
 ]);
 
 export interface FormulaScope {
@@ -152,13 +161,18 @@ function describe(node: jsep.Expression): string {
   }
 }
 
+/** Edit distance counting a swap of neighbouring letters as one edit (optimal string alignment). */
 function editDistance(a: string, b: string): number {
-  const d = Array.from({ length: a.length + 1 }, (_, i) => [i, ...new Array<number>(b.length).fill(0)]);
-  for (let j = 1; j <= b.length; j++) d[0][j] = j;
-  for (let i = 1; i <= a.length; i++)
-    for (let j = 1; j <= b.length; j++)
-      d[i][j] = Math.min(d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + (a[i - 1].toLowerCase() === b[j - 1].toLowerCase() ? 0 : 1));
-  return d[a.length][b.length];
+  const A = a.toLowerCase();
+  const B = b.toLowerCase();
+  const d = Array.from({ length: A.length + 1 }, (_, i) => [i, ...new Array<number>(B.length).fill(0)]);
+  for (let j = 1; j <= B.length; j++) d[0][j] = j;
+  for (let i = 1; i <= A.length; i++)
+    for (let j = 1; j <= B.length; j++) {
+      d[i][j] = Math.min(d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + (A[i - 1] === B[j - 1] ? 0 : 1));
+      if (i > 1 && j > 1 && A[i - 1] === B[j - 2] && A[i - 2] === B[j - 1]) d[i][j] = Math.min(d[i][j], d[i - 2][j - 2] + 1);
+    }
+  return d[A.length][B.length];
 }
 
 function suggestion(name: string, known: string[]): string {
@@ -183,14 +197,14 @@ function convert(node: jsep.Expression, scope: FormulaScope, used: Set<string>):
     }
     case 'Identifier': {
       const name = String(node.name);
-      if (name in FORMULA_CONSTANTS && !scope.columns.includes(name) && !scope.scalars.includes(name)) {
+      if (own(FORMULA_CONSTANTS, name) && !scope.columns.includes(name) && !scope.scalars.includes(name)) {
         return { kind: 'num', value: FORMULA_CONSTANTS[name] };
       }
       if (scope.columns.includes(name) || scope.scalars.includes(name)) {
         used.add(name);
         return { kind: 'name', name };
       }
-      if (name in FORMULA_FUNCTIONS) throw new FormulaError(`'${name}' is a function: call it with arguments, e.g. ${name}(x).`);
+      if (own(FORMULA_FUNCTIONS, name)) throw new FormulaError(`'${name}' is a function: call it with arguments, e.g. ${name}(x).`);
       const known = [...scope.columns, ...scope.scalars];
       throw new FormulaError(
         `Unknown name '${name}'.${suggestion(name, known)} Known names: ${known.length ? known.join(', ') : '(none)'}, pi, e.`,
@@ -225,7 +239,7 @@ function convert(node: jsep.Expression, scope: FormulaScope, used: Set<string>):
         throw new FormulaError(`Only the built-in functions can be called; '${describe(callee)}(…)' is not allowed.`);
       }
       const fn = String(callee.name);
-      if (!(fn in FORMULA_FUNCTIONS)) {
+      if (!own(FORMULA_FUNCTIONS, fn)) {
         throw new FormulaError(
           `Unknown function '${fn}'.${suggestion(fn, Object.keys(FORMULA_FUNCTIONS))} Available: ${Object.keys(FORMULA_FUNCTIONS).join(', ')}.`,
         );
@@ -577,7 +591,7 @@ function compileBinary(op: BinaryOp, a: Compiled, b: Compiled): Compiled {
 }
 
 function compileCall(fn: FormulaFunction, args: Compiled[]): Compiled {
-  const unary = UNARY_FNS[fn];
+  const unary = own(UNARY_FNS, fn) ? UNARY_FNS[fn] : undefined;
   if (unary) {
     const a = args[0];
     if (a.scalar) return { scalar: true, value: unary(a.value) };
@@ -686,7 +700,7 @@ export function compileFormula(ast: FormulaNode, env: FormulaEnvironment): Compi
 export function evaluateScalar(text: string, values: Record<string, number>): number {
   const names = Object.keys(values);
   const { ast } = parseFormula(text, { columns: [], scalars: names });
-  const c = compileNode(ast, { column: () => null, scalar: (n) => (n in values ? values[n] : null) });
+  const c = compileNode(ast, { column: () => null, scalar: (n) => (own(values, n) ? values[n] : null) });
   if (!c.scalar) throw new FormulaError('Formula did not reduce to a number.');
   return c.value;
 }

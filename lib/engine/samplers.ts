@@ -182,6 +182,12 @@ class ScoreSampler implements ColumnSampler {
   }
 }
 
+/** "1 in 1,000" style text for an acceptance rate. */
+function oneIn(rate: number): string {
+  if (!(rate > 0)) return 'none of the';
+  return `1 in ${Math.round(1 / rate).toLocaleString('en-US')}`;
+}
+
 /** Smallest acceptance rate a box envelope may have before a run is refused. */
 export const MIN_ACCEPTANCE = 1e-3;
 /** Attempts for a single draw after which the sampler gives up. */
@@ -208,8 +214,8 @@ export class RejectionSampler implements ColumnSampler {
     if (!(env.expectedAcceptance >= MIN_ACCEPTANCE) || !(env.M > 0) || !(env.b > env.a)) {
       throw new SamplingError(
         'acceptance-too-low',
-        `${this.who()}the box envelope would accept only ${(env.expectedAcceptance * 100).toPrecision(3)}% of candidates ` +
-          `(minimum ${MIN_ACCEPTANCE * 100}%): the density is too concentrated for box rejection sampling.`,
+        `${this.who()}the box envelope would accept only ${oneIn(env.expectedAcceptance)} candidates ` +
+          `(the minimum is ${oneIn(MIN_ACCEPTANCE)}): the density is too concentrated for box rejection sampling.`,
         label,
       );
     }
@@ -263,7 +269,7 @@ export class RejectionSampler implements ColumnSampler {
     return new SamplingError(
       'acceptance-collapsed',
       `${this.who()}rejection sampling stopped: ${this.accepted} of ${this.attempts} candidates accepted ` +
-        `(${(rate * 100).toPrecision(3)}%, expected ${(this.env.expectedAcceptance * 100).toPrecision(3)}%).`,
+        `(${oneIn(rate)}; the box should accept ${oneIn(this.env.expectedAcceptance)}).`,
       this.label,
     );
   }

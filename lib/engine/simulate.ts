@@ -209,7 +209,7 @@ export class Simulation {
 
     const env = {
       column: (name: string) => this.columns.get(name) ?? null,
-      scalar: (name: string) => (name in this.plan.scalars ? this.plan.scalars[name] : null),
+      scalar: (name: string) => (Object.prototype.hasOwnProperty.call(this.plan.scalars, name) ? this.plan.scalars[name] : null),
     };
     for (const d of this.plan.derived) {
       this.columns.set(d.id, new Float64Array(this.total));

@@ -62,7 +62,7 @@ export function wilsonInterval(count: number, n: number, z = Z975): Interval {
   const denom = 1 + z2 / n;
   const centre = (p + z2 / (2 * n)) / denom;
   const half = (z * Math.sqrt((p * (1 - p)) / n + z2 / (4 * n * n))) / denom;
-  return { low: Math.max(0, centre - half), high: Math.min(1, centre + half) };
+  return { low: count <= 0 ? 0 : Math.max(0, centre - half), high: count >= n ? 1 : Math.min(1, centre + half) };
 }
 
 /**
