@@ -563,13 +563,13 @@ export async function startFakeStripe(options: FakeStripeOptions = {}): Promise<
     port,
     fake,
     waitForWebhooks: (timeoutMs = 10_000) => deliverer.waitForIdle(timeoutMs),
-    close: () =>
-      new Promise<void>((resolve) => {
-        deliverer.stop();
-        fake.persist();
-        server.close(() => resolve());
-        server.closeAllConnections();
-      }),
+    close: async () => {
+      const closed = new Promise<void>((resolve) => server.close(() => resolve()));
+      server.closeAllConnections();
+      await deliverer.stop();
+      fake.persist();
+      await closed;
+    },
   };
 }
 

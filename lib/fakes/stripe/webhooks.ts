@@ -21,6 +21,7 @@ export class Deliverer {
   private timer: NodeJS.Timeout | null = null;
   private running = false;
   private stopped = false;
+  private draining: Promise<void> = Promise.resolve();
   private readonly idleWaiters = new Set<() => void>();
   private readonly unsubscribe: () => void;
 
@@ -37,13 +38,15 @@ export class Deliverer {
     this.kick();
   }
 
-  stop(): void {
+  /** Stops scheduling and waits for a delivery in flight, so its outcome is recorded before the state is saved. */
+  async stop(): Promise<void> {
     this.stopped = true;
     this.unsubscribe();
     if (this.timer) clearTimeout(this.timer);
     this.timer = null;
-    for (const done of this.idleWaiters) done();
+    for (const done of [...this.idleWaiters]) done();
     this.idleWaiters.clear();
+    await this.draining;
   }
 
   pendingCount(): number {
@@ -72,7 +75,7 @@ export class Deliverer {
     if (this.timer) clearTimeout(this.timer);
     this.timer = null;
     this.running = true;
-    void this.drain().finally(() => {
+    this.draining = this.drain().finally(() => {
       this.running = false;
       if (!this.stopped) this.schedule();
     });
