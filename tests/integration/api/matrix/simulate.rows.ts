@@ -1,0 +1,12 @@
+import type { MatrixRow } from './types';
+import { exampleLinearStack } from '../../../../lib/engine/examples';
+
+export const rows: MatrixRow[] = [
+  {
+    method: 'POST',
+    route: '/api/v1/simulate',
+    prepare: () => ({ path: '/api/v1/simulate', body: { model: { ...exampleLinearStack, settings: { ...exampleLinearStack.settings, trials: 2000 } } } }),
+    expect: { anonymous: 401, owner: 200, author: 200, checker: 200, outsider: 200 },
+    note: 'also open to a firm API key (tests/integration/api/simulate.test.ts)',
+  },
+];
