@@ -20,6 +20,7 @@ import { EXAMPLE_MODELS } from '@/lib/engine/examples';
 import { validateModel, type StochosModel } from '@/lib/engine/schema';
 import { AppError, conflict, forbidden, notFound } from '@/lib/http/errors';
 import type { Member } from '@/lib/auth/guard';
+import { assertAuthoringAllowed } from '@/lib/billing';
 import { blankModel } from '@/lib/models/blank';
 import { headlineIds } from '@/lib/models/widget-options';
 import { utcStamp } from '@/lib/models/templates';
@@ -28,6 +29,7 @@ import type { ModelRecord, VersionRecord, VersionSummary, WidgetRecord } from '@
 
 // The studio's rules: versions are immutable and numbered without gaps, a later save never silently overwrites,
 // checkers never check their own work, and only checked versions reach clients unless the firm says otherwise.
+// While billing makes the firm read-only, every change is refused except taking a widget down.
 
 /** Who may act on what, sent to the browser so it shows only the actions the server will accept. */
 export interface ModelAbilities {
@@ -77,6 +79,7 @@ export async function createModel(member: Member, input: CreateModelInput): Prom
     start = r.model;
   }
   return writeTransaction(async (trx) => {
+    await assertAuthoringAllowed(member.firmId, trx);
     const id = await insertModel({ firmId: member.firmId, title: input.title, template: input.template, draft: start, userId: member.userId }, trx);
     await recordAudit(
       { firmId: member.firmId, actorUserId: member.userId, action: 'model.created', targetType: 'model', targetId: id, detail: { title: input.title, template: input.template, start: input.start } },
@@ -88,6 +91,7 @@ export async function createModel(member: Member, input: CreateModelInput): Prom
 
 export async function duplicateModel(member: Member, id: string, title?: string): Promise<ModelRecord> {
   return writeTransaction(async (trx) => {
+    await assertAuthoringAllowed(member.firmId, trx);
     const source = await mustGetModel(member.firmId, id, trx);
     const latest = await getLatestVersion(member.firmId, id, trx);
     const newTitle = title ?? `${source.title} (copy)`.slice(0, 120);
@@ -110,6 +114,7 @@ export async function duplicateModel(member: Member, id: string, title?: string)
 
 export async function setArchived(member: Member, id: string, archived: boolean): Promise<ModelRecord> {
   return writeTransaction(async (trx) => {
+    await assertAuthoringAllowed(member.firmId, trx);
     const m = await mustGetModel(member.firmId, id, trx);
     if (Boolean(m.archivedAt) === archived) return m;
     if (archived) {
@@ -128,6 +133,7 @@ export async function setArchived(member: Member, id: string, archived: boolean)
  */
 export async function saveVersion(member: Member, modelId: string, input: SaveVersionInput): Promise<VersionRecord> {
   return writeTransaction(async (trx) => {
+    await assertAuthoringAllowed(member.firmId, trx);
     const m = await mustGetModel(member.firmId, modelId, trx);
     assertNotArchived(m, 'save a version');
     if (input.model.template !== m.template) {
@@ -174,6 +180,7 @@ export async function getVersion(member: Member, modelId: string, number: number
 /** A checker signs off or sends back a version written by someone else, once. */
 export async function checkVersion(member: Member, versionId: string, input: CheckInput): Promise<VersionSummary> {
   return writeTransaction(async (trx) => {
+    await assertAuthoringAllowed(member.firmId, trx);
     const v = await getVersionById(member.firmId, versionId, trx);
     if (!v) throw notFound('That version');
     if (v.authorId === member.userId) {
@@ -232,6 +239,7 @@ async function assertPublishable(member: Member, v: VersionRecord, trx: Knex.Tra
 
 export async function publish(member: Member, input: PublishInput): Promise<WidgetRecord> {
   return writeTransaction(async (trx) => {
+    await assertAuthoringAllowed(member.firmId, trx);
     const m = await mustGetModel(member.firmId, input.modelId, trx);
     assertNotArchived(m, 'publish it');
     const v = await getVersionById(member.firmId, input.versionId, trx);
@@ -273,6 +281,7 @@ export async function publish(member: Member, input: PublishInput): Promise<Widg
 
 export async function changeWidget(member: Member, id: string, patch: WidgetPatchInput): Promise<WidgetRecord> {
   return writeTransaction(async (trx) => {
+    await assertAuthoringAllowed(member.firmId, trx);
     const w = await getWidget(member.firmId, id, trx);
     if (!w) throw notFound('That widget');
     if (w.unpublishedAt) throw conflict('This widget was taken down. Publish the model again to create a new widget.');

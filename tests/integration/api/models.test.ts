@@ -314,3 +314,27 @@ describe('firm scoping', () => {
     expect(versionCount(m.id)).toBe(1);
   });
 });
+
+describe('billing', () => {
+  it('makes models read-only once the trial has ended, but still lets a widget be taken down', async () => {
+    const firm = await newFirm(appUrl, 'studio-lapsed');
+    const a = (await addMember(appUrl, mailboxUrl, firm.owner, 'author')).client;
+    const c = (await addMember(appUrl, mailboxUrl, firm.owner, 'checker')).client;
+    const m = await create(a, 'formula');
+    const v = (await save(a, m.id, 0, m.draft)).body.version;
+    await c.json('POST', `/api/versions/${v.id}/check`, { decision: 'sign_off', note: 'ok' });
+    const w = (await a.json<{ widget: { id: string } }>('POST', '/api/widgets', { modelId: m.id, versionId: v.id, title: 'Pump', panels: ['headline'], headline: 'mean', dialIds: [] })).body.widget;
+    // The trial runs 14 days from the firm's creation when no seats were bought.
+    const firmId = (db.prepare("select m.firm_id from memberships m join users u on u.id = m.user_id where u.email = ?").get(firm.email) as { firm_id: string }).firm_id;
+    db.prepare('update firms set created_at = ? where id = ?').run(new Date(Date.now() - 30 * 86_400_000).toISOString(), firmId);
+    db.prepare('update billing_accounts set trial_ends_at = ? where firm_id = ?').run(new Date(Date.now() - 16 * 86_400_000).toISOString(), firmId);
+    const blocked = await save(a, m.id, 1, m.draft);
+    expect(blocked.status).toBe(403);
+    expect(blocked.body.error.message).toMatch(/read-only/);
+    expect((await a.json('POST', '/api/models', { title: 'New', template: 'formula', start: 'blank' })).status).toBe(403);
+    expect((await a.get(`/api/models/${m.id}`)).status).toBe(200);
+    expect((await a.request('DELETE', `/api/widgets/${w.id}`)).status).toBe(204);
+    expect(versionCount(m.id)).toBe(1);
+  });
+});
+
