@@ -252,6 +252,13 @@ export function readoutAtPixel(g: CumulativeGeometry, px: number): Readout | nul
   return readout(g, value, ecdfAt(g.points, value));
 }
 
+/** The point on the curve at a value (clamped to the curve's range). */
+export function readoutAtValue(g: CumulativeGeometry, value: number): Readout | null {
+  if (!g.points.length || !Number.isFinite(value)) return null;
+  const v = Math.max(g.points[0].value, Math.min(g.points[g.points.length - 1].value, value));
+  return readout(g, v, ecdfAt(g.points, v));
+}
+
 /** The point on the curve at share p (keyboard stepping moves p). */
 export function readoutAtProbability(g: CumulativeGeometry, p: number): Readout | null {
   if (!g.points.length) return null;

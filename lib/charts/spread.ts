@@ -248,12 +248,14 @@ export function binValues(values: ArrayLike<number>, opts: { count?: number; lim
   if (anchor != null && Number.isFinite(anchor)) {
     const lower = opts.limits?.lower;
     const upper = opts.limits?.upper;
-    if (lower != null && upper != null && Number.isFinite(lower) && Number.isFinite(upper) && (upper - lower) / step >= 0.5) {
+    const across = lower != null && upper != null ? Math.round((upper - lower) / step) : NaN;
+    if (Number.isFinite(across) && across >= 1 && across <= 4 * count) {
       // Both limits on edges: a whole number of steps across the specification width.
-      step = (upper - lower) / Math.max(1, Math.round((upper - lower) / step));
+      step = ((upper as number) - (lower as number)) / across;
     }
     // Shift the grid so the limit is an edge; the first edge is at or below the minimum.
-    start = anchor - Math.ceil((anchor - lo) / step) * step;
+    const shifted = anchor - Math.ceil((anchor - lo) / step) * step;
+    start = Number.isFinite(shifted) && shifted <= lo && lo - shifted <= step ? shifted : lo;
   }
   // Thresholds by index (never by repeated addition, which can stall at large magnitudes).
   const k = Math.min(2 * count + 2, Math.max(1, Math.ceil((hi - start) / step)));

@@ -8,6 +8,7 @@ import {
   quantileAt,
   readoutAtPixel,
   readoutAtProbability,
+  readoutAtValue,
   stepReadout,
   thinEcdf,
   type CurvePoint,
@@ -20,7 +21,9 @@ function ecdfOf(values: number[], maxPoints = 201): EcdfPoint[] {
   const n = s.length;
   const out: EcdfPoint[] = [];
   for (let i = 0; i < maxPoints; i++) {
-    const r = Math.round((i * (n - 1)) / (maxPoints - 1));
+    let r = Math.round((i * (n - 1)) / (maxPoints - 1));
+    // Like the engine: step to the last of a run of equal values, so p is the ECDF there.
+    while (r + 1 < n && s[r + 1] === s[r]) r++;
     if (out.length && out[out.length - 1].x === s[r]) continue;
     out.push({ x: s[r], p: (r + 1) / n });
   }
@@ -71,7 +74,8 @@ describe('S-curve path', () => {
 
   it('thinning keeps the curve a non-decreasing function with the end points', () => {
     fc.assert(
-      fc.property(fc.array(fc.double({ min: -1e3, max: 1e3, noNaN: true }), { minLength: 2, maxLength: 300 }), fc.integer({ min: 50, max: 1200 }), (vals, px) => {
+      // Doubles (denormals included) and small integers (many ties).
+      fc.property(fc.array(fc.oneof(fc.double({ min: -1e3, max: 1e3, noNaN: true }), fc.integer({ min: -3, max: 3 })), { minLength: 2, maxLength: 300 }), fc.integer({ min: 50, max: 1200 }), (vals, px) => {
         const e = ecdfOf(vals, 101);
         const t = thinEcdf(e, Math.max(...vals) - Math.min(...vals) || 1, px);
         for (let i = 1; i < t.length; i++) {
@@ -82,7 +86,7 @@ describe('S-curve path', () => {
         expect(t[t.length - 1].value).toBe(e[e.length - 1].x);
         expect(t[t.length - 1].p).toBe(1);
       }),
-      { numRuns: 100 },
+      { numRuns: 300 },
     );
   });
 });
@@ -172,6 +176,14 @@ describe('readout lookup', () => {
     expect(r.p).toBeCloseTo(0.01, 2);
     const atP = readoutAtProbability(g, 0.8)!;
     expect(Math.abs(atP.value - percentiles[2].value) / percentiles[2].value).toBeLessThan(0.003);
+  });
+
+  it('reads the curve at a value, clamped to its range', () => {
+    const r = readoutAtValue(g, percentiles[2].value)!;
+    expect(r.value).toBe(percentiles[2].value);
+    expect(Math.abs(r.p - 0.8)).toBeLessThan(0.006);
+    expect(readoutAtValue(g, -1e12)!.value).toBe(g.points[0].value);
+    expect(readoutAtValue(g, NaN)).toBeNull();
   });
 
   it('returns nothing for an empty curve', () => {

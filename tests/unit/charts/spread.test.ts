@@ -22,18 +22,25 @@ function flatten(nodes: SceneNode[]): SceneNode[] {
 }
 
 describe('binValues', () => {
-  it('bins cover every value and count each once', () => {
+  it('bins cover every value and count each once, with or without limits to align to', () => {
     fc.assert(
-      fc.property(fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { minLength: 1, maxLength: 400 }), fc.integer({ min: 1, max: 50 }), (values, count) => {
-        const bins = binValues(values, { count });
-        expect(bins.reduce((s, b) => s + b.count, 0)).toBe(values.length);
-        const lo = Math.min(...values);
-        const hi = Math.max(...values);
-        expect(bins[0].x0).toBeLessThanOrEqual(lo);
-        expect(bins[bins.length - 1].x1).toBeGreaterThanOrEqual(hi);
-        for (let i = 1; i < bins.length; i++) expect(bins[i].x0).toBe(bins[i - 1].x1);
-      }),
-      { numRuns: 150 },
+      fc.property(
+        // Doubles (denormals included), small integers (ties) and limits anywhere, even far from the data.
+        fc.array(fc.oneof(fc.double({ min: -1e6, max: 1e6, noNaN: true }), fc.integer({ min: -3, max: 3 })), { minLength: 1, maxLength: 300 }),
+        fc.integer({ min: 1, max: 50 }),
+        fc.option(fc.double({ min: -1e6, max: 1e6, noNaN: true })),
+        fc.option(fc.double({ min: 0, max: 1e6, noNaN: true })),
+        (values, count, lower, width) => {
+          const limits = lower === null ? undefined : { lower, upper: width === null ? undefined : lower + width };
+          const bins = binValues(values, { count, limits });
+          expect(bins.reduce((s, b) => s + b.count, 0)).toBe(values.length);
+          expect(bins[0].x0).toBeLessThanOrEqual(Math.min(...values));
+          expect(bins[bins.length - 1].x1).toBeGreaterThanOrEqual(Math.max(...values));
+          expect(bins.length).toBeLessThanOrEqual(2 * count + 2);
+          for (let i = 1; i < bins.length; i++) expect(bins[i].x0).toBe(bins[i - 1].x1);
+        },
+      ),
+      { numRuns: 400 },
     );
   });
 
