@@ -1,7 +1,9 @@
 /**
  * Dials: author-chosen parameters a viewer may move. applyDials writes each dial's value
  * (the viewer's, else the dial's default) into a copy of the model and validates the
- * result, so a run always sees a consistent model.
+ * result, so a run always sees a consistent model. A dial's default is therefore the
+ * value the model runs with until a viewer moves it: it overrides the value stored at
+ * the dial's target (an editor should keep the two in step).
  */
 import { ModelValidationError, type ModelIssue } from './errors';
 import { resolveDialTarget, validateModel, type StochosModel } from './schema';

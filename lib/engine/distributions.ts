@@ -5,7 +5,7 @@
  * Every inverse CDF takes the lower probability p and its complement q = 1 - p, so the
  * upper tail keeps its precision when p comes from Phi(z) of a large z (Gaussian copula).
  */
-import { betaPdf, gamma, normalCdfPair, normalCdfPairUpper, normalPdf, normalQuantilePQ, regIncBeta } from './special';
+import { gamma, lbeta, normalCdfPair, normalCdfPairUpper, normalPdf, normalQuantilePQ, regIncBeta } from './special';
 
 export type DistributionSpec =
   | { type: 'constant'; value: number }
@@ -240,7 +240,16 @@ function pert(a: number, m: number, b: number, spec: DistributionSpec): Marginal
   const { alpha, beta } = pertShape(a, m, b);
   const mean = (a + 4 * m + b) / 6;
   const cdf = (x: number) => (x <= a ? 0 : x >= b ? 1 : regIncBeta((x - a) / w, alpha, beta));
-  const density = (x: number) => (x < a || x > b ? 0 : betaPdf((x - a) / w, alpha, beta) / w);
+  // Normalising constant computed once: the density is evaluated for every rejection candidate.
+  const scale = Math.exp(-lbeta(alpha, beta)) / w;
+  const am1 = alpha - 1;
+  const bm1 = beta - 1;
+  const density = (x: number) => {
+    if (x < a || x > b) return 0;
+    const t = (x - a) / w;
+    // 0^0 is 1 in IEEE pow, which gives the right endpoint value when a shape is 1.
+    return scale * Math.pow(t, am1) * Math.pow(1 - t, bm1);
+  };
   // Both shape parameters are >= 1, so the density is bounded and peaks at the mode.
   const M = density(m);
   let table: TabulatedInverse | null = null;
@@ -545,10 +554,20 @@ function drawn(points: { x: number; y: number }[], spec: DistributionSpec): Marg
   const a = xs[0];
   const b = xs[n - 1];
   const mean = m1 / area;
+  /** Index i of the segment [xs[i-1], xs[i]] holding x (first with xs[i] >= x). */
+  const segment = (x: number) => {
+    let lo = 1;
+    let hi = n - 1;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (xs[mid] < x) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
   const density = (x: number) => {
     if (x < a || x > b) return 0;
-    let i = 1;
-    while (i < n - 1 && xs[i] < x) i++;
+    const i = segment(x);
     const h = xs[i] - xs[i - 1];
     const y = h > 0 ? ys[i - 1] + ((ys[i] - ys[i - 1]) * (x - xs[i - 1])) / h : Math.max(ys[i - 1], ys[i]);
     return y / area;
@@ -586,8 +605,7 @@ function drawn(points: { x: number; y: number }[], spec: DistributionSpec): Marg
     cdf: (x) => {
       if (x <= a) return 0;
       if (x >= b) return 1;
-      let i = 1;
-      while (i < n - 1 && xs[i] < x) i++;
+      const i = segment(x);
       const h = xs[i] - xs[i - 1];
       const t = x - xs[i - 1];
       const slope = h > 0 ? (ys[i] - ys[i - 1]) / h : 0;
