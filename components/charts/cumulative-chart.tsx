@@ -31,6 +31,8 @@ export interface CumulativeChartProps {
   /** Budget, base estimate, sum of most likely: vertical lines meeting the curve. */
   markers?: readonly ValueMarker[];
   limits?: SpecLimits;
+  /** Print where each limit falls on the curve (budgets). */
+  limitRanks?: boolean;
   title?: ReactNode;
   description?: string;
   caption?: ReactNode;
@@ -45,9 +47,9 @@ const KEYS = new Set<ReadoutKey>(['ArrowLeft', 'ArrowRight', 'ArrowUp', 'ArrowDo
  * The S-curve with percentile markers. A readout follows the pointer; the line under the chart is a
  * slider for keyboard users (arrows move one percentage point, Page keys ten, Home/End the ends).
  */
-export function CumulativeChart({ name, unit, ecdf, percentiles, tablePercentiles, markers, limits, title, description, caption, headingLevel, className, downloads }: CumulativeChartProps) {
+export function CumulativeChart({ name, unit, ecdf, percentiles, tablePercentiles, markers, limits, limitRanks, title, description, caption, headingLevel, className, downloads }: CumulativeChartProps) {
   const [ref, width] = useElementWidth();
-  const geometry = useMemo(() => cumulativeGeometry({ ecdf, name, unit, percentiles, markers, limits, width }), [ecdf, name, unit, percentiles, markers, limits, width]);
+  const geometry = useMemo(() => cumulativeGeometry({ ecdf, name, unit, percentiles, markers, limits, limitRanks, width }), [ecdf, name, unit, percentiles, markers, limits, limitRanks, width]);
   const scene = useMemo(() => cumulativeScene(geometry, { title: `S-curve of ${name}`, description }), [geometry, name, description]);
   // The selection is kept as a value (pointer) or a share (keyboard), so it survives a redraw at a new width.
   const [sel, setSel] = useState<{ by: 'value' | 'p'; v: number } | null>(null);

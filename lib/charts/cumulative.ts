@@ -32,6 +32,8 @@ export interface CumulativeInput {
   markers?: readonly ValueMarker[];
   /** Limits hatch the region beyond them, as on the spread chart. */
   limits?: SpecLimits;
+  /** Add where each limit falls on the curve to its label ("Budget €600 k · P68"); for budgets. */
+  limitRanks?: boolean;
   width: number;
   plotHeight?: number;
 }
@@ -159,9 +161,10 @@ export function cumulativeGeometry(input: CumulativeInput): CumulativeGeometry {
   const points = thinEcdf(input.ecdf, xDomain[1] - xDomain[0], innerWidth);
 
   const refP = refs.map((m) => ecdfAt(points, m.value));
+  const rank = (v: number) => (input.limitRanks && points.length ? ` · ${percentileName(Math.round(ecdfAt(points, v) * 100) / 100)}` : '');
   const limitReqs = [
-    ...(lower !== null ? [{ x: x(lower), text: `${input.limits?.lowerLabel ?? 'Lower limit'} ${formatValue(lower, unit, { significant: 6, trim: true })}`, size: 11, font: 'sans' as const, prefer: 'end' as const }] : []),
-    ...(upper !== null ? [{ x: x(upper), text: `${input.limits?.upperLabel ?? 'Upper limit'} ${formatValue(upper, unit, { significant: 6, trim: true })}`, size: 11, font: 'sans' as const, prefer: 'start' as const }] : []),
+    ...(lower !== null ? [{ x: x(lower), text: `${input.limits?.lowerLabel ?? 'Lower limit'} ${formatValue(lower, unit, { significant: 6, trim: true })}${rank(lower)}`, size: 11, font: 'sans' as const, prefer: 'end' as const }] : []),
+    ...(upper !== null ? [{ x: x(upper), text: `${input.limits?.upperLabel ?? 'Upper limit'} ${formatValue(upper, unit, { significant: 6, trim: true })}${rank(upper)}`, size: 11, font: 'sans' as const, prefer: 'start' as const }] : []),
   ];
   const placed = placeLabels(
     [...limitReqs, ...refs.map((m, i) => ({ x: x(m.value), text: refText(m, refP[i], unit), size: 11, font: 'sans' as const, prefer: 'middle' as const }))],

@@ -9,4 +9,5 @@ export * from './spread';
 export * from './cumulative';
 export * from './drivers';
 export * from './scatter';
+export * from './ranges';
 export * from './svg-string';

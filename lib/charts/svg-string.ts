@@ -4,6 +4,7 @@
 import { CHART_FONTS } from './palette';
 import { cumulativeGeometry, cumulativeScene, type CumulativeInput } from './cumulative';
 import { driversGeometry, driversScene, type DriversInput } from './drivers';
+import { rangesGeometry, rangesScene, type RangesInput } from './ranges';
 import { scatterGeometry, scatterScene, type ScatterInput } from './scatter';
 import type { Paint, PatternDef, Scene, SceneNode, TextNode } from './scene';
 import { spreadGeometry, spreadScene } from './spread';
@@ -172,4 +173,8 @@ export function driversSvg(input: DriversInput, text?: Partial<SceneText>, opts?
 
 export function scatterSvg(input: ScatterInput, text?: Partial<SceneText>, opts?: SvgOptions): string {
   return sceneToSvgString(scatterScene(scatterGeometry(input), text), opts);
+}
+
+export function rangesSvg(input: RangesInput, text?: Partial<SceneText>, opts?: SvgOptions): string {
+  return sceneToSvgString(rangesScene(rangesGeometry(input), text), opts);
 }

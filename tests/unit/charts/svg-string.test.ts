@@ -4,7 +4,7 @@ import SVGtoPDF from 'svg-to-pdfkit';
 import path from 'node:path';
 import seedrandom from 'seedrandom';
 import { binValues } from '@/lib/charts/spread';
-import { cumulativeSvg, driversSvg, escapeXml, fontRoleOf, scatterSvg, sceneToSvgString, spreadSvg } from '@/lib/charts/svg-string';
+import { cumulativeSvg, driversSvg, escapeXml, fontRoleOf, rangesSvg, scatterSvg, sceneToSvgString, spreadSvg } from '@/lib/charts/svg-string';
 import { chartFontCallback, registerChartFonts } from '@/lib/charts/pdf-fonts';
 import { allElements, parseXml } from './xml-check';
 
@@ -38,6 +38,16 @@ const charts: Record<string, string> = {
       { id: 'b', label: 'Shaft & collar', share: 0.4, correlation: -0.5 },
     ],
     width: 500,
+  }),
+  ranges: rangesSvg({
+    name: 'Gap',
+    unit: 'mm',
+    limits: { lower: 0.05, upper: 0.4 },
+    rows: [
+      { id: 'wc', label: 'Worst case', min: -0.07, max: 0.51, centre: 0.22 },
+      { id: 'rss', label: 'RSS', min: 0.099, max: 0.341, centre: 0.22 },
+    ],
+    width: 600,
   }),
   scatter: scatterSvg({ x: gap.map((v) => v * 10), y: gap, xName: 'Bore', xUnit: 'mm', yName: 'Gap', yUnit: 'mm', limits: { lower: 0.1 }, width: 420, maxPoints: 300 }),
 };
