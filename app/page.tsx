@@ -71,8 +71,11 @@ function SpreadIllustration() {
           <path d="M0 0v4" stroke="#b45309" strokeWidth="1.6" />
         </pattern>
       </defs>
+      {/* Out-of-specification zones: pattern and colour, never colour alone. */}
+      <rect x={SPREAD.pad} y="14" width={sx(GAP.lsl) - SPREAD.pad} height={SPREAD.base - 14} fill="url(#hatch-out)" opacity="0.55" />
+      <rect x={sx(GAP.usl)} y="14" width={SPREAD.w - SPREAD.pad - sx(GAP.usl)} height={SPREAD.base - 14} fill="url(#hatch-out)" opacity="0.55" />
       {bars.map((b) => (
-        <rect key={b.x} x={b.x} y={b.y} width={b.w} height={b.h} fill={b.out ? 'url(#hatch-out)' : '#3ba597'} stroke={b.out ? '#b45309' : 'none'} strokeWidth="0.8" />
+        <rect key={b.x} x={b.x} y={b.y} width={b.w} height={b.h} fill={b.out ? '#b45309' : '#3ba597'} />
       ))}
       <path d={`M${SPREAD.pad} ${SPREAD.base}H${SPREAD.w - SPREAD.pad}`} stroke="#7b8b97" />
       {[
@@ -118,14 +121,14 @@ function CostIllustration() {
         <g key={m.label}>
           <path d={`M${CURVE.padX} ${sy(m.p)}H${sx(m.v)}V${CURVE.base}`} fill="none" stroke="#445461" strokeWidth="0.8" strokeDasharray="2 2" />
           <circle cx={sx(m.v)} cy={sy(m.p)} r="2.6" fill="#fff" stroke="#14574f" strokeWidth="1.4" />
-          <text x={sx(m.v) - 4} y={sy(m.p) - 5} textAnchor="end" className="fill-ink-800 font-mono text-[8px]">
-            {m.label}
+          <text x={CURVE.padX + 2} y={sy(m.p) - 3} className="fill-ink-800 font-mono text-[8px]">
+            {m.label} {m.v.toFixed(2)}
           </text>
         </g>
       ))}
       <g>
         <path d={`M${sx(11.6)} ${sy(0.2575) - 4}v8`} stroke="#445461" strokeWidth="1.2" />
-        <text x={sx(11.6) + 4} y={sy(0.2575) + 3} className="fill-ink-700 font-mono text-[8px]">
+        <text x={sx(11.6) - 4} y={sy(0.2575) - 6} textAnchor="end" className="fill-ink-700 font-mono text-[8px]">
           Σ most likely
         </text>
       </g>
@@ -138,10 +141,48 @@ function CostIllustration() {
   );
 }
 
+/** A one-dimensional stack: the housing length (+A) less three parts (−B, −C, −D) leaves the gap. */
+function StackIllustration() {
+  const parts = [
+    { x0: 24, x1: 112, label: '−B', fill: '#d2d9de' },
+    { x0: 112, x1: 190, label: '−C', fill: '#e8ecef' },
+    { x0: 190, x1: 262, label: '−D', fill: '#d2d9de' },
+  ];
+  const arrow = (x0: number, x1: number, y: number, key: string, label: string, tone = '#445461') => (
+    <g key={key}>
+      <path d={`M${x0} ${y - 4}v8M${x1} ${y - 4}v8M${x0 + 1} ${y}H${x1 - 1}`} stroke={tone} strokeWidth="1" />
+      <path d={`M${x0 + 1} ${y}l4 -2.2v4.4zM${x1 - 1} ${y}l-4 -2.2v4.4z`} fill={tone} />
+      <text x={(x0 + x1) / 2} y={y - 5} textAnchor="middle" className="font-mono text-[8px]" fill={tone}>
+        {label}
+      </text>
+    </g>
+  );
+  return (
+    <svg viewBox="0 0 320 122" className="h-auto w-full" role="img" aria-labelledby="stack-title stack-desc">
+      <title id="stack-title">A linear tolerance stack (illustration)</title>
+      <desc id="stack-desc">A housing of length A holds three parts B, C and D in a row; the gap left at the end is A minus B, C and D.</desc>
+      <rect x="14" y="22" width="10" height="46" fill="#7b8b97" />
+      <rect x="296" y="22" width="10" height="46" fill="#7b8b97" />
+      <path d="M14 68H306" stroke="#7b8b97" strokeWidth="2" />
+      {parts.map((p) => (
+        <g key={p.label}>
+          <rect x={p.x0 + 0.5} y="32" width={p.x1 - p.x0 - 1} height="34" rx="1.5" fill={p.fill} stroke="#445461" strokeWidth="1" />
+        </g>
+      ))}
+      <rect x="262.5" y="32" width="33" height="34" fill="#eef8f6" stroke="#14574f" strokeWidth="1.2" strokeDasharray="3 2" />
+      <text x="279" y="53" textAnchor="middle" className="font-mono text-[8px]" fill="#14574f">
+        gap
+      </text>
+      {parts.map((p) => arrow(p.x0, p.x1, 88, p.label, p.label))}
+      {arrow(24, 296, 110, 'A', '+A')}
+    </svg>
+  );
+}
+
 function Figure({ label, value, unit, note }: { label: React.ReactNode; value: string; unit?: string; note?: string }) {
   return (
     <div className="min-w-0">
-      <dt className="text-[0.6875rem] font-medium tracking-wide text-ink-600 uppercase">{label}</dt>
+      <dt className="text-xs font-medium text-ink-600">{label}</dt>
       <dd className="num mt-0.5 text-lg leading-tight font-medium text-ink-900">
         {value}
         {unit ? <span className="ml-1 text-xs text-ink-600">{unit}</span> : null}
@@ -241,9 +282,11 @@ export default function LandingPage() {
             <Link href="/sign-in" className="rounded-md px-2.5 py-2 text-sm font-medium text-ink-800 hover:bg-ink-100">
               Sign in
             </Link>
-            <LinkButton href="/sign-up" size="sm" className="hidden sm:inline-flex">
-              Create your firm’s account
-            </LinkButton>
+            <span className="hidden sm:block">
+              <LinkButton href="/sign-up" size="sm">
+                Create your firm’s account
+              </LinkButton>
+            </span>
           </div>
         </div>
       </header>
@@ -306,6 +349,12 @@ export default function LandingPage() {
                   A tolerance stack-up with each contributor’s nominal, tolerances and direction around the loop. <Term term="worst case">Worst case</Term>, <Term term="RSS" /> and{' '}
                   <Term term="Monte Carlo" /> side by side; the fraction of assemblies out of specification in <Term term="ppm" />; <Term term="Pp/Ppk" /> of the gap; and the contributors
                   ranked by their share of the variation.
+                </p>
+                <div className="mt-4 rounded-md border border-ink-100 bg-ink-50 px-2 pt-2 pb-1">
+                  <StackIllustration />
+                </div>
+                <p className="mt-2 text-xs text-ink-600">
+                  Gap = A − B − C − D. Each dimension carries its own tolerance and distribution; a dial can let the client try a tighter tolerance or another supplier’s process.
                 </p>
               </article>
               <article className="rounded-lg border border-ink-200 bg-white p-5">

@@ -75,7 +75,7 @@ function AcceptForm({ token, invitation }: { token: string; invitation: Invitati
   if (gone) return <GoneNotice message={gone} />;
 
   return (
-    <form onSubmit={submit} noValidate aria-label="Accept the invitation" className="space-y-4">
+    <form onSubmit={submit} noValidate className="space-y-4">
       <FormError messages={messages} />
       {existing ? (
         <p className="text-sm text-ink-700">

@@ -50,10 +50,7 @@ function PasswordForm({ next, defaultEmail }: { next: string; defaultEmail: stri
   });
 
   return (
-    <form onSubmit={submit} noValidate aria-labelledby="password-form-title" className="space-y-4">
-      <h2 id="password-form-title" className="sr-only">
-        Sign in with your password
-      </h2>
+    <form onSubmit={submit} noValidate className="space-y-4">
       <FormError messages={messages} />
       <TextField label="E-mail" type="email" autoComplete="username" error={errors.email?.message} {...register('email')} />
       <TextField label="Password" type="password" autoComplete="current-password" error={errors.password?.message} {...register('password')} />
@@ -88,10 +85,8 @@ function LinkForm({ next, defaultEmail }: { next: string; defaultEmail: string }
   });
 
   return (
-    <form onSubmit={submit} noValidate aria-labelledby="link-form-title" className="space-y-3">
-      <h2 id="link-form-title" className="text-sm font-semibold text-ink-900">
-        No password to hand?
-      </h2>
+    <form onSubmit={submit} noValidate className="space-y-3">
+      <h2 className="text-sm font-semibold text-ink-900">Sign in with a link instead</h2>
       <p className="text-sm text-ink-600">We e-mail you a link that signs you in once. It expires after 15 minutes.</p>
       <FormError messages={messages} />
       <TextField label="E-mail address for the link" type="email" autoComplete="email" error={errors.email?.message} {...register('email')} />

@@ -56,7 +56,7 @@ export function SignUpForm() {
   }
 
   return (
-    <form onSubmit={submit} noValidate aria-label="Create your firm’s account" className="space-y-4">
+    <form onSubmit={submit} noValidate className="space-y-4">
       <FormError messages={messages} />
       <TextField label="Firm name" autoComplete="organization" hint="Your consultancy, as clients know it." error={errors.firmName?.message} {...register('firmName')} />
       <TextField label="Your name" autoComplete="name" error={errors.name?.message} {...register('name')} />

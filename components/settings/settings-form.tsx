@@ -37,18 +37,31 @@ function BrandPreview({ colour }: { colour: string }) {
   const white = contrastRatio(colour, '#ffffff');
   const dark = contrastRatio(colour, '#141c22');
   if (white === null || dark === null) {
-    return <div aria-hidden="true" className="st-grid h-10 w-10 flex-none rounded-md border border-dashed border-ink-400 bg-white" />;
+    return (
+      <div className="flex flex-wrap items-center gap-3">
+        <div aria-hidden="true" className="st-grid h-12 w-20 flex-none rounded-md border border-dashed border-ink-400 bg-white" />
+        <p className="text-[0.8125rem] text-ink-600">The swatch appears once the colour is a six-digit hex value.</p>
+      </div>
+    );
   }
   const best = white >= dark ? { text: '#ffffff', ratio: white, name: 'white' } : { text: '#141c22', ratio: dark, name: 'dark' };
+  const verdict =
+    best.ratio >= 4.5
+      ? 'meets WCAG AA for text of any size.'
+      : best.ratio >= 3
+        ? 'meets WCAG AA for large text and chart marks (3:1) but not for small text (4.5:1).'
+        : 'below WCAG AA even for large text: choose a darker or lighter colour.';
   return (
     <div className="flex flex-wrap items-center gap-3">
-      <div aria-hidden="true" className="h-10 w-10 flex-none rounded-md border border-ink-300 shadow-inner" style={{ backgroundColor: colour }} />
-      <span aria-hidden="true" className="inline-flex h-8 items-center rounded-md px-3 text-sm font-medium" style={{ backgroundColor: colour, color: best.text }}>
-        Sample label
-      </span>
-      <p className="text-[0.8125rem] text-ink-600">
-        Best text on it: {best.name}, contrast <span className="num text-ink-900">{best.ratio.toFixed(1)}:1</span>{' '}
-        {best.ratio >= 4.5 ? '(meets WCAG AA for text).' : '(below the 4.5:1 WCAG AA minimum for text: choose a darker or lighter colour).'}
+      <div
+        aria-hidden="true"
+        className="num flex h-12 w-20 flex-none items-center justify-center rounded-md border border-ink-300 text-base font-medium shadow-inner"
+        style={{ backgroundColor: colour, color: best.text }}
+      >
+        P80
+      </div>
+      <p className="min-w-0 flex-1 basis-56 text-[0.8125rem] text-ink-600">
+        Swatch with {best.name} text, contrast <span className="num text-ink-900">{best.ratio.toFixed(1)}:1</span>: {verdict}
       </p>
     </div>
   );
@@ -91,7 +104,7 @@ function SettingsFields({ initial, canEdit, onSave }: { initial: FirmSettings; c
   });
 
   return (
-    <form onSubmit={submit} noValidate aria-label="Firm settings" className="space-y-6">
+    <form onSubmit={submit} noValidate className="space-y-6">
       {!canEdit ? (
         <Banner tone="info" title="Read only">
           Only the account owner can change these settings. They apply to every model and widget of your firm.
@@ -113,7 +126,8 @@ function SettingsFields({ initial, canEdit, onSave }: { initial: FirmSettings; c
               maxLength={3}
               autoCapitalize="characters"
               spellCheck={false}
-              inputClassName="num uppercase w-28"
+              inputClassName="num uppercase"
+              controlWidth="w-28"
               error={errors.currencyDefault?.message}
               {...register('currencyDefault', { setValueAs: (v: string) => String(v ?? '').trim().toUpperCase() })}
             />
@@ -122,24 +136,25 @@ function SettingsFields({ initial, canEdit, onSave }: { initial: FirmSettings; c
 
         <Card title="Branding and snapshots" as="h2" description="Widgets in your clients’ portals and PDF snapshots carry your accent colour.">
           <div className="space-y-4">
-            <div className="flex flex-wrap items-end gap-3">
-              <TextField
-                label="Brand colour"
-                hint="A hex colour such as #1f887b."
-                maxLength={7}
-                spellCheck={false}
-                inputClassName="num w-32"
-                error={errors.brandColor?.message}
-                {...register('brandColor')}
-              />
-              <input
-                type="color"
-                aria-label="Colour picker"
-                value={validColour ? colour.toLowerCase() : '#1f887b'}
-                onChange={(e) => setValue('brandColor', e.target.value, { shouldDirty: true, shouldValidate: true })}
-                className="mb-[1.625rem] h-10 w-12 cursor-pointer rounded-md border border-ink-400 bg-white p-1 disabled:cursor-not-allowed"
-              />
-            </div>
+            <TextField
+              label="Brand colour"
+              hint="A hex colour such as #1f887b, or pick one."
+              maxLength={7}
+              spellCheck={false}
+              inputClassName="num"
+              controlWidth="w-32"
+              error={errors.brandColor?.message}
+              {...register('brandColor')}
+              after={
+                <input
+                  type="color"
+                  aria-label="Colour picker"
+                  value={validColour ? colour.toLowerCase() : '#1f887b'}
+                  onChange={(e) => setValue('brandColor', e.target.value, { shouldDirty: true, shouldValidate: true })}
+                  className="h-10 w-12 cursor-pointer rounded-md border border-ink-400 bg-white p-1 disabled:cursor-not-allowed"
+                />
+              }
+            />
             <BrandPreview colour={colour} />
             <Select label="PDF paper size" options={PAPER_OPTIONS} error={errors.paperSize?.message} {...register('paperSize')} className="max-w-xs" />
           </div>

@@ -43,12 +43,12 @@ export function DashboardShell({ firmName, userName, userEmail, roleLabel, nav, 
         Skip to content
       </a>
       <aside className="bg-ink-900 text-ink-100 lg:fixed lg:inset-y-0 lg:left-0 lg:flex lg:w-60 lg:flex-col">
-        <div className="flex h-14 items-center gap-3 px-4">
+        <div className="flex min-h-14 items-center gap-3 px-4 py-2">
           <Link href="/app/models" className="flex min-w-0 items-center gap-2.5 rounded-md">
             <LogoMark />
             <span className="min-w-0">
               <span className="block text-[0.6875rem] leading-tight font-medium tracking-wide text-accent-300 uppercase">Stochos</span>
-              <span className="block truncate text-sm leading-tight font-semibold text-white">{firmName}</span>
+              <span className="block truncate text-sm leading-tight font-semibold text-white lg:line-clamp-2 lg:whitespace-normal">{firmName}</span>
             </span>
           </Link>
           <button

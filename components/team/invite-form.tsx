@@ -16,8 +16,8 @@ type In = z.input<typeof inviteSchema>;
 type Out = z.output<typeof inviteSchema>;
 
 const ROLE_OPTIONS = [
-  { value: 'author', label: 'Author: builds and publishes models' },
-  { value: 'checker', label: 'Checker: reviews and signs off versions' },
+  { value: 'author', label: 'Author' },
+  { value: 'checker', label: 'Checker' },
 ];
 
 export function InviteForm({ onInvite }: { onInvite: (v: Out) => Promise<Invitation> }) {
@@ -44,14 +44,14 @@ export function InviteForm({ onInvite }: { onInvite: (v: Out) => Promise<Invitat
   });
 
   return (
-    <form onSubmit={submit} noValidate aria-labelledby="invite-heading" className="space-y-3">
+    <form onSubmit={submit} noValidate className="space-y-3">
       <FormError messages={formMessages} />
       {sent ? (
         <Banner tone="success" title="Invitation sent">
           We e-mailed a link to join as {sent}. It works once and expires in 7 days; it is listed under Pending invitations until then.
         </Banner>
       ) : null}
-      <div className="grid gap-3 sm:grid-cols-[minmax(0,1fr)_minmax(0,16rem)_auto] sm:items-start">
+      <div className="grid gap-3 sm:grid-cols-[minmax(0,1fr)_minmax(0,11rem)_auto] sm:items-start">
         <TextField label="E-mail" type="email" autoComplete="off" placeholder="colleague@yourfirm.com" error={errors.email?.message} {...register('email')} />
         <Select label="Role" options={ROLE_OPTIONS} error={errors.role?.message} {...register('role')} />
         <Button type="submit" pending={isSubmitting} pendingLabel="Sending…" className="sm:mt-6">

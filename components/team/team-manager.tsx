@@ -181,7 +181,11 @@ export function TeamManager({ currentMembershipId }: { currentMembershipId: stri
 
   return (
     <div className="space-y-6">
-      <Card id="invite" title={<span id="invite-heading">Invite a colleague</span>} description="Authors and checkers each take a seat. The invitation link is e-mailed, works once and expires after 7 days.">
+      <Card
+        id="invite"
+        title="Invite a colleague"
+        description="Authors build models and publish checked versions; checkers review versions and sign them off. Each takes a seat. The link is e-mailed, works once and expires after 7 days."
+      >
         <InviteForm onInvite={team.invite} />
         {seats ? (
           <p className="mt-4 border-t border-ink-100 pt-3 text-sm text-ink-600">
@@ -194,7 +198,8 @@ export function TeamManager({ currentMembershipId }: { currentMembershipId: stri
             {seats.reason ? <> ({seats.reason})</> : null}.{' '}
             {seatsFull ? (
               <>
-                All seats are taken: <Link href="/app/billing" className="font-medium text-accent-800 underline">add seats on the Billing page</Link> or revoke an invitation.
+                All seats are taken: <Link href="/app/billing" className="font-medium text-accent-800 underline">add seats on the Billing page</Link>
+                {seats.pendingInvitations ? ' or revoke a pending invitation' : ''}.
               </>
             ) : null}
           </p>
@@ -217,12 +222,12 @@ export function TeamManager({ currentMembershipId }: { currentMembershipId: stri
           <Loading>Loading the team…</Loading>
         ) : (
           <DataTable
-            caption="Members of the firm"
+            caption="Members"
             columns={memberColumns}
             rows={team.data.members}
             rowKey={(m) => m.id}
             rowClassName={(m) => (m.status === 'removed' ? 'bg-ink-50 text-ink-600' : undefined)}
-            empty={<EmptyState as="h3" title="No members">Invite authors and checkers with the form above.</EmptyState>}
+            empty={<EmptyState as="h3" compact title="No members">Invite authors and checkers with the form above.</EmptyState>}
           />
         )}
       </section>
@@ -238,7 +243,7 @@ export function TeamManager({ currentMembershipId }: { currentMembershipId: stri
             rows={team.data.invitations}
             rowKey={(i) => i.id}
             empty={
-              <EmptyState as="h3" title="No pending invitations">
+              <EmptyState as="h3" compact title="No pending invitations">
                 <p>Invite an author or a checker with the form above. Accepted, revoked and expired invitations leave this list; accepted ones appear under Members.</p>
               </EmptyState>
             }

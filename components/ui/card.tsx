@@ -15,14 +15,14 @@ export interface CardProps {
 }
 
 export function Card({ title, description, actions, as: H = 'h2', className, bodyClassName, id, children }: CardProps) {
-  const headingId = id ? `${id}-title` : undefined;
+  // No aria-labelledby on purpose: named regions would add landmark noise, and the heading already names the card.
   return (
-    <section id={id} aria-labelledby={title ? headingId : undefined} className={cx('rounded-lg border border-ink-200 bg-white shadow-[0_1px_0_rgb(20_28_34/0.04)]', className)}>
+    <section id={id} className={cx('rounded-lg border border-ink-200 bg-white shadow-[0_1px_0_rgb(20_28_34/0.04)]', className)}>
       {title || actions ? (
         <header className="flex flex-wrap items-start justify-between gap-3 border-b border-ink-100 px-4 py-3 sm:px-5">
           <div className="min-w-0">
             {title ? (
-              <H id={headingId} className="text-[0.9375rem] font-semibold text-ink-900">
+              <H className="text-[0.9375rem] font-semibold text-ink-900">
                 {title}
               </H>
             ) : null}

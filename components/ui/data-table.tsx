@@ -73,7 +73,7 @@ export function DataTable<T>({ caption, showCaption, columns, rows, rowKey, empt
   if (!rows.length && empty) return <>{empty}</>;
 
   return (
-    <div role="region" aria-label={caption} tabIndex={0} className={cx('overflow-x-auto rounded-lg border border-ink-200 bg-white', className)}>
+    <div role="region" aria-label={caption} tabIndex={0} className={cx('relative overflow-x-auto rounded-lg border border-ink-200 bg-white', className)}>
       <table className="w-full border-collapse text-left text-sm">
         <caption className={showCaption ? 'px-4 py-2 text-left text-sm font-semibold text-ink-900' : 'sr-only'}>{caption}</caption>
         <thead className="border-b border-ink-200 bg-ink-50">
@@ -85,7 +85,7 @@ export function DataTable<T>({ caption, showCaption, columns, rows, rowKey, empt
                   key={c.key}
                   scope="col"
                   aria-sort={c.sortValue ? (dir === 'asc' ? 'ascending' : dir === 'desc' ? 'descending' : 'none') : undefined}
-                  className={cx('px-3 py-2 text-xs font-semibold tracking-wide text-ink-700 uppercase first:pl-4 last:pr-4', c.numeric && 'text-right', c.hideBelow && hide[c.hideBelow], c.className)}
+                  className={cx('px-3 py-2 text-xs font-semibold tracking-wide whitespace-nowrap text-ink-700 uppercase first:pl-4 last:pr-4', c.numeric && 'text-right', c.hideBelow && hide[c.hideBelow], c.className)}
                 >
                   {c.sortValue ? (
                     <button

@@ -11,6 +11,8 @@ export interface EmptyStateProps {
   icon?: ReactNode;
   /** Heading level (h2 on a page, h3 inside a card). */
   as?: 'h2' | 'h3';
+  /** A smaller version without the drawing, for a list inside a busy page. */
+  compact?: boolean;
   className?: string;
 }
 
@@ -32,10 +34,16 @@ function DefaultIcon() {
   );
 }
 
-export function EmptyState({ title, children, action, icon, as: H = 'h2', className }: EmptyStateProps) {
+export function EmptyState({ title, children, action, icon, as: H = 'h2', compact = false, className }: EmptyStateProps) {
   return (
-    <div className={cx('st-grid flex flex-col items-center rounded-lg border border-dashed border-ink-300 bg-white px-5 py-10 text-center sm:py-12', className)}>
-      <div className="mb-3">{icon ?? <DefaultIcon />}</div>
+    <div
+      className={cx(
+        'flex flex-col items-center rounded-lg border border-dashed border-ink-300 bg-white px-5 text-center',
+        compact ? 'py-5' : 'st-grid py-10 sm:py-12',
+        className,
+      )}
+    >
+      {compact && !icon ? null : <div className="mb-3">{icon ?? <DefaultIcon />}</div>}
       <H className="text-base font-semibold text-ink-900">{title}</H>
       {children ? <div className="mt-1.5 max-w-prose space-y-2 text-sm text-ink-600">{children}</div> : null}
       {action ? <div className="mt-4 flex flex-wrap justify-center gap-2">{action}</div> : null}

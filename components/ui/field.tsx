@@ -13,6 +13,8 @@ interface FieldChrome {
   hideLabel?: boolean;
   /** Classes for the wrapper. */
   className?: string;
+  /** Width class of the control itself (default w-full), e.g. "w-28" for a currency code. */
+  controlWidth?: string;
 }
 
 function useFieldIds(id: string | undefined, hint: ReactNode, error: string | undefined) {
@@ -52,41 +54,57 @@ function Hint({ id, children }: { id?: string; children: ReactNode }) {
   );
 }
 
-export const controlClasses = (invalid: boolean, extra?: string) =>
+export const controlClasses = (invalid: boolean, extra?: string, width = 'w-full') =>
   cx(
-    'block w-full rounded-md border bg-white px-3 text-ink-900 shadow-sm placeholder:text-ink-500',
+    width,
+    'block rounded-md border bg-white px-3 text-ink-900 shadow-sm placeholder:text-ink-500',
     'disabled:cursor-not-allowed disabled:bg-ink-100 disabled:text-ink-600 read-only:bg-ink-50',
     invalid ? 'border-danger-600 ring-1 ring-danger-600' : 'border-ink-400 hover:border-ink-500',
     extra,
   );
 
-export type TextFieldProps = FieldChrome & Omit<ComponentProps<'input'>, 'className'> & { inputClassName?: string };
+export type TextFieldProps = FieldChrome &
+  Omit<ComponentProps<'input'>, 'className'> & {
+    inputClassName?: string;
+    /** Something beside the input on the same line, e.g. a colour picker or a button. */
+    after?: ReactNode;
+  };
 
-export function TextField({ label, hint, error, hideLabel, className, inputClassName, id, type = 'text', ...input }: TextFieldProps) {
+export function TextField({ label, hint, error, hideLabel, className, inputClassName, controlWidth, after, id, type = 'text', ...input }: TextFieldProps) {
   const ids = useFieldIds(id, hint, error);
+  const control = (
+    <input
+      id={ids.inputId}
+      type={type}
+      aria-invalid={error ? true : undefined}
+      aria-describedby={ids.describedBy}
+      className={controlClasses(Boolean(error), cx('h-10', inputClassName), controlWidth)}
+      {...input}
+    />
+  );
   return (
     <div className={className}>
       <Label htmlFor={ids.inputId} hidden={hideLabel}>
         {label}
       </Label>
-      <input
-        id={ids.inputId}
-        type={type}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={ids.describedBy}
-        className={controlClasses(Boolean(error), cx('h-10', inputClassName))}
-        {...input}
-      />
+      {after ? (
+        <div className="flex items-center gap-2">
+          {control}
+          {after}
+        </div>
+      ) : (
+        control
+      )}
       {error ? <FieldError id={ids.errorId}>{error}</FieldError> : null}
       {hint ? <Hint id={ids.hintId}>{hint}</Hint> : null}
     </div>
   );
 }
 
-export type NumberFieldProps = TextFieldProps & { unit?: ReactNode };
+export type NumberFieldProps = Omit<TextFieldProps, 'after'> & { unit?: ReactNode };
 
 /** Numbers in tabular mono figures, with the unit shown beside the value. */
-export function NumberField({ label, hint, error, hideLabel, className, inputClassName, id, unit, type = 'number', ...input }: NumberFieldProps) {
+export function NumberField({ label, hint, error, hideLabel, className, inputClassName, controlWidth, id, unit, type = 'number', ...input }: NumberFieldProps) {
   const ids = useFieldIds(id, hint, error);
   const unitId = unit ? `${ids.inputId}-unit` : undefined;
   return (
@@ -102,7 +120,7 @@ export function NumberField({ label, hint, error, hideLabel, className, inputCla
           step={type === 'number' ? 'any' : undefined}
           aria-invalid={error ? true : undefined}
           aria-describedby={[ids.describedBy, unitId].filter(Boolean).join(' ') || undefined}
-          className={controlClasses(Boolean(error), cx('num h-10 text-right', unit ? 'rounded-r-none' : undefined, inputClassName))}
+          className={controlClasses(Boolean(error), cx('num h-10 text-right', unit ? 'rounded-r-none' : undefined, inputClassName), controlWidth)}
           {...input}
         />
         {unit ? (
@@ -125,19 +143,19 @@ export interface SelectOption {
 
 export type SelectProps = FieldChrome & Omit<ComponentProps<'select'>, 'className'> & { options: readonly SelectOption[]; selectClassName?: string };
 
-export function Select({ label, hint, error, hideLabel, className, selectClassName, id, options, ...select }: SelectProps) {
+export function Select({ label, hint, error, hideLabel, className, selectClassName, controlWidth, id, options, ...select }: SelectProps) {
   const ids = useFieldIds(id, hint, error);
   return (
     <div className={className}>
       <Label htmlFor={ids.inputId} hidden={hideLabel}>
         {label}
       </Label>
-      <div className="relative">
+      <div className={cx('relative', controlWidth && controlWidth !== 'w-full' ? 'w-fit' : undefined)}>
         <select
           id={ids.inputId}
           aria-invalid={error ? true : undefined}
           aria-describedby={ids.describedBy}
-          className={controlClasses(Boolean(error), cx('h-10 appearance-none pr-9', selectClassName))}
+          className={controlClasses(Boolean(error), cx('h-10 appearance-none pr-9', selectClassName), controlWidth)}
           {...select}
         >
           {options.map((o) => (
@@ -156,7 +174,7 @@ export function Select({ label, hint, error, hideLabel, className, selectClassNa
   );
 }
 
-export type CheckboxProps = Omit<FieldChrome, 'hideLabel'> & Omit<ComponentProps<'input'>, 'className' | 'type'>;
+export type CheckboxProps = Omit<FieldChrome, 'hideLabel' | 'controlWidth'> & Omit<ComponentProps<'input'>, 'className' | 'type'>;
 
 export function Checkbox({ label, hint, error, className, id, ...input }: CheckboxProps) {
   const ids = useFieldIds(id, hint, error);

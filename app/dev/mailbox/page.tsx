@@ -9,10 +9,12 @@ export const metadata: Metadata = { title: 'Development mailbox', robots: { inde
 export default function DevMailboxPage() {
   return (
     <div className="min-h-dvh">
-      <header className="border-b border-ink-200 bg-white px-4 py-3 sm:px-6">
-        <Link href="/" className="inline-flex rounded-md" aria-label="Stochos home">
-          <Logo />
-        </Link>
+      <header className="border-b border-ink-200 bg-white">
+        <div className="mx-auto max-w-6xl px-4 py-3 sm:px-6">
+          <Link href="/" className="inline-flex rounded-md" aria-label="Stochos home">
+            <Logo />
+          </Link>
+        </div>
       </header>
       <main id="content" className="mx-auto max-w-6xl px-4 py-6 sm:px-6">
         <PageHeader
