@@ -25,7 +25,8 @@ export function embedCsp(origins: readonly string[]): string {
 export async function embedResponseHeaders(pathname: string, search: URLSearchParams): Promise<Record<string, string>> {
   const m = /^\/embed\/([^/]+)\/?$/.exec(pathname);
   if (!m || m[1]!.includes('.')) {
-    return { ...COMMON, 'Cross-Origin-Resource-Policy': 'cross-origin', 'Referrer-Policy': 'no-referrer' };
+    // Not a page: nothing may frame it, but any site may load it as a script.
+    return { ...COMMON, 'Content-Security-Policy': "frame-ancestors 'none'", 'Cross-Origin-Resource-Policy': 'cross-origin', 'Referrer-Policy': 'no-referrer' };
   }
   const passId = decodeURIComponent(m[1]!);
   const r = await checkPass(UUID.test(passId) ? passId : null, search.get('pass'));
