@@ -76,7 +76,7 @@ function Fact({ term, children }: { term: string; children: React.ReactNode }) {
 
 export function BillingView({ returnedFrom }: { returnedFrom: 'checkout-success' | 'checkout-cancelled' | 'portal' | null }) {
   const billing = useBilling();
-  const { data, error, mutate, wait } = billing;
+  const { data, error, mutate, wait, refreshFor } = billing;
   const [notice, setNotice] = useState<{ tone: 'success' | 'danger' | 'info'; text: string } | null>(
     returnedFrom === 'checkout-cancelled' ? { tone: 'info', text: 'Checkout was left without paying. Nothing was charged and nothing changed.' } : null,
   );
@@ -94,10 +94,10 @@ export function BillingView({ returnedFrom }: { returnedFrom: 'checkout-success'
         late: 'The payment went through; the seats appear here as soon as the payment provider confirms it. Reload in a minute.',
       });
     } else if (returnedFrom === 'portal') {
-      void mutate();
+      refreshFor(15);
     }
     if (returnedFrom) window.history.replaceState(null, '', '/app/billing');
-  }, [returnedFrom, wait, mutate]);
+  }, [returnedFrom, wait, refreshFor]);
 
   async function goToPortal() {
     setNotice(null);

@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
 import type { BillingSummary, SeatPreview } from '@/lib/billing/service';
@@ -26,8 +26,9 @@ export interface Awaiting {
 export function useBilling() {
   const [awaiting, setAwaiting] = useState<Awaiting | null>(null);
   const [settled, setSettled] = useState<{ tone: 'success' | 'info'; text: string } | null>(null);
+  const pollUntil = useRef(0);
   const swr = useSWR<BillingSummary>(BILLING_KEY, fetcher, {
-    refreshInterval: awaiting ? 1000 : 0,
+    refreshInterval: () => (awaiting || Date.now() < pollUntil.current ? 1000 : 0),
     onSuccess: (d) => {
       if (awaiting && awaiting.until(d)) {
         setSettled({ tone: 'success', text: awaiting.done });
@@ -55,6 +56,11 @@ export function useBilling() {
     awaiting,
     settled,
     clearSettled: () => setSettled(null),
+    /** Polls for a while without expecting anything in particular (back from the portal, where anything may change). */
+    refreshFor: (seconds: number) => {
+      pollUntil.current = Date.now() + seconds * 1000;
+      void swr.mutate();
+    },
     wait,
     checkout: (seats: number) => api.post<{ url: string }>('/api/billing/checkout', { seats }),
     portal: () => api.post<{ url: string }>('/api/billing/portal', {}),
