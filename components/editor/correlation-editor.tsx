@@ -177,7 +177,7 @@ export function CorrelationEditor() {
         <p className="mt-3 text-sm text-ink-700">Tick at least one more input: a correlation needs two.</p>
       ) : square ? (
         <div className="mt-4">
-          <div className="-mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5" role="region" aria-label="Correlation matrix" tabIndex={0}>
+          <div className="relative -mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5" role="region" aria-label="Correlation matrix" tabIndex={0}>
             <table className="border-separate border-spacing-0.5 text-sm" aria-describedby={statusId}>
               <caption className="sr-only">Correlation matrix; rows and columns are the inputs in the same order</caption>
               <thead>
@@ -247,7 +247,7 @@ export function CorrelationEditor() {
             {check && check.smallestEigenvalue !== null ? (
               check.positiveSemiDefinite ? (
                 <p className="text-sm text-ink-700">
-                  Valid correlation matrix: positive semi-definite, smallest eigenvalue <span className="num">{shortNumber(check.smallestEigenvalue, 4)}</span>.
+                  Valid correlation matrix: positive semi-definite, smallest eigenvalue <span className="num">{+check.smallestEigenvalue.toPrecision(3)}</span>.
                 </p>
               ) : (
                 <div className="rounded-md border border-danger-600/30 border-l-4 border-l-danger-700 bg-danger-50 px-3 py-2.5">
@@ -273,7 +273,7 @@ export function CorrelationEditor() {
             <div className="mt-3 rounded-md border border-accent-200 border-l-4 border-l-accent-700 bg-accent-50 px-3 py-2.5" aria-live="polite">
               <p className="text-sm font-medium text-ink-900">
                 Repaired: the smallest eigenvalue went from <span className="num">{repair.smallestBefore.toPrecision(4)}</span> to{' '}
-                <span className="num">{shortNumber(checkCorrelation(repair.after).smallestEigenvalue ?? 0, 6)}</span>. {repair.changes.length} pair{repair.changes.length === 1 ? '' : 's'} changed
+                <span className="num">{+(checkCorrelation(repair.after).smallestEigenvalue ?? 0).toPrecision(3)}</span>. {repair.changes.length} pair{repair.changes.length === 1 ? '' : 's'} changed
                 (outlined in the matrix):
               </p>
               <table className="mt-2 text-sm">

@@ -5,7 +5,7 @@ import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { Term } from '@/components/ui/term';
 import { checkCorrelation } from '@/lib/engine/linalg';
 import { AddButton, EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
-import { GroupMessages, NumberInput, SelectInput, TextInput, type Choice } from './fields';
+import { GroupMessages, InlineMessages, NumberInput, RowMessages, SelectInput, TextInput, type Choice } from './fields';
 import { useEditor } from './editor-context';
 import { allIds, makeId } from './model-helpers';
 import { shortNumber } from './numbers';
@@ -15,6 +15,18 @@ const THREE_POINT: Choice<'pert' | 'triangular' | 'uniform'>[] = [
   { value: 'triangular', label: 'Triangular' },
   { value: 'uniform', label: 'Uniform (low to high)' },
 ];
+
+const ITEM_LABELS: Record<string, string> = { name: 'Name', id: 'Key', low: 'Low', mostLikely: 'Most likely', high: 'High', distribution: 'Distribution' };
+const RISK_LABELS: Record<string, string> = {
+  name: 'Name',
+  id: 'Key',
+  probability: 'Probability',
+  impact: 'Impact',
+  'impact.low': 'Impact low',
+  'impact.mostLikely': 'Impact most likely',
+  'impact.high': 'Impact high',
+  'impact.distribution': 'Impact distribution',
+};
 
 interface ItemRow {
   id?: string;
@@ -69,8 +81,9 @@ function LineItems({ currency }: { currency: string }) {
               const row = rows[i] ?? {};
               const what = row.name?.trim() || `item ${i + 1}`;
               const p = `items.${i}`;
-              return (
-                <tr key={f._key}>
+              return [
+                <InlineMessages.Provider key={f._key} value={false}>
+                <tr>
                   <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
                   <Td>
                     <TextInput path={`${p}.name`} label={`Name of line item ${i + 1}`} hideLabel />
@@ -92,7 +105,9 @@ function LineItems({ currency }: { currency: string }) {
                     <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} minRows={1} />
                   </Td>
                 </tr>
-              );
+                </InlineMessages.Provider>,
+                <RowMessages key={`${f._key}-msg`} prefix={p} labels={ITEM_LABELS} colSpan={7} />,
+              ];
             })}
           </tbody>
           <tfoot>
@@ -294,8 +309,9 @@ function RiskRegister({ currency }: { currency: string }) {
             {fields.map((f, i) => {
               const what = rows[i]?.name?.trim() || `risk ${i + 1}`;
               const p = `riskEvents.${i}`;
-              return (
-                <tr key={f._key}>
+              return [
+                <InlineMessages.Provider key={f._key} value={false}>
+                <tr>
                   <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
                   <Td>
                     <TextInput path={`${p}.name`} label={`Name of risk ${i + 1}`} hideLabel />
@@ -322,13 +338,14 @@ function RiskRegister({ currency }: { currency: string }) {
                   </Td>
                   <Td>
                     <SelectInput path={`${p}.impact.distribution`} label={`Impact distribution of ${what}`} hideLabel choices={THREE_POINT} />
-                    <GroupMessages path={`${p}.impact`} />
                   </Td>
                   <Td>
                     <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} />
                   </Td>
                 </tr>
-              );
+                </InlineMessages.Provider>,
+                <RowMessages key={`${f._key}-msg`} prefix={p} labels={RISK_LABELS} colSpan={8} />,
+              ];
             })}
           </tbody>
         </ScrollTable>

@@ -6,9 +6,11 @@ import { Button } from '@/components/ui/button';
 import { controlClasses } from '@/components/ui/field';
 import type { DialTarget, StochosModel } from '@/lib/engine/schema';
 import { useEditor } from './editor-context';
-import { FieldShell, GroupMessages, NumberInput, TextInput } from './fields';
+import { FieldShell, GroupMessages, InlineMessages, NumberInput, RowMessages, TextInput } from './fields';
 import { allIds, dialTargetOptions, makeId, suggestDial, targetKey, type DialTargetOption } from './model-helpers';
 import { EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
+
+const DIAL_LABELS: Record<string, string> = { label: 'Label', id: 'Key', target: 'Moves', unit: 'Unit', min: 'Minimum', max: 'Maximum', step: 'Step', default: 'Default' };
 
 interface DialRow {
   id?: string;
@@ -20,6 +22,11 @@ function grouped(options: DialTargetOption[]): [string, DialTargetOption[]][] {
   const map = new Map<string, DialTargetOption[]>();
   for (const o of options) map.set(o.group, [...(map.get(o.group) ?? []), o]);
   return [...map.entries()];
+}
+
+/** The closed select shows only the option, so it names its subject too ("Spacer sleeve length › nominal"). */
+function optionText(o: DialTargetOption): string {
+  return o.group === 'Formula' || o.group === 'Correlations' || o.group === 'Correlation groups' || o.group === 'Estimate' ? o.label : `${o.group} › ${o.label}`;
 }
 
 function TargetSelect({ index, options, what }: { index: number; options: DialTargetOption[]; what: string }) {
@@ -49,7 +56,7 @@ function TargetSelect({ index, options, what }: { index: number; options: DialTa
             <optgroup key={group} label={group}>
               {list.map((o) => (
                 <option key={o.key} value={o.key}>
-                  {o.label}
+                  {optionText(o)}
                 </option>
               ))}
             </optgroup>
@@ -116,8 +123,9 @@ export function DialsEditor({ model }: { model: StochosModel }) {
             {fields.map((f, i) => {
               const what = rows[i]?.label?.trim() || `dial ${i + 1}`;
               const p = `dials.${i}`;
-              return (
-                <tr key={f._key}>
+              return [
+                <InlineMessages.Provider key={f._key} value={false}>
+                <tr>
                   <Td>
                     <TextInput path={`${p}.label`} label={`Label of dial ${i + 1}`} hideLabel />
                     <TextInput path={`${p}.id`} label={`Key of dial ${i + 1}`} hideLabel mono inputClassName="mt-1 h-6! text-xs! text-ink-600" />
@@ -144,7 +152,9 @@ export function DialsEditor({ model }: { model: StochosModel }) {
                     <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} />
                   </Td>
                 </tr>
-              );
+                </InlineMessages.Provider>,
+                <RowMessages key={`${f._key}-msg`} prefix={p} labels={DIAL_LABELS} colSpan={8} />,
+              ];
             })}
           </tbody>
         </ScrollTable>

@@ -205,12 +205,12 @@ export function DistributionPicker({ path, what, unit }: { path: string; what: s
       params = num('value', 'Value', { unit: u });
       break;
     case 'normal':
-      params = [num('mean', 'Mean', { unit: u }), num('sd', 'Standard deviation', { unit: u })];
+      params = [num('mean', 'Mean μ', { unit: u }), num('sd', 'Std deviation σ', { unit: u })];
       break;
     case 'truncated-normal':
       params = [
-        num('mean', 'Mean (before truncation)', { unit: u }),
-        num('sd', 'Standard deviation (before truncation)', { unit: u }),
+        num('mean', 'Mean μ', { unit: u }),
+        num('sd', 'Std deviation σ', { unit: u }),
         num('min', 'Lower bound', { unit: u, placeholder: 'none' }),
         num('max', 'Upper bound', { unit: u, placeholder: 'none' }),
       ];
@@ -258,8 +258,12 @@ export function DistributionPicker({ path, what, unit }: { path: string; what: s
   return (
     <div>
       <div className="grid grid-cols-[repeat(auto-fill,minmax(9.5rem,1fr))] items-start gap-x-3 gap-y-2">
-        <div className="col-span-full max-w-64">
-          <KindSelect path={path} what={what} kind={kind} />
+        <div className="col-span-full flex flex-wrap items-center gap-x-3 gap-y-1">
+          <div className="w-64 max-w-full">
+            <KindSelect path={path} what={what} kind={kind} />
+          </div>
+          {kind === 'truncated-normal' ? <p className="text-xs text-ink-600">μ and σ of the normal before it is cut at the bounds; leave a bound empty for no cut on that side.</p> : null}
+          {kind === 'lognormal' ? <p className="text-xs text-ink-600">ln X is normal with mean μ and standard deviation σ; bounds are optional.</p> : null}
         </div>
         {params}
       </div>

@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useState, type ReactNode } from 'react';
+import { createContext, useContext, useEffect, useState, type ReactNode } from 'react';
 import { useController, useFormContext } from 'react-hook-form';
 import { controlClasses, FieldError } from '@/components/ui/field';
 import { cx } from '@/components/ui/cx';
@@ -9,6 +9,12 @@ import { formatNumberText, listProblem, parseNumberList, parseNumberText, sameNu
 
 // Inputs bound to a dotted model path. Each has a label (visible or screen-reader only), shows every message for
 // its path right below it, and sets aria-invalid and aria-describedby (message, hint, unit).
+
+/**
+ * False inside table rows: a cell keeps its outline and aria-describedby, and the message itself is printed in the
+ * row just below (RowMessages), where it has room to be read.
+ */
+export const InlineMessages = createContext(true);
 
 interface ShellProps {
   path: string;
@@ -23,6 +29,7 @@ interface ShellProps {
 
 export function FieldShell({ path, label, hideLabel, hint, className, extra, children }: ShellProps) {
   const { idFor } = useEditor();
+  const inline = useContext(InlineMessages);
   const messages = useMessages(path);
   const all = extra && !messages.includes(extra) ? [extra, ...messages] : messages;
   const id = idFor(path);
@@ -35,7 +42,7 @@ export function FieldShell({ path, label, hideLabel, hint, className, extra, chi
         {label}
       </label>
       {children({ id, invalid: all.length > 0, describedBy })}
-      {all.length ? <FieldError id={errorId}>{all.join(' ')}</FieldError> : null}
+      {all.length && inline ? <FieldError id={errorId}>{all.join(' ')}</FieldError> : null}
       {hint ? (
         <p id={hintId} className="mt-1 text-xs leading-snug text-ink-600">
           {hint}
@@ -56,6 +63,45 @@ export function GroupMessages({ path, className }: { path: string; className?: s
         <FieldError key={m}>{m}</FieldError>
       ))}
     </div>
+  );
+}
+
+/**
+ * The messages of one table row, under the row: each names its column and carries the id the cell's
+ * aria-describedby points at. `labels` maps a path relative to the row ("plusTol", "impact.low") to its column.
+ */
+export function RowMessages({ prefix, labels, colSpan, exclude = [] }: { prefix: string; labels: Record<string, string>; colSpan: number; exclude?: string[] }) {
+  const { messages, idFor } = useEditor();
+  const rows: { path: string; rel: string; text: string }[] = [];
+  for (const [k, list] of Object.entries(messages)) {
+    if (k !== prefix && !k.startsWith(prefix + '.')) continue;
+    const rel = k === prefix ? '' : k.slice(prefix.length + 1);
+    if (exclude.some((e) => rel === e || rel.startsWith(e + '.'))) continue;
+    rows.push({ path: k, rel, text: list.join(' ') });
+  }
+  if (!rows.length) return null;
+  const labelOf = (rel: string) => {
+    if (!rel) return null;
+    if (labels[rel]) return labels[rel];
+    const parts = rel.split('.');
+    for (let n = parts.length - 1; n > 0; n--) {
+      const l = labels[parts.slice(0, n).join('.')];
+      if (l) return l;
+    }
+    return rel;
+  };
+  return (
+    <tr>
+      <td />
+      <td colSpan={colSpan - 1} className="border-b border-ink-100 px-1.5 pb-2">
+        {rows.map((r) => (
+          <FieldError key={r.path} id={r.rel ? `${idFor(r.path)}-error` : undefined}>
+            {labelOf(r.rel) ? <strong className="font-semibold">{labelOf(r.rel)}: </strong> : null}
+            {r.text}
+          </FieldError>
+        ))}
+      </td>
+    </tr>
   );
 }
 

@@ -96,34 +96,44 @@ function NamesPanel({ index, onInsert }: { index: number; onInsert: (text: strin
   return (
     <div className="text-xs">
       <p className="mb-1.5 font-semibold text-ink-700">Names you can use</p>
-      {groups.map((g) =>
-        g.items.length ? (
+      {groups.map((g) => {
+        if (!g.items.length) return null;
+        const list = (
+          <ul className="flex flex-wrap gap-1">
+            {g.items.map((it) => (
+              <li key={it.text}>
+                {readOnly ? (
+                  <span className="num rounded bg-white px-1.5 py-0.5 text-ink-800 ring-1 ring-ink-200" title={it.title}>
+                    {it.text}
+                  </span>
+                ) : (
+                  <button
+                    type="button"
+                    className="num rounded bg-white px-1.5 py-0.5 text-ink-800 ring-1 ring-ink-200 hover:bg-accent-50 hover:text-accent-900 hover:ring-accent-300"
+                    title={it.title ? `${it.title}: insert into the formula` : 'Insert into the formula'}
+                    aria-label={`Insert ${it.text}${it.title ? ` (${it.title})` : ''} into the formula of output ${index + 1}`}
+                    onClick={() => onInsert(it.insert)}
+                  >
+                    {it.text}
+                  </button>
+                )}
+              </li>
+            ))}
+          </ul>
+        );
+        // The long function list folds away; the model's own names stay in view.
+        return g.title === 'Functions' ? (
+          <details key={g.title} className="mb-2">
+            <summary className="cursor-pointer text-ink-600">Functions ({g.items.length})</summary>
+            <div className="mt-1">{list}</div>
+          </details>
+        ) : (
           <div key={g.title} className="mb-2">
             <p className="mb-0.5 text-ink-600">{g.title}</p>
-            <ul className="flex flex-wrap gap-1">
-              {g.items.map((it) => (
-                <li key={it.text}>
-                  {readOnly ? (
-                    <span className="num rounded bg-ink-100 px-1.5 py-0.5 text-ink-800" title={it.title}>
-                      {it.text}
-                    </span>
-                  ) : (
-                    <button
-                      type="button"
-                      className="num rounded bg-ink-100 px-1.5 py-0.5 text-ink-800 hover:bg-accent-100 hover:text-accent-900"
-                      title={it.title ? `${it.title}: insert into the formula` : 'Insert into the formula'}
-                      aria-label={`Insert ${it.text}${it.title ? ` (${it.title})` : ''} into the formula of output ${index + 1}`}
-                      onClick={() => onInsert(it.insert)}
-                    >
-                      {it.text}
-                    </button>
-                  )}
-                </li>
-              ))}
-            </ul>
+            {list}
           </div>
-        ) : null,
-      )}
+        );
+      })}
       <p className="text-ink-600">
         Operators: <span className="num">+ − * / ^</span>, comparisons <span className="num">&lt; &lt;= &gt; &gt;= == !=</span>, <span className="num">&amp;&amp; || !</span> and{' '}
         <span className="num">c ? a : b</span>.

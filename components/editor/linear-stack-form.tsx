@@ -3,7 +3,7 @@
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { Term } from '@/components/ui/term';
 import { AddButton, EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
-import { GroupMessages, NumberInput, NumberListInput, SelectInput, TextInput, type Choice } from './fields';
+import { GroupMessages, InlineMessages, NumberInput, NumberListInput, RowMessages, SelectInput, TextInput, type Choice } from './fields';
 import { allIds, makeId } from './model-helpers';
 
 type StackKind = 'normal' | 'uniform' | 'triangular' | 'normal-fit' | 'empirical';
@@ -23,6 +23,19 @@ const DIRECTIONS: Choice<1 | -1>[] = [
 
 const K_SIGMA =
   'Normal with the tolerance at ±kσ: the tolerance band spans k standard deviations either side of the mean. k = 3 is the usual assumption (99.73 % of parts inside the band); a process with proven capability may justify 4 or more.';
+
+const STACK_LABELS: Record<string, string> = {
+  name: 'Name',
+  id: 'Key',
+  nominal: 'Nominal',
+  plusTol: 'Plus tolerance',
+  minusTol: 'Minus tolerance',
+  direction: 'Direction',
+  distribution: 'Distribution',
+  'distribution.type': 'Distribution',
+  'distribution.k': 'k',
+  meanShift: 'Mean shift',
+};
 
 interface ContributorRow {
   id?: string;
@@ -74,15 +87,15 @@ export function LinearStackForm() {
         {fields.length === 0 ? (
           <EmptyRows>No contributors yet. Add the first dimension of the loop, starting from one side of the gap.</EmptyRows>
         ) : (
-          <ScrollTable caption="Contributors to the gap" minWidth={1040}>
+          <ScrollTable caption="Contributors to the gap" minWidth={1100}>
             <thead>
               <tr>
                 <Th className="w-8">#</Th>
-                <Th className="min-w-52">Name and key</Th>
+                <Th className="min-w-60">Name and key</Th>
                 <Th className="w-28">Nominal</Th>
                 <Th className="w-24">Plus tol.</Th>
                 <Th className="w-24">Minus tol.</Th>
-                <Th className="w-28">Direction</Th>
+                <Th className="w-32">Direction</Th>
                 <Th className="min-w-52">Distribution assumption</Th>
                 <Th className="w-20">
                   <Term explain={K_SIGMA}>k (±kσ)</Term>
@@ -103,7 +116,8 @@ export function LinearStackForm() {
                 const usesData = type === 'empirical' || type === 'normal-fit';
                 const p = `contributors.${i}`;
                 return [
-                  <tr key={f._key} className="group">
+                  <InlineMessages.Provider key={f._key} value={false}>
+                  <tr className="group">
                     <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
                     <Td>
                       <TextInput path={`${p}.name`} label={`Name of contributor ${i + 1}`} hideLabel />
@@ -137,7 +151,9 @@ export function LinearStackForm() {
                     <Td>
                       <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} minRows={1} />
                     </Td>
-                  </tr>,
+                  </tr>
+                  </InlineMessages.Provider>,
+                  <RowMessages key={`${f._key}-msg`} prefix={p} labels={STACK_LABELS} colSpan={10} exclude={usesData ? ['distribution.data', 'distribution'] : []} />,
                   usesData ? (
                     <tr key={`${f._key}-data`}>
                       <Td />

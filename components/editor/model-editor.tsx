@@ -128,6 +128,10 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
   const resetting = useRef(false);
   const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
 
+  // What the parent last heard (or the model it gave us): list components echo events after a reset, and those
+  // must not count as changes.
+  const baseline = useRef<{ raw: string; valid: boolean | null }>({ raw: '', valid: null });
+
   const validate = useCallback(
     async (emit: boolean) => {
       const mine = ++seq.current;
@@ -136,11 +140,16 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
       setClient(flattenFieldErrors(form.formState.errors));
       const isValid = ok && Object.keys(localRef.current).length === 0;
       setValid(isValid);
-      if (emit) {
-        const model = (isValid && parsed.current ? parsed.current : form.getValues()) as StochosModel;
-        lastSeen.current = JSON.stringify(model);
-        onChangeRef.current(model, isValid);
+      const raw = JSON.stringify(form.getValues());
+      if (!emit) {
+        baseline.current = { raw, valid: isValid };
+        return;
       }
+      if (raw === baseline.current.raw && isValid === baseline.current.valid) return;
+      baseline.current = { raw, valid: isValid };
+      const model = (isValid && parsed.current ? parsed.current : form.getValues()) as StochosModel;
+      lastSeen.current = JSON.stringify(model);
+      onChangeRef.current(model, isValid);
     },
     [form],
   );
