@@ -468,7 +468,7 @@ export default function LandingPage() {
         </section>
       </main>
 
-      <footer className="border-t border-ink-100 bg-ink-900 text-ink-300">
+      <footer className="st-dark border-t border-ink-100 bg-ink-900 text-ink-300">
         <div className="mx-auto flex max-w-6xl flex-col gap-3 px-4 py-8 text-sm sm:flex-row sm:items-center sm:justify-between sm:px-6">
           <Logo tone="light" />
           <p>Parametric risk models, checked and published for your clients.</p>

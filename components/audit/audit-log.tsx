@@ -6,7 +6,7 @@ import { EmptyState } from '@/components/ui/empty-state';
 import { Button } from '@/components/ui/button';
 import { Loading } from '@/components/ui/loading';
 import { LoadError } from '@/components/ui/load-error';
-import { formatDateTime, formatRelative } from '@/components/ui/format';
+import { formatDate, formatDateTime, formatRelative, formatTime } from '@/components/ui/format';
 import { describeAction, describeTarget } from './describe';
 
 const columns: Column<AuditEntry>[] = [
@@ -15,8 +15,10 @@ const columns: Column<AuditEntry>[] = [
     header: 'When',
     sortValue: (e) => e.id,
     cell: (e) => (
-      <time dateTime={e.at} title={formatRelative(e.at)} className="num text-[0.8125rem] whitespace-nowrap text-ink-700">
-        {formatDateTime(e.at)}
+      <time dateTime={e.at} title={`${formatDateTime(e.at)} (${formatRelative(e.at)})`} className="num text-[0.8125rem] text-ink-700">
+        <span className="block whitespace-nowrap sm:inline">{formatDate(e.at)}</span>
+        <span className="hidden sm:inline">, </span>
+        <span className="block whitespace-nowrap sm:inline">{formatTime(e.at)}</span>
       </time>
     ),
   },
@@ -28,7 +30,7 @@ const columns: Column<AuditEntry>[] = [
       e.actorName || e.actorEmail ? (
         <span className="block min-w-0">
           <span className="block font-medium text-ink-900">{e.actorName ?? e.actorEmail}</span>
-          {e.actorName && e.actorEmail ? <span className="block text-xs break-all text-ink-600">{e.actorEmail}</span> : null}
+          {e.actorName && e.actorEmail ? <span className="hidden text-xs break-all text-ink-600 sm:block">{e.actorEmail}</span> : null}
         </span>
       ) : (
         <span className="text-ink-600">Stochos (system)</span>

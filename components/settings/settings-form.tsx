@@ -55,7 +55,7 @@ function BrandPreview({ colour }: { colour: string }) {
     <div className="flex flex-wrap items-center gap-3">
       <div
         aria-hidden="true"
-        className="num flex h-12 w-20 flex-none items-center justify-center rounded-md border border-ink-300 text-base font-medium shadow-inner"
+        className="num flex h-12 w-20 flex-none items-center justify-center rounded-md border border-ink-300 text-xl font-semibold shadow-inner"
         style={{ backgroundColor: colour, color: best.text }}
       >
         P80

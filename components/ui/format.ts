@@ -15,6 +15,12 @@ export function formatDate(iso: string | null | undefined): string {
   return Number.isNaN(d.getTime()) ? iso : dateOnly().format(d);
 }
 
+export function formatTime(iso: string | null | undefined): string {
+  if (!iso) return '—';
+  const d = new Date(iso);
+  return Number.isNaN(d.getTime()) ? iso : new Intl.DateTimeFormat(undefined, { hour: '2-digit', minute: '2-digit' }).format(d);
+}
+
 /** "in 6 days", "3 hours ago", "just now". */
 export function formatRelative(iso: string | null | undefined, now: number = Date.now()): string {
   if (!iso) return '—';

@@ -17,4 +17,4 @@ export { Loading } from './loading';
 export { LoadError } from './load-error';
 export { cx } from './cx';
 export { DateText } from './date-text';
-export { formatDate, formatDateTime, formatRelative, formatBytes } from './format';
+export { formatDate, formatDateTime, formatTime, formatRelative, formatBytes } from './format';
