@@ -275,16 +275,15 @@ export function suggestDial(option: DialTargetOption): { min: number; max: numbe
   let half = Math.abs(cur) * 0.2 || 1;
   let min = cur - half;
   let max = cur + half;
+  if (option.target.kind === 'confidence') {
+    // P50 to P95 in steps of 5 points: the levels clients ask about.
+    return { min: 0.5, max: 0.95, step: 0.05, default: Math.min(0.95, Math.max(0.5, cur)) };
+  }
   if (option.bounds) {
     const [lo, hi] = option.bounds;
-    if (option.target.kind === 'confidence') {
-      min = Math.max(0.5, Math.min(cur, 0.5));
-      max = Math.min(0.95, Math.max(cur, 0.95));
-    } else {
-      half = (hi - lo) / 4;
-      min = Math.max(lo, cur - half);
-      max = Math.min(hi, cur + half);
-    }
+    half = (hi - lo) / 4;
+    min = Math.max(lo, cur - half);
+    max = Math.min(hi, cur + half);
   }
   const step = niceStep(max - min);
   const round = (v: number) => +(Math.round(v / step) * step).toPrecision(10);
