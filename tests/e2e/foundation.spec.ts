@@ -25,7 +25,7 @@ test('sign up, invite an author, accept from the mailbox, sign in as the author'
   await page.getByLabel(/firm/i).fill('Fenwick Tolerance Studio');
   await page.getByLabel(/your name/i).fill('Ada Fenwick');
   await page.getByLabel(/e-mail/i).fill(ownerEmail);
-  await page.getByLabel(/password/i).fill(password);
+  await page.getByLabel('Password', { exact: true }).fill(password);
   await page.getByRole('button', { name: /create account/i }).click();
   await expect(page).toHaveURL(/\/app\//);
   await expect(page.getByText('Fenwick Tolerance Studio').first()).toBeVisible();
@@ -47,7 +47,7 @@ test('sign up, invite an author, accept from the mailbox, sign in as the author'
   await author.goto(link);
   await expect(author.getByText('Fenwick Tolerance Studio').first()).toBeVisible();
   await author.getByLabel(/your name/i).fill('Bo Author');
-  await author.getByLabel(/password/i).fill(password);
+  await author.getByLabel('Password', { exact: true }).fill(password);
   await author.getByRole('button', { name: /accept invitation/i }).click();
   await expect(author).toHaveURL(/\/app\//);
   await expect(author.getByText(/author/i).first()).toBeVisible();
@@ -57,7 +57,7 @@ test('sign up, invite an author, accept from the mailbox, sign in as the author'
   await expect(author).toHaveURL(/\/$|\/sign-in/);
   await author.goto('/sign-in');
   await author.getByLabel(/e-mail/i).first().fill(authorEmail);
-  await author.getByLabel(/password/i).fill(password);
+  await author.getByLabel('Password', { exact: true }).fill(password);
   await author.getByRole('button', { name: /^sign in$/i }).click();
   await expect(author).toHaveURL(/\/app\//);
   // Authors see no Team or Billing navigation.
@@ -68,7 +68,7 @@ test('sign up, invite an author, accept from the mailbox, sign in as the author'
 test('demo owner signs in with the password from the README', async ({ page }) => {
   await page.goto('/sign-in');
   await page.getByLabel(/e-mail/i).first().fill('owner@orrinvale.example');
-  await page.getByLabel(/password/i).fill('stochos-demo-2026');
+  await page.getByLabel('Password', { exact: true }).fill('stochos-demo-2026');
   await page.getByRole('button', { name: /^sign in$/i }).click();
   await expect(page).toHaveURL(/\/app\//);
   await expect(page.getByText('Orrin Vale Consulting Engineers').first()).toBeVisible();
