@@ -57,7 +57,8 @@ export const DISTRIBUTION_KINDS: { value: DistributionKind; label: string }[] = 
   { value: 'constant', label: 'Constant' },
 ];
 
-export function distributionKind(d: { type?: unknown; min?: unknown; max?: unknown; [key: string]: unknown } | null | undefined): DistributionKind | undefined {
+export function distributionKind(value: object | null | undefined): DistributionKind | undefined {
+  const d = value as { type?: unknown; min?: unknown; max?: unknown } | null | undefined;
   if (!d || typeof d.type !== 'string') return undefined;
   if (d.type === 'normal' && (typeof d.min === 'number' || typeof d.max === 'number')) return 'truncated-normal';
   return d.type as DistributionKind;
