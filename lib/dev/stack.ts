@@ -3,6 +3,7 @@ import path from 'node:path';
 import fs from 'node:fs';
 import { startFakeSmtp } from '@/lib/fakes/smtp/server';
 import { startFakeStripe } from '@/lib/fakes/stripe/server';
+import { startHostPage } from '@/lib/dev/host-page';
 
 /**
  * Starts everything the product needs on one machine: the local SMTP fake, the local Stripe fake,
@@ -69,7 +70,6 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });
   await waitForHttp(`${appUrl}/`, next);
-  const { startHostPage } = await import('@/lib/dev/host-page');
   const hostPage = o.hostPagePort ? await startHostPage({ port: o.hostPagePort, appUrl }) : null;
 
   return {
