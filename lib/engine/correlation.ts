@@ -23,6 +23,7 @@ import { scoreSourceFor } from './samplers';
 import { argsort, averageRanks, sortedCopy } from './sort';
 import { normalCdfPair, normalCdfPairUpper, normalQuantilePQ } from './special';
 import { pearson } from './stats';
+import { asin, sin } from './det-math';
 
 const BLOCK = 4096;
 
@@ -114,7 +115,7 @@ export function imanConover(columns: Float64Array[], target: number[][], seed: s
   });
   // The target is a rank (Spearman) correlation; normal scores need the Pearson
   // correlation 2 sin(pi rho_S / 6) to give it (bivariate normal: rho_S = (6/pi) asin(rho/2)).
-  let scoreTarget = target.map((row, i) => row.map((r, j) => (i === j ? 1 : 2 * Math.sin((Math.PI * r) / 6))));
+  let scoreTarget = target.map((row, i) => row.map((r, j) => (i === j ? 1 : 2 * sin((Math.PI * r) / 6))));
   if (!checkCorrelation(scoreTarget).positiveSemiDefinite) scoreTarget = nearestCorrelation(scoreTarget).matrix;
   // T = correlation of the score columns; M = P T^-1/2 maps them to correlation P P^T.
   const T = R.map((ri, i) => R.map((rj, j) => (i === j ? 1 : pearson(ri, rj))));
@@ -175,7 +176,7 @@ export function achievedCorrelation(
     target,
     pearson: pm,
     spearman: sm,
-    expectedSpearman: method === 'copula' ? target.map((row) => row.map((r) => (6 / Math.PI) * Math.asin(r / 2))) : target.map((row) => row.slice()),
+    expectedSpearman: method === 'copula' ? target.map((row) => row.map((r) => (6 / Math.PI) * asin(r / 2))) : target.map((row) => row.slice()),
     trials: n,
   };
 }

@@ -6,6 +6,7 @@
  * upper tail keeps its precision when p comes from Phi(z) of a large z (Gaussian copula).
  */
 import { gamma, lbeta, normalCdfPair, normalCdfPairUpper, normalPdf, normalQuantilePQ, regIncBeta } from './special';
+import { cos, exp, expm1, ln, log1p, pow } from './det-math';
 
 export type DistributionSpec =
   | { type: 'constant'; value: number }
@@ -140,7 +141,7 @@ export class TabulatedInverse {
     const Fs = new Float64Array(n + 1);
     const fs = new Float64Array(n + 1);
     for (let k = 0; k <= n; k++) {
-      const x = k === 0 ? a : k === n ? b : a + ((b - a) * (1 - Math.cos((Math.PI * k) / n))) / 2;
+      const x = k === 0 ? a : k === n ? b : a + ((b - a) * (1 - cos((Math.PI * k) / n))) / 2;
       xs[k] = x;
       Fs[k] = k === 0 ? 0 : k === n ? 1 : cdf(x);
       fs[k] = pdf(x);
@@ -241,14 +242,14 @@ function pert(a: number, m: number, b: number, spec: DistributionSpec): Marginal
   const mean = (a + 4 * m + b) / 6;
   const cdf = (x: number) => (x <= a ? 0 : x >= b ? 1 : regIncBeta((x - a) / w, alpha, beta));
   // Normalising constant computed once: the density is evaluated for every rejection candidate.
-  const scale = Math.exp(-lbeta(alpha, beta)) / w;
+  const scale = exp(-lbeta(alpha, beta)) / w;
   const am1 = alpha - 1;
   const bm1 = beta - 1;
   const density = (x: number) => {
     if (x < a || x > b) return 0;
     const t = (x - a) / w;
     // 0^0 is 1 in IEEE pow, which gives the right endpoint value when a shape is 1.
-    return scale * Math.pow(t, am1) * Math.pow(1 - t, bm1);
+    return scale * pow(t, am1) * pow(1 - t, bm1);
   };
   // Both shape parameters are >= 1, so the density is bounded and peaks at the mode.
   const M = density(m);
@@ -342,8 +343,8 @@ function normal(mu: number, sd: number, lo: number | undefined, hi: number | und
 }
 
 function lognormal(mu: number, sigma: number, lo: number | undefined, hi: number | undefined, spec: DistributionSpec): Marginal {
-  const loLog = lo !== undefined && lo > 0 ? Math.log(lo) : undefined;
-  const hiLog = hi !== undefined ? Math.log(hi) : undefined;
+  const loLog = lo !== undefined && lo > 0 ? ln(lo) : undefined;
+  const hiLog = hi !== undefined ? ln(hi) : undefined;
   const truncated = loLog !== undefined || hiLog !== undefined;
   const s2 = sigma * sigma;
   if (!truncated) {
@@ -351,13 +352,13 @@ function lognormal(mu: number, sigma: number, lo: number | undefined, hi: number
       spec,
       lower: 0,
       upper: Infinity,
-      mean: Math.exp(mu + s2 / 2),
-      variance: Math.expm1(s2) * Math.exp(2 * mu + s2),
+      mean: exp(mu + s2 / 2),
+      variance: expm1(s2) * exp(2 * mu + s2),
       natural: 'lognormal',
       envelope: null,
-      inv: (p, q) => Math.exp(mu + sigma * normalQuantilePQ(p, q)),
-      cdf: (x) => (x <= 0 ? 0 : normalCdfPair((Math.log(x) - mu) / sigma)),
-      fromZ: (z) => Math.exp(mu + sigma * z),
+      inv: (p, q) => exp(mu + sigma * normalQuantilePQ(p, q)),
+      cdf: (x) => (x <= 0 ? 0 : normalCdfPair((ln(x) - mu) / sigma)),
+      fromZ: (z) => exp(mu + sigma * z),
     };
   }
   const alpha = loLog === undefined ? -Infinity : (loLog - mu) / sigma;
@@ -366,7 +367,7 @@ function lognormal(mu: number, sigma: number, lo: number | undefined, hi: number
   // Partial moments: E[X^k; a < X < b] = exp(k mu + k^2 s2 / 2) [Phi(beta - k sigma) - Phi(alpha - k sigma)].
   const partial = (k: number) => {
     const w = truncation(alpha - k * sigma, beta - k * sigma).w;
-    return Math.exp(k * mu + (k * k * s2) / 2) * w;
+    return exp(k * mu + (k * k * s2) / 2) * w;
   };
   const m1 = partial(1) / t.w;
   const m2 = partial(2) / t.w;
@@ -379,17 +380,17 @@ function lognormal(mu: number, sigma: number, lo: number | undefined, hi: number
     natural: 'inverse-cdf',
     envelope: null,
     inv: (p, q) => {
-      const x = Math.exp(mu + sigma * t.inv(p, q));
+      const x = exp(mu + sigma * t.inv(p, q));
       return lo !== undefined && x < lo ? lo : hi !== undefined && x > hi ? hi : x;
     },
-    cdf: (x) => (x <= 0 ? 0 : t.cdf((Math.log(x) - mu) / sigma)),
+    cdf: (x) => (x <= 0 ? 0 : t.cdf((ln(x) - mu) / sigma)),
     fromZ: null,
   };
 }
 
 /** -ln(q) computed from whichever of p, q = 1 - p is small. */
 function minusLogQ(p: number, q: number): number {
-  return p < 0.5 ? -Math.log1p(-p) : -Math.log(q);
+  return p < 0.5 ? -log1p(-p) : -ln(q);
 }
 
 function exponential(rate: number, spec: DistributionSpec): Marginal {
@@ -402,7 +403,7 @@ function exponential(rate: number, spec: DistributionSpec): Marginal {
     natural: 'inverse-cdf',
     envelope: null,
     inv: (p, q) => minusLogQ(p, q) / rate,
-    cdf: (x) => (x <= 0 ? 0 : -Math.expm1(-rate * x)),
+    cdf: (x) => (x <= 0 ? 0 : -expm1(-rate * x)),
     fromZ: null,
   };
 }
@@ -418,8 +419,8 @@ function weibull(k: number, lambda: number, spec: DistributionSpec): Marginal {
     variance: lambda * lambda * (g2 - g1 * g1),
     natural: 'inverse-cdf',
     envelope: null,
-    inv: (p, q) => lambda * Math.pow(minusLogQ(p, q), 1 / k),
-    cdf: (x) => (x <= 0 ? 0 : -Math.expm1(-Math.pow(x / lambda, k))),
+    inv: (p, q) => lambda * pow(minusLogQ(p, q), 1 / k),
+    cdf: (x) => (x <= 0 ? 0 : -expm1(-pow(x / lambda, k))),
     fromZ: null,
   };
 }

@@ -9,6 +9,7 @@
  * powers associate to the right (2^3^2 = 2^9).
  */
 import jsep from 'jsep';
+import { acos, asin, atan, atan2, cos, exp, hypotN, ln, log10, pow, sin, tan } from './det-math';
 
 export type BinaryOp = '+' | '-' | '*' | '/' | '^' | '<' | '<=' | '>' | '>=' | '==' | '!=' | '&&' | '||';
 
@@ -341,7 +342,7 @@ function scalarBinary(op: BinaryOp, a: number, b: number): number {
     case '/':
       return a / b;
     case '^':
-      return b === 2 ? a * a : Math.pow(a, b);
+      return b === 2 ? a * a : pow(a, b);
     case '<':
       return a !== a || b !== b ? NaN : a < b ? 1 : 0;
     case '<=':
@@ -364,19 +365,19 @@ function scalarBinary(op: BinaryOp, a: number, b: number): number {
 const UNARY_FNS: Partial<Record<FormulaFunction, (x: number) => number>> = {
   abs: Math.abs,
   sqrt: Math.sqrt,
-  exp: Math.exp,
-  ln: Math.log,
-  log: Math.log,
-  log10: Math.log10,
+  exp: exp,
+  ln: ln,
+  log: ln,
+  log10: log10,
   floor: Math.floor,
   ceil: Math.ceil,
   round: Math.round,
-  sin: Math.sin,
-  cos: Math.cos,
-  tan: Math.tan,
-  asin: Math.asin,
-  acos: Math.acos,
-  atan: Math.atan,
+  sin: sin,
+  cos: cos,
+  tan: tan,
+  asin: asin,
+  acos: acos,
+  atan: atan,
 };
 
 function vec(run: (start: number, count: number) => Float64Array): Compiled {
@@ -578,7 +579,7 @@ function compileBinary(op: BinaryOp, a: Compiled, b: Compiled): Compiled {
       }
       return vec((s, c) => {
         const x = ra(s, c);
-        for (let k = 0; k < c; k++) buf[k] = Math.pow(x[k], bv);
+        for (let k = 0; k < c; k++) buf[k] = pow(x[k], bv);
         return buf;
       });
     default:
@@ -641,7 +642,7 @@ function compileCall(fn: FormulaFunction, args: Compiled[]): Compiled {
     }
     case 'hypot': {
       if (args.length === 1) return compileCall('abs', args);
-      if (args.every((a) => a.scalar)) return { scalar: true, value: Math.hypot(...args.map((a) => (a as { value: number }).value)) };
+      if (args.every((a) => a.scalar)) return { scalar: true, value: hypotN(...args.map((a) => (a as { value: number }).value)) };
       const buf = new Float64Array(FORMULA_BLOCK);
       const vals = new Array<number>(args.length);
       return vec((s, c) => {
@@ -651,21 +652,21 @@ function compileCall(fn: FormulaFunction, args: Compiled[]): Compiled {
             const col = cols[i];
             vals[i] = col ? col[k] : (args[i] as { value: number }).value;
           }
-          buf[k] = Math.hypot(...vals);
+          buf[k] = hypotN(...vals);
         }
         return buf;
       });
     }
     case 'atan2': {
       const [y, x] = args;
-      if (y.scalar && x.scalar) return { scalar: true, value: Math.atan2(y.value, x.value) };
+      if (y.scalar && x.scalar) return { scalar: true, value: atan2(y.value, x.value) };
       const buf = new Float64Array(FORMULA_BLOCK);
       return vec((s, c) => {
         const yv = y.scalar ? null : y.run(s, c);
         const xv = x.scalar ? null : x.run(s, c);
         const ys = y.scalar ? y.value : 0;
         const xs = x.scalar ? x.value : 0;
-        for (let k = 0; k < c; k++) buf[k] = Math.atan2(yv ? yv[k] : ys, xv ? xv[k] : xs);
+        for (let k = 0; k < c; k++) buf[k] = atan2(yv ? yv[k] : ys, xv ? xv[k] : xs);
         return buf;
       });
     }

@@ -13,6 +13,7 @@
  */
 import { Stream, uniformOpenClosed } from './rng';
 import { normalSf } from './special';
+import { cosSin2Pi, exp, lastSin2Pi, ln } from './det-math';
 
 export type NormalMethod = 'box-muller' | 'ziggurat';
 
@@ -22,13 +23,11 @@ export interface NormalGenerator {
   fill(out: Float64Array, start: number, count: number): void;
 }
 
-const TWO_PI = 2 * Math.PI;
-
-/** The Box-Muller transform of one pair; u1 must be in (0, 1]. */
+/** The Box-Muller transform of one pair: r cos(2 pi u2), r sin(2 pi u2), r = sqrt(-2 ln u1); u1 in (0, 1]. */
 export function boxMuller(u1: number, u2: number): [number, number] {
-  const r = Math.sqrt(-2 * Math.log(u1));
-  const t = TWO_PI * u2;
-  return [r * Math.cos(t), r * Math.sin(t)];
+  const r = Math.sqrt(-2 * ln(u1));
+  const c = cosSin2Pi(u2);
+  return [r * c, r * lastSin2Pi()];
 }
 
 export class BoxMullerGenerator implements NormalGenerator {
@@ -48,18 +47,16 @@ export class BoxMullerGenerator implements NormalGenerator {
     while (k + 1 < end) {
       const u1 = s.uniformOpenClosed();
       const u2 = s.uniform();
-      const r = Math.sqrt(-2 * Math.log(u1));
-      const t = TWO_PI * u2;
-      out[k++] = r * Math.cos(t);
-      out[k++] = r * Math.sin(t);
+      const r = Math.sqrt(-2 * ln(u1));
+      out[k++] = r * cosSin2Pi(u2);
+      out[k++] = r * lastSin2Pi();
     }
     if (k < end) {
       const u1 = s.uniformOpenClosed();
       const u2 = s.uniform();
-      const r = Math.sqrt(-2 * Math.log(u1));
-      const t = TWO_PI * u2;
-      out[k++] = r * Math.cos(t);
-      this.spare = r * Math.sin(t);
+      const r = Math.sqrt(-2 * ln(u1));
+      out[k++] = r * cosSin2Pi(u2);
+      this.spare = r * lastSin2Pi();
       this.hasSpare = true;
     }
   }
@@ -68,7 +65,7 @@ export class BoxMullerGenerator implements NormalGenerator {
 // ---- Ziggurat tables (computed once; pure arithmetic, identical on every engine) ----
 const ZN = 256;
 const ZR = 3.6541528853610088; // rightmost layer edge for 256 layers (Marsaglia & Tsang 2000)
-const f = (x: number) => Math.exp(-0.5 * x * x);
+const f = (x: number) => exp(-0.5 * x * x);
 /** Area of each layer under exp(-x^2/2): the base strip r f(r) plus the tail beyond r. */
 const ZV = ZR * f(ZR) + Math.sqrt(Math.PI / 2) * 2 * normalSf(ZR);
 const ZX = new Float64Array(ZN + 1);
@@ -78,7 +75,7 @@ const ZK = new Uint32Array(ZN); // acceptance threshold on the 23-bit position
 (() => {
   ZX[0] = ZV / f(ZR);
   ZX[1] = ZR;
-  for (let i = 1; i < ZN - 1; i++) ZX[i + 1] = Math.sqrt(-2 * Math.log(ZV / ZX[i] + f(ZX[i])));
+  for (let i = 1; i < ZN - 1; i++) ZX[i + 1] = Math.sqrt(-2 * ln(ZV / ZX[i] + f(ZX[i])));
   ZX[ZN] = 0;
   for (let i = 0; i <= ZN; i++) ZF[i] = f(ZX[i]);
   const scale = 8388608; // 2^23
@@ -103,15 +100,15 @@ export class ZigguratGenerator implements NormalGenerator {
         let xt: number;
         let yt: number;
         do {
-          xt = -Math.log(uniformOpenClosed(s.nextInt32())) / ZR;
-          yt = -Math.log(uniformOpenClosed(s.nextInt32()));
+          xt = -ln(uniformOpenClosed(s.nextInt32())) / ZR;
+          yt = -ln(uniformOpenClosed(s.nextInt32()));
         } while (yt + yt < xt * xt);
         return x < 0 ? -(ZR + xt) : ZR + xt;
       }
       // Wedge between layers i and i + 1.
       const ax = Math.abs(x);
       const y = ZF[i] + s.uniform() * (ZF[i + 1] - ZF[i]);
-      if (y < Math.exp(-0.5 * ax * ax)) return x;
+      if (y < exp(-0.5 * ax * ax)) return x;
       const u = s.nextInt32();
       i = u & 255;
       const j = u >>> 9;

@@ -12,6 +12,7 @@ import { pathText, type ModelIssue } from './errors';
 import { checkFormula, RESERVED_NAMES } from './formula';
 import { checkCorrelation } from './linalg';
 import { normalCdfPair, normalCdfPairUpper } from './special';
+import { ln } from './det-math';
 
 export const SCHEMA_ID = 'stochos.model/1';
 export const MIN_TRIALS = 1_000;
@@ -132,8 +133,8 @@ const lognormalDist = z
     if (d.max !== undefined && !(d.max > 0)) ctx.addIssue({ code: 'custom', path: ['max'], message: `The upper bound must be positive (found ${d.max}).` });
     if (d.min !== undefined && d.max !== undefined) rangeCheck(ctx, d.min, d.max, 'min', 'max', 'lower bound', 'upper bound');
     if ((d.min === undefined || d.min >= 0) && (d.max === undefined || d.max > 0) && (d.min === undefined || d.max === undefined || d.min < d.max)) {
-      const a = d.min === undefined || d.min === 0 ? -Infinity : (Math.log(d.min) - d.mu) / d.sigma;
-      const b = d.max === undefined ? Infinity : (Math.log(d.max) - d.mu) / d.sigma;
+      const a = d.min === undefined || d.min === 0 ? -Infinity : (ln(d.min) - d.mu) / d.sigma;
+      const b = d.max === undefined ? Infinity : (ln(d.max) - d.mu) / d.sigma;
       if (normalMass(a, b) < MIN_TRUNCATED_MASS) {
         ctx.addIssue({ code: 'custom', path: [d.min !== undefined ? 'min' : 'max'], message: 'The truncation range holds almost none of this lognormal distribution (less than one in a billion).' });
       }

@@ -10,6 +10,7 @@
  * - log Gamma: Lanczos approximation (g = 7, n = 9).
  * - Regularised incomplete beta: continued fraction evaluated by the modified Lentz method.
  */
+import { exp, ln, log1p, pow, sin } from './det-math';
 
 const A = [2.2352520354606839287, 161.02823106855587881, 1067.6894854603709582, 18154.981253343561249, 0.065682337918207449113];
 const B = [47.20258190468824187, 976.09855173777669322, 10260.932208618978205, 45507.789335026729956];
@@ -67,7 +68,7 @@ export function normalCdfPair(x: number): number {
     const temp = (xnum + C[7]) / (xden + D[7]);
     const xsq = Math.trunc(y * 16) / 16;
     const del = (y - xsq) * (y + xsq);
-    cum = Math.exp(-xsq * xsq * 0.5) * Math.exp(-del * 0.5) * temp;
+    cum = exp(-xsq * xsq * 0.5) * exp(-del * 0.5) * temp;
     ccum = 1 - cum;
   } else if (y < 38.5) {
     const xsq0 = 1 / (x * x);
@@ -81,7 +82,7 @@ export function normalCdfPair(x: number): number {
     temp = (M_1_SQRT_2PI - temp) / y;
     const xsq = Math.trunc(y * 16) / 16;
     const del = (y - xsq) * (y + xsq);
-    cum = Math.exp(-xsq * xsq * 0.5) * Math.exp(-del * 0.5) * temp;
+    cum = exp(-xsq * xsq * 0.5) * exp(-del * 0.5) * temp;
     ccum = 1 - cum;
   } else {
     cum = 0;
@@ -119,7 +120,7 @@ export function erfc(x: number): number {
 
 /** Standard normal density. */
 export function normalPdf(x: number): number {
-  return M_1_SQRT_2PI * Math.exp(-0.5 * x * x);
+  return M_1_SQRT_2PI * exp(-0.5 * x * x);
 }
 
 /**
@@ -143,7 +144,7 @@ export function normalQuantilePQ(p: number, q: number): number {
         4.2313330701600911252e1) * r + 1)
     );
   }
-  let r = Math.sqrt(-Math.log(p < q ? p : q));
+  let r = Math.sqrt(-ln(p < q ? p : q));
   let val: number;
   if (r <= 5) {
     r -= 1.6;
@@ -182,18 +183,18 @@ const LN_SQRT_2PI = 0.91893853320467274178;
 export function lgamma(x: number): number {
   if (x < 0.5) {
     // Reflection: Gamma(x) Gamma(1 - x) = pi / sin(pi x)
-    return Math.log(Math.PI / Math.abs(Math.sin(Math.PI * x))) - lgamma(1 - x);
+    return ln(Math.PI / Math.abs(sin(Math.PI * x))) - lgamma(1 - x);
   }
   const z = x - 1;
   let a = LANCZOS[0];
   const t = z + 7.5;
   for (let i = 1; i < 9; i++) a += LANCZOS[i] / (z + i);
-  return LN_SQRT_2PI + (z + 0.5) * Math.log(t) - t + Math.log(a);
+  return LN_SQRT_2PI + (z + 0.5) * ln(t) - t + ln(a);
 }
 
 /** Gamma(x) for moderate positive x. */
 export function gamma(x: number): number {
-  return Math.exp(lgamma(x));
+  return exp(lgamma(x));
 }
 
 /** ln B(a, b). */
@@ -237,16 +238,16 @@ function betaContinuedFraction(x: number, a: number, b: number): number {
 export function regIncBeta(x: number, a: number, b: number): number {
   if (x <= 0) return 0;
   if (x >= 1) return 1;
-  const lbt = a * Math.log(x) + b * Math.log1p(-x) - lbeta(a, b);
+  const lbt = a * ln(x) + b * log1p(-x) - lbeta(a, b);
   if (x < (a + 1) / (a + b + 2)) {
-    return (Math.exp(lbt) * betaContinuedFraction(x, a, b)) / a;
+    return (exp(lbt) * betaContinuedFraction(x, a, b)) / a;
   }
-  return 1 - (Math.exp(lbt) * betaContinuedFraction(1 - x, b, a)) / b;
+  return 1 - (exp(lbt) * betaContinuedFraction(1 - x, b, a)) / b;
 }
 
 /** Beta(a, b) density on [0, 1]. */
 export function betaPdf(x: number, a: number, b: number): number {
   if (x < 0 || x > 1) return 0;
   // 0^0 is 1 in IEEE pow, which gives the right endpoint value when a or b is 1.
-  return Math.exp(-lbeta(a, b)) * Math.pow(x, a - 1) * Math.pow(1 - x, b - 1);
+  return exp(-lbeta(a, b)) * pow(x, a - 1) * pow(1 - x, b - 1);
 }

@@ -4,6 +4,7 @@
  */
 import { lgamma, normalSf } from './special';
 import { averageRanks, sortedCopy } from './sort';
+import { exp, ln } from './det-math';
 
 /** The one pinned percentile definition (shown in the UI and the PDF). */
 export const PERCENTILE_DEFINITION = {
@@ -77,8 +78,8 @@ export function orderStatisticRanks(n: number, p: number, conf = CONFIDENCE_LEVE
   const tail = (1 - conf) / 2;
   const q = 1 - p;
   const mode = Math.min(n, Math.floor((n + 1) * p));
-  const logMode = lgamma(n + 1) - lgamma(mode + 1) - lgamma(n - mode + 1) + mode * Math.log(p) + (n - mode) * Math.log(q);
-  const pm = Math.exp(logMode);
+  const logMode = lgamma(n + 1) - lgamma(mode + 1) - lgamma(n - mode + 1) + mode * ln(p) + (n - mode) * ln(q);
+  const pm = exp(logMode);
   // pmf below the mode (descending k) and above it.
   const below: number[] = [];
   let v = pm;

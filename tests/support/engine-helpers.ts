@@ -1,4 +1,5 @@
-/** Shared helpers for the engine tests. */
+/** Shared helpers for the engine tests (no Node-only imports: also bundled for the browser). */
+import type { RunResult } from '@/lib/engine/simulate';
 
 /**
  * One-sample Kolmogorov-Smirnov statistic D = sup |F_n(x) - F(x)| of samples against a
@@ -49,4 +50,28 @@ export function hashArrays(arrays: ArrayLike<number>[] | Float64Array[]): string
     }
   }
   return h1.toString(16).padStart(8, '0') + h2.toString(16).padStart(8, '0');
+}
+
+export interface Fingerprint {
+  /** Every reproducible statistic, as JSON (timing and samples left out). */
+  stats: string;
+  /** Hash of every sample column. */
+  samples: string;
+  sampleKinds: string[];
+  /** Hash of each sample column by name (to locate a difference). */
+  columns: Record<string, string>;
+}
+
+/** What must agree bit for bit between two runs of the same model, dials, seed and trials. */
+export function fingerprint(r: RunResult): Fingerprint {
+  const { timing: _t, samples, ...rest } = r;
+  const cols = samples
+    ? [...Object.keys(samples.outputs).sort().map((k) => samples.outputs[k]), ...Object.keys(samples.inputs).sort().map((k) => samples.inputs[k])]
+    : [];
+  const columns: Record<string, string> = {};
+  if (samples) {
+    for (const [k, v] of Object.entries(samples.outputs)) columns[`output:${k}`] = hashArrays([v]);
+    for (const [k, v] of Object.entries(samples.inputs)) columns[`input:${k}`] = hashArrays([v]);
+  }
+  return { stats: JSON.stringify(rest), samples: hashArrays(cols), sampleKinds: cols.map((c) => Object.prototype.toString.call(c)), columns };
 }

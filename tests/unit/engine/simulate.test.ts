@@ -1,18 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { RunCancelledError } from '@/lib/engine/errors';
 import { EXAMPLE_MODELS, exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine/examples';
-import { runModel, runModelSync, Simulation, type Progress, type RunResult } from '@/lib/engine/simulate';
+import { runModel, runModelSync, Simulation, type Progress } from '@/lib/engine/simulate';
 import { normalCdf, normalSf } from '@/lib/engine/special';
-import { hashArrays } from '@/tests/support/engine-helpers';
+import { fingerprint, hashArrays } from '@/tests/support/engine-helpers';
 
 const clone = <T>(x: T): T => JSON.parse(JSON.stringify(x));
 
-/** Everything reproducible in a result: statistics as JSON plus a hash of every sample column. */
-function fingerprint(r: RunResult): { stats: string; samples: string } {
-  const { timing: _t, samples, ...rest } = r;
-  const cols = samples ? [...Object.keys(samples.outputs).sort().map((k) => samples.outputs[k]), ...Object.keys(samples.inputs).sort().map((k) => samples.inputs[k])] : [];
-  return { stats: JSON.stringify(rest), samples: hashArrays(cols) };
-}
 
 function withSettings(model: object, settings: object, trials = 20_000) {
   const m = clone(model) as any;

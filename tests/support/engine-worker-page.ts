@@ -1,0 +1,40 @@
+/**
+ * Browser entry for the worker parity test: runs the example models through the real
+ * worker client and worker, and exposes fingerprints of the results to the test.
+ */
+import { EngineWorkerClient } from '@/lib/engine/worker-client';
+import { EXAMPLE_MODELS } from '@/lib/engine/examples';
+import { fingerprint, type Fingerprint } from './engine-helpers';
+
+declare global {
+  interface Window {
+    engineParity: {
+      run(models: Record<string, unknown>): Promise<Record<string, Fingerprint>>;
+      supersede(): Promise<{ first: string; second: string; progressEvents: number }>;
+    };
+  }
+}
+
+const client = new EngineWorkerClient({ createWorker: () => new Worker('/worker.js') });
+
+window.engineParity = {
+  async run(models) {
+    const out: Record<string, Fingerprint> = {};
+    for (const [name, model] of Object.entries(models)) {
+      out[name] = fingerprint(await client.run(model, { samples: 'all' }));
+    }
+    return out;
+  },
+  async supersede() {
+    const big = JSON.parse(JSON.stringify(EXAMPLE_MODELS.formula));
+    big.settings.trials = 400_000;
+    let progressEvents = 0;
+    const first = client.run(big, { onProgress: () => progressEvents++ }).then(
+      () => 'finished',
+      (e: Error) => e.name,
+    );
+    await new Promise((r) => setTimeout(r, 30));
+    const second = await client.run(EXAMPLE_MODELS['linear-stack'], { onProgress: () => progressEvents++ }).then((r) => `finished ${r.outputs[0].id}`);
+    return { first: await first, second, progressEvents };
+  },
+};
