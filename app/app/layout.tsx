@@ -3,12 +3,13 @@ import { can } from '@/lib/auth/permissions';
 import { DashboardShell } from '@/components/shell/dashboard-shell';
 import { NAV } from '@/components/shell/nav';
 import { ROLE_LABELS } from '@/components/shell/roles';
+import { BillingBanner } from '@/components/billing/billing-banner';
 
 export default async function DashboardLayout({ children }: { children: React.ReactNode }) {
   const member = await requirePageMember('firm.read');
   const nav = NAV.filter((item) => can(member.role, item.permission)).map(({ href, label, icon }) => ({ href, label, icon }));
   return (
-    <DashboardShell firmName={member.firmName} userName={member.name} userEmail={member.email} roleLabel={ROLE_LABELS[member.role]} nav={nav}>
+    <DashboardShell firmName={member.firmName} userName={member.name} userEmail={member.email} roleLabel={ROLE_LABELS[member.role]} nav={nav} notice={<BillingBanner firmId={member.firmId} role={member.role} />}>
       {children}
     </DashboardShell>
   );

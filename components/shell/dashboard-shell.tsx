@@ -21,6 +21,8 @@ export interface DashboardShellProps {
   roleLabel: string;
   /** Only the items this member's role may use. */
   nav: readonly NavItem[];
+  /** A firm-wide notice above every page (e.g. the billing banner); renders nothing when empty. */
+  notice?: ReactNode;
   children: ReactNode;
 }
 
@@ -28,7 +30,7 @@ export interface DashboardShellProps {
  * The signed-in frame: a dark ink rail on wide screens, a top bar with a Menu button below 1024 px.
  * The firm name is one element in both layouts.
  */
-export function DashboardShell({ firmName, userName, userEmail, roleLabel, nav, children }: DashboardShellProps) {
+export function DashboardShell({ firmName, userName, userEmail, roleLabel, nav, notice, children }: DashboardShellProps) {
   const pathname = usePathname();
   // The small-screen menu remembers the page it was opened on, so it closes by itself after navigating.
   const [openOn, setOpenOn] = useState<string | null>(null);
@@ -99,7 +101,10 @@ export function DashboardShell({ firmName, userName, userEmail, roleLabel, nav, 
         </div>
       </aside>
       <main id="content" tabIndex={-1} className="min-w-0 flex-1 lg:pl-60">
-        <div className="mx-auto w-full max-w-6xl px-4 py-6 sm:px-6 lg:px-8 lg:py-8">{children}</div>
+        <div className="mx-auto w-full max-w-6xl px-4 py-6 sm:px-6 lg:px-8 lg:py-8">
+          {notice ? <div className="mb-6 empty:hidden">{notice}</div> : null}
+          {children}
+        </div>
       </main>
     </div>
   );
