@@ -61,7 +61,7 @@ export function SnippetBox({ pass }: { pass: PassView }) {
         id={id}
         readOnly
         value={pass.snippet}
-        rows={3}
+        rows={4}
         onFocus={(e) => e.currentTarget.select()}
         className="num block w-full resize-none rounded-md border border-ink-300 bg-ink-50 px-3 py-2 text-xs text-ink-800"
       />

@@ -18,7 +18,7 @@ export function ViewsChart({ daily }: { daily: PassDetailView['daily'] }) {
   const label = `Views over the last ${n} days: ${total.load} loads, ${total.dial} dial interactions, ${total.snapshot} snapshot requests.`;
   return (
     <figure className="space-y-2">
-      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-label={label} className="h-auto w-full">
+      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-label={label} className="h-auto w-full max-w-[720px]">
         <defs>
           <pattern id="views-hatch" width="4" height="4" patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
             <rect width="4" height="4" fill="#d3eeea" />
