@@ -30,7 +30,11 @@ export default async function NoAccessPage({ searchParams }: { searchParams: Pro
         ) : null}
         You are signed in as <strong className="font-semibold text-ink-900">{ROLE_LABELS[member.role].toLowerCase()}</strong> of {member.firmName}.
       </p>
-      <p className="mt-2 text-sm text-ink-600">If you need it for your work, ask your firm’s account owner to change your role on the Team page.</p>
+      <p className="mt-2 text-sm text-ink-600">
+        {member.role === 'owner'
+          ? 'Roles are changed on the Team page. A firm keeps at least one owner, so make someone else owner before changing your own role.'
+          : 'If you need it for your work, ask your firm’s account owner to change your role on the Team page.'}
+      </p>
       <div className="mt-6">
         <LinkButton href="/app/models" variant="secondary">
           Back to your dashboard
