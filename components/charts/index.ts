@@ -7,3 +7,4 @@ export { ChartTable, type ChartTableProps, type ChartTableColumn } from './chart
 export { SceneSvg } from './scene-svg';
 export { downloadPng, downloadSvg, sceneToPngBlob, embeddedFontCss, fileSlug, saveBlob } from './download';
 export { useElementWidth } from './use-element-width';
+export { RangesChart, type RangesChartProps } from './ranges-chart';

@@ -320,8 +320,9 @@ export function cumulativeScene(g: CumulativeGeometry, text?: Partial<SceneText>
   const axes = axesNodes(box, g.xAxis, g.yAxis);
   const nodes: SceneNode[] = [...axes.filter((n) => n.key?.startsWith('yg'))];
   const labelY = (row: number) => -box.margin.top + 4 + row * ROW + 11;
-  g.outRegions.forEach((r) => nodes.push({ type: 'rect', key: `zone-${r.side}`, x: r2(r.x), y: 0, width: r2(r.width), height: h, fill: { pattern: PATTERN_OUT_ZONE } }));
+  // The hatch goes over the tint under the curve, so the region beyond a limit keeps its pattern.
   if (g.areaPath) nodes.push({ type: 'path', key: 'area', d: g.areaPath, fill: chartColors.seriesTint, opacity: 0.55 });
+  g.outRegions.forEach((r) => nodes.push({ type: 'rect', key: `zone-${r.side}`, x: r2(r.x), y: 0, width: r2(r.width), height: h, fill: { pattern: PATTERN_OUT_ZONE }, opacity: 0.85 }));
   // Drop lines from each percentile point to both axes.
   for (const m of g.percentiles) {
     nodes.push({ type: 'path', key: `drop-${m.p}`, d: `M0,${r2(m.y)}H${r2(m.x)}V${h}`, stroke: chartColors.marker, strokeWidth: 1, dash: '2 3' });

@@ -76,10 +76,11 @@ export function driversGeometry(input: DriversInput): DriversGeometry {
       { id: '__other', label: `Other (${rest.length} inputs)`, share: rest.reduce((s, d) => s + Math.max(0, d.share), 0), correlation: null, other: true },
     ];
   }
-  const layout: DriversGeometry['layout'] = width >= 520 ? 'side' : 'stacked';
   const labelSize = 12;
   const longest = Math.max(0, ...shown.map((d) => textWidth(d.label, labelSize, 'sans')));
-  const labelWidth = layout === 'side' ? Math.min(Math.round(width * 0.34), Math.max(80, Math.ceil(longest) + 8)) : 0;
+  // Labels beside the bars when they fit in 40 % of the width; otherwise above them.
+  const layout: DriversGeometry['layout'] = width >= 520 && longest + 8 <= width * 0.4 ? 'side' : 'stacked';
+  const labelWidth = layout === 'side' ? Math.min(Math.round(width * 0.4), Math.max(80, Math.ceil(longest) + 8)) : 0;
   const valueWidth = 74;
   const margin = { top: 6, right: 12 + valueWidth, bottom: 40, left: 12 + labelWidth };
   const rowH = layout === 'side' ? 28 : 42;

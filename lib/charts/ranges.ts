@@ -137,6 +137,10 @@ export function rangesScene(g: RangesGeometry, text?: Partial<SceneText>): Scene
         strokeWidth: s.out ? 0.75 : undefined,
       });
     if (b.centreX !== null) nodes.push({ type: 'line', key: `c-${b.id}`, x1: r2(b.centreX), x2: r2(b.centreX), y1: r2(barY - 4), y2: r2(barY + barH + 4), stroke: chartColors.strong, strokeWidth: 2 });
+    if (g.layout === 'stacked') {
+      const tw = textWidth(b.shownLabel, 12, 'sans');
+      nodes.push({ type: 'rect', key: `labbg-${b.id}`, x: -2, y: r2(barY - 19), width: r2(tw + 6), height: 16, fill: '#ffffff', opacity: 0.9 });
+    }
     nodes.push({
       type: 'text',
       key: `lab-${b.id}`,
