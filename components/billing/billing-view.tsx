@@ -89,7 +89,7 @@ export function BillingView({ returnedFrom }: { returnedFrom: 'checkout-success'
     started.current = true;
     if (returnedFrom === 'checkout-success') {
       wait({
-        until: (s) => s.subscription !== null,
+        until: (s) => s.subscription !== null && s.invoices.length > 0,
         done: 'Payment received: your seats are ready. Invite authors and checkers on the Team page.',
         late: 'The payment went through; the seats appear here as soon as the payment provider confirms it. Reload in a minute.',
       });

@@ -5,15 +5,19 @@ import { test, expect, type Page } from '@playwright/test';
 const stamp = () => `${Date.now().toString(36)}${Math.floor(performance.now()).toString(36)}`;
 const PASSWORD = 'correct horse battery';
 
+async function signIn(page: Page, email: string, password: string): Promise<void> {
+  await page.goto('/sign-in');
+  await page.getByLabel(/e-mail/i).first().fill(email);
+  await page.getByLabel('Password', { exact: true }).fill(password);
+  await page.getByRole('button', { name: /^sign in$/i }).click();
+  await expect(page).toHaveURL(/\/app\//);
+}
+
 async function newOwner(page: Page, firmName: string): Promise<string> {
   const email = `billing-owner-${stamp()}@e2e-firm.example`;
   const res = await page.request.post('/api/sign-up', { data: { firmName, name: 'Wren Halvorsen', email, password: PASSWORD } });
   expect(res.status()).toBe(201);
-  await page.goto('/sign-in');
-  await page.getByLabel(/e-mail/i).first().fill(email);
-  await page.getByLabel(/password/i).fill(PASSWORD);
-  await page.getByRole('button', { name: /^sign in$/i }).click();
-  await expect(page).toHaveURL(/\/app\//);
+  await signIn(page, email, PASSWORD);
   return email;
 }
 
@@ -70,8 +74,8 @@ test('owner buys 3 seats, fills them, is refused the next invitation, adds a sea
 
   // Add a seat in the fake's billing portal.
   await page.getByRole('button', { name: 'Manage in portal' }).click();
-  await expect(page.getByRole('heading', { name: 'Seats' })).toBeVisible();
-  await page.getByLabel('Number of seats').fill('4');
+  await expect(page.getByRole('heading', { name: 'Seats', exact: true })).toBeVisible();
+  await page.getByLabel('Number of seats', { exact: true }).fill('4');
   await page.getByRole('button', { name: 'Review change' }).click();
   await expect(page.getByRole('heading', { name: 'Change seats from 3 to 4' })).toBeVisible();
   await page.getByRole('button', { name: 'Confirm change' }).click();
@@ -103,11 +107,7 @@ test('a declined card shows its error on the payment page and nothing changes', 
 });
 
 test('authors and checkers see no billing data', async ({ page }) => {
-  await page.goto('/sign-in');
-  await page.getByLabel(/e-mail/i).first().fill('author@orrinvale.example');
-  await page.getByLabel(/password/i).fill('stochos-demo-2026');
-  await page.getByRole('button', { name: /^sign in$/i }).click();
-  await expect(page).toHaveURL(/\/app\//);
+  await signIn(page, 'author@orrinvale.example', 'stochos-demo-2026');
   await expect(page.getByRole('link', { name: 'Billing' })).toHaveCount(0);
   await page.goto('/app/billing');
   await expect(page).toHaveURL(/\/app\/no-access/);
