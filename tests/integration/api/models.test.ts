@@ -27,7 +27,7 @@ let owner: Client;
 let author: Client;
 let author2: Client;
 let checker: Client;
-let converted: { client: Client; membershipId: string };
+let converted: { client: Client; membershipId: string; owner: Client };
 let outsiderAuthor: Client;
 let db: Database.Database;
 
@@ -37,7 +37,9 @@ beforeAll(async () => {
   author = (await addMember(appUrl, mailboxUrl, owner, 'author')).client;
   author2 = (await addMember(appUrl, mailboxUrl, owner, 'author')).client;
   checker = (await addMember(appUrl, mailboxUrl, owner, 'checker')).client;
-  converted = await addMember(appUrl, mailboxUrl, owner, 'author');
+  // A trial firm has three seats, so the member whose role changes sits in a firm of its own.
+  const third = await newFirm(appUrl, 'studio-converted');
+  converted = { ...(await addMember(appUrl, mailboxUrl, third.owner, 'author')), owner: third.owner };
   const other = await newFirm(appUrl, 'studio-other');
   outsiderAuthor = (await addMember(appUrl, mailboxUrl, other.owner, 'author')).client;
   db = openTestDb(inject('dataDir'));
@@ -199,7 +201,7 @@ describe('checking', () => {
     const m = await create(converted.client, 'formula');
     const v = (await save(converted.client, m.id, 0, m.draft)).body.version;
     expect((await converted.client.json('POST', `/api/versions/${v.id}/check`, { decision: 'sign_off', note: 'mine' })).status).toBe(403);
-    const role = await owner.json('PATCH', `/api/team/members/${converted.membershipId}`, { role: 'checker' });
+    const role = await converted.owner.json('PATCH', `/api/team/members/${converted.membershipId}`, { role: 'checker' });
     expect(role.status).toBe(200);
     const own = await converted.client.json<ErrBody>('POST', `/api/versions/${v.id}/check`, { decision: 'sign_off', note: 'mine' });
     expect(own.status).toBe(403);

@@ -78,7 +78,7 @@ export const rows: MatrixRow[] = [
   {
     method: 'POST',
     route: '/api/models/[id]/duplicate',
-    prepare: (c) => ({ path: `/api/models/${insertModelWithVersion(c.db, c.firmId).modelId}/duplicate` }),
+    prepare: (c) => ({ path: `/api/models/${insertModelWithVersion(c.db, c.firmId).modelId}/duplicate`, body: {} }),
     expect: { ...authorOnly, author: 201 },
   },
   { method: 'GET', route: '/api/models/[id]/versions', prepare: (c) => ({ path: `/api/models/${insertModelWithVersion(c.db, c.firmId).modelId}/versions` }), expect: readAll },

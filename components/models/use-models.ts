@@ -1,0 +1,94 @@
+'use client';
+
+import useSWR from 'swr';
+import { api, fetcher } from '@/lib/client/api';
+import type { CheckComment, ModelListRow, ModelRecord, TemplateId, VersionRecord, VersionSummary, WidgetRecord } from '@/lib/models/types';
+
+// One hook per resource of the studio; actions revalidate what they change.
+
+export const modelsKey = (includeArchived: boolean) => `/api/models${includeArchived ? '?archived=1' : ''}`;
+export const modelKey = (id: string) => `/api/models/${encodeURIComponent(id)}`;
+export const versionKey = (id: string, n: number) => `/api/models/${encodeURIComponent(id)}/versions/${n}`;
+
+export interface ModelDetail {
+  model: ModelRecord;
+  versions: VersionSummary[];
+  latest: VersionRecord | null;
+  widget: WidgetRecord | null;
+  requireCheck: boolean;
+}
+
+export interface CreateModelBody {
+  title?: string;
+  template: TemplateId;
+  start: 'example' | 'blank' | 'import';
+  model?: unknown;
+}
+
+export function useModels(includeArchived: boolean) {
+  const swr = useSWR<{ models: ModelListRow[] }>(modelsKey(includeArchived), fetcher);
+  const { mutate } = swr;
+  return {
+    ...swr,
+    create: async (body: CreateModelBody) => {
+      const res = await api.post<{ model: ModelRecord }>('/api/models', body);
+      await mutate();
+      return res.model;
+    },
+    duplicate: async (id: string) => {
+      const res = await api.post<{ model: ModelRecord }>(`${modelKey(id)}/duplicate`, {});
+      await mutate();
+      return res.model;
+    },
+    setArchived: async (id: string, archived: boolean) => {
+      await api.patch(modelKey(id), { archived });
+      await mutate();
+    },
+  };
+}
+
+export function useModel(id: string) {
+  const swr = useSWR<ModelDetail>(modelKey(id), fetcher);
+  const { mutate } = swr;
+  return {
+    ...swr,
+    rename: async (title: string) => {
+      await api.patch(modelKey(id), { title });
+      await mutate();
+    },
+    saveVersion: async (body: { baseVersion: number | null; note: string; model: unknown }) => {
+      const res = await api.post<{ version: VersionRecord }>(`${modelKey(id)}/versions`, body);
+      await mutate();
+      return res.version;
+    },
+  };
+}
+
+export function useVersion(modelId: string, n: number | null) {
+  return useSWR<{ version: VersionRecord }>(n && n > 0 ? versionKey(modelId, n) : null, fetcher);
+}
+
+export async function checkVersion(versionId: string, body: { decision: 'sign_off' | 'send_back'; note: string; comments: CheckComment[] }) {
+  return (await api.post<{ version: VersionSummary }>(`/api/versions/${encodeURIComponent(versionId)}/check`, body)).version;
+}
+
+export interface WidgetBody {
+  title: string;
+  panels: string[];
+  headline: string;
+  dialIds: string[];
+  brandColor: string;
+  showLogo: boolean;
+}
+
+export async function publishWidget(body: WidgetBody & { modelId: string; versionId: string }) {
+  return (await api.post<{ widget: WidgetRecord }>('/api/widgets', body)).widget;
+}
+
+export async function updateWidget(id: string, body: Partial<WidgetBody> & { versionId?: string }) {
+  return (await api.patch<{ widget: WidgetRecord }>(`/api/widgets/${encodeURIComponent(id)}`, body)).widget;
+}
+
+export async function unpublishWidget(id: string) {
+  await api.delete(`/api/widgets/${encodeURIComponent(id)}`);
+}
