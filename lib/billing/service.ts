@@ -123,6 +123,9 @@ export async function startCheckout(m: Member, seats: number): Promise<{ url: st
   const customer = await ensureCustomer(m);
   let session: Stripe.Checkout.Session;
   try {
+    // An earlier checkout page left open (another tab, the back button) could otherwise start a second subscription.
+    const open = await stripe().checkout.sessions.list({ customer, status: 'open', limit: 10 });
+    for (const s of open.data) await stripe().checkout.sessions.expire(s.id);
     session = await stripe().checkout.sessions.create({
       mode: 'subscription',
       customer,

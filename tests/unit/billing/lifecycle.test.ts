@@ -140,7 +140,7 @@ describe('billing life: trial, buy, grow, fail, recover, shrink, cancel', () => 
   });
 
   it('buys 3 seats through the hosted checkout; a declined card changes nothing', async () => {
-    const { url } = await startCheckout(owner, 3);
+    let { url } = await startCheckout(owner, 3);
     expect(url).toMatch(/\/checkout\/cs_test_/);
     customerId = (await getBillingAccount(owner.firmId))!.stripeCustomerId!;
     expect(customerId).toMatch(/^cus_/);
@@ -150,6 +150,13 @@ describe('billing life: trial, buy, grow, fail, recover, shrink, cancel', () => 
     expect(await declined.text()).toContain('Your card was declined.');
     await settle();
     expect(await listSubscriptions(owner.firmId)).toEqual([]);
+
+    // Opening checkout again retires the first page, so two tabs cannot start two subscriptions.
+    const { url: second } = await startCheckout(owner, 3);
+    const stale = await postForm(url, GOOD);
+    expect(stale.status).toBe(402);
+    expect(await stale.text()).toMatch(/This checkout (page )?has expired/);
+    url = second;
 
     const paid = await postForm(url, GOOD);
     expect(paid.status).toBe(303);
