@@ -129,7 +129,7 @@ export function CumulativeChart({ name, unit, ecdf, percentiles, tablePercentile
         <path d="M2 14V2M2 14h12M5 10l3-4 3 2 3-5" fill="none" stroke="currentColor" strokeWidth="1.5" />
       </svg>
       {shown ? (
-        <span className="num whitespace-nowrap text-ink-900">{shown.text}</span>
+        <span className="num text-ink-900">{shown.text}</span>
       ) : (
         <span>Point at the curve, or focus here and use the arrow keys, to read any value.</span>
       )}

@@ -186,7 +186,9 @@ export function cumulativeGeometry(input: CumulativeInput): CumulativeGeometry {
   const path = points.length ? (lineGen(points) ?? '') : '';
   const areaPath = points.length ? (areaGen(points) ?? '') : '';
 
-  // Percentile labels sit above-left of their point (the empty side of a rising curve); flip right when cramped.
+  // Percentile labels sit on their horizontal drop line, near the y axis: left of its point a rising
+  // curve is always below that line, so the label never crosses the curve. When the point is too close
+  // to the axis for the label, it goes right of the point, under the line (where the curve is above it).
   const marks = [...(input.percentiles ?? [])].filter((m) => Number.isFinite(m.value) && m.p > 0 && m.p < 1).sort((a, b) => a.p - b.p);
   const percentiles: PercentileMarker[] = [];
   let lastLabelY = Infinity;
@@ -195,12 +197,12 @@ export function cumulativeGeometry(input: CumulativeInput): CumulativeGeometry {
     const py = y(m.p);
     const name = percentileName(m.p);
     const text = `${name} ${formatValue(m.value, unit)}`;
-    const w = textWidth(text, 11, 'sans');
-    let ly = py - 5;
+    const w = textWidth(text, 11, 'mono');
+    const left = px - 10 >= w + 4;
+    let ly = left ? py - 4 : py + 14;
     if (ly > lastLabelY - 13) ly = lastLabelY - 13;
     lastLabelY = ly;
-    const anchor: 'start' | 'end' = px - 8 - w >= -margin.left + 4 ? 'end' : 'start';
-    percentiles.push({ p: m.p, value: m.value, name, x: px, y: py, label: { text, x: anchor === 'end' ? px - 8 : px + 8, y: anchor === 'end' ? ly : py + 14, anchor } });
+    percentiles.push({ p: m.p, value: m.value, name, x: px, y: py, label: { text, x: left ? 4 : px + 8, y: ly, anchor: 'start' } });
   }
 
   let li = limitReqs.length;

@@ -1,0 +1,273 @@
+'use client';
+
+import { useCallback, useId, useMemo, useState, type CSSProperties, type ReactNode } from 'react';
+import { validateModel } from '@/lib/engine/schema';
+import { cautionsFor, lowTrialCaution } from '@/lib/cautions';
+import { formatCount, formatDuration } from '@/lib/charts/format';
+import { headlineFigure } from '@/lib/results/headline';
+import { Banner } from '@/components/ui/banner';
+import { cx } from '@/components/ui/cx';
+import { formatDate } from '@/components/ui/format';
+import { ProgressBar } from '@/components/ui/progress-bar';
+import { Term } from '@/components/ui/term';
+import { CautionsList } from '@/components/results/cautions-list';
+import { useSimulation } from '@/components/results/use-simulation';
+import { brandColors } from './brand';
+import { DialControl } from './dial-control';
+import { atDefaults, initialDialValues, type DialSpec } from './dial-values';
+import { WidgetChart, type ChartPanel } from './widget-panels';
+
+export type WidgetPanel = 'spread' | 'cumulative' | 'drivers' | 'headline';
+
+export interface WidgetConfig {
+  title: string;
+  /** Panels in the order shown; unknown ids are ignored. */
+  panels: readonly (WidgetPanel | string)[];
+  /** Headline figure id (lib/models/widget-options.ts HEADLINES). */
+  headline: string;
+  /** Dials the viewer may move, in this order. */
+  dialIds: readonly string[];
+}
+
+export interface WidgetBranding {
+  firmName: string;
+  /** The firm's accent colour (#rrggbb); darkened where needed for contrast. */
+  brandColor: string;
+  logoUrl?: string | null;
+}
+
+export interface WidgetVersionInfo {
+  number: number;
+  /** ISO time of the checker's sign-off; absent for a version published without one. */
+  signedOffAt?: string | null;
+}
+
+export interface WidgetViewProps {
+  /** The published version's model JSON. */
+  model: unknown;
+  widget: WidgetConfig;
+  branding: WidgetBranding;
+  versionInfo: WidgetVersionInfo;
+  /** Called after every dial change (dialId null for a reset), with all dial values. */
+  onDialChange?: (values: Record<string, number>, dialId: string | null) => void;
+  /** Start from these values (e.g. restored from a link); out-of-range values are ignored. */
+  initialDialValues?: Record<string, number>;
+  /** Extra actions in the footer (e.g. "E-mail me this view"). */
+  actions?: ReactNode;
+  /** Heading level of the title (h1 when the widget is the whole page). */
+  headingLevel?: 'h1' | 'h2';
+  className?: string;
+}
+
+const CHART_PANELS = new Set<string>(['spread', 'cumulative', 'drivers']);
+
+/**
+ * What a client viewer sees: the firm's branding, the title, the dials they may move, the headline
+ * figure, the chosen charts and the cautions, with the version and its sign-off. Every dial move
+ * reruns the model in the browser with the same seed and sub-streams, so only what the dial touches
+ * changes. No dashboard or sign-in code: the embed page uses this as it is.
+ */
+export function WidgetView({ model, widget, branding, versionInfo, onDialChange, initialDialValues: given, actions, headingLevel: H = 'h2', className }: WidgetViewProps) {
+  const checked = useMemo(() => validateModel(model), [model]);
+  const dials = useMemo<DialSpec[]>(() => {
+    if (!checked.ok) return [];
+    const byId = new Map(checked.model.dials.map((d) => [d.id, d]));
+    return widget.dialIds.flatMap((id) => {
+      const d = byId.get(id);
+      return d ? [{ id: d.id, label: d.label, unit: d.unit, min: d.min, max: d.max, step: d.step, default: d.default }] : [];
+    });
+  }, [checked, widget.dialIds]);
+
+  const [values, setValues] = useState<Record<string, number>>(() => initialDialValues(dials, given));
+  // Dials can change with a new model; keep only theirs, with defaults for new ones.
+  const current = useMemo(() => {
+    const out: Record<string, number> = {};
+    for (const d of dials) out[d.id] = values[d.id] ?? d.default;
+    return out;
+  }, [dials, values]);
+
+  const sim = useSimulation(checked.ok ? model : null, current, { samples: 'none' });
+  const colors = useMemo(() => brandColors(branding.brandColor), [branding.brandColor]);
+
+  const setDial = useCallback(
+    (id: string, v: number) => {
+      const next = { ...current, [id]: v };
+      setValues(next);
+      onDialChange?.(next, id);
+    },
+    [current, onDialChange],
+  );
+  const reset = useCallback(() => {
+    const next = initialDialValues(dials);
+    setValues(next);
+    onDialChange?.(next, null);
+  }, [dials, onDialChange]);
+
+  const result = sim.result;
+  const panels = widget.panels.filter((p) => p === 'headline' || CHART_PANELS.has(p));
+  const chartPanels = panels.filter((p): p is ChartPanel => CHART_PANELS.has(p));
+  const titleId = `${useId().replace(/[^a-zA-Z0-9_-]/g, '')}-title`;
+  const headline = result && panels.includes('headline') ? headlineFigure(result, widget.headline) : null;
+  const cautions = useMemo(() => {
+    const template = checked.ok ? checked.model.template : 'formula';
+    const low = result ? lowTrialCaution(result.outputs) : null;
+    return [...(low ? [low] : []), ...cautionsFor(template)];
+  }, [checked, result]);
+  const invalid = result ? result.outputs.reduce((s, o) => s + o.invalid.total, 0) : 0;
+
+  const style = {
+    '--st-brand': colors.accent,
+    '--st-brand-text': colors.accentText,
+    '--st-focus': colors.accentText,
+  } as CSSProperties;
+
+  return (
+    <section aria-labelledby={titleId} style={style} className={cx('@container min-w-0', className)}>
+      <div className="overflow-hidden rounded-xl border border-ink-200 bg-white shadow-[0_1px_2px_rgb(20_28_34/0.06)]">
+        <header className="flex flex-wrap items-center justify-between gap-x-4 gap-y-1 border-t-4 border-b border-b-ink-100 px-3 py-2.5 @md:px-4" style={{ borderTopColor: 'var(--st-brand)' }}>
+          <div className="flex min-w-0 items-center gap-2.5">
+            {branding.logoUrl ? (
+              // A firm's logo from its own settings (any size or origin the app allows); next/image would need every host configured.
+              // eslint-disable-next-line @next/next/no-img-element
+              <img src={branding.logoUrl} alt={`${branding.firmName} logo`} className="h-7 w-auto max-w-[8rem] object-contain" />
+            ) : null}
+            <span className="truncate text-sm font-semibold" style={{ color: 'var(--st-brand-text)' }}>
+              {branding.firmName}
+            </span>
+          </div>
+          <p className="text-xs text-ink-600">
+            Version <span className="num">{versionInfo.number}</span> ·{' '}
+            {versionInfo.signedOffAt ? (
+              <>
+                checked and signed off <time dateTime={versionInfo.signedOffAt}>{formatDate(versionInfo.signedOffAt)}</time>
+              </>
+            ) : (
+              'not signed off by a checker'
+            )}
+          </p>
+        </header>
+
+        <div className="space-y-4 px-3 py-3 @md:px-4 @md:py-4">
+          <H id={titleId} className="text-lg leading-snug font-semibold text-ink-900 @2xl:text-xl">
+            {widget.title}
+          </H>
+
+          {!checked.ok ? (
+            <Banner tone="danger" title="This model cannot be shown">
+              <p>The published model did not pass its checks ({checked.issues[0]?.message ?? 'unknown problem'}). Ask the firm that shared it to publish it again.</p>
+            </Banner>
+          ) : null}
+
+          <div className={cx('grid grid-cols-1 gap-4', dials.length > 0 && panels.includes('headline') && '@3xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]')}>
+            {dials.length ? (
+              <fieldset className="min-w-0 space-y-3 rounded-lg border border-ink-200 bg-ink-50 px-3 pt-2 pb-3">
+                <legend className="px-1 text-sm font-semibold text-ink-900">Try other values</legend>
+                {dials.map((d) => (
+                  <DialControl key={d.id} dial={d} value={current[d.id]} onChange={(v) => setDial(d.id, v)} />
+                ))}
+                <button
+                  type="button"
+                  onClick={reset}
+                  disabled={atDefaults(dials, current)}
+                  className="inline-flex h-8 items-center gap-1.5 rounded-md border border-ink-300 bg-white px-3 text-[0.8125rem] font-medium shadow-sm hover:bg-ink-50 disabled:cursor-not-allowed disabled:opacity-60"
+                  style={{ color: 'var(--st-brand-text)' }}
+                >
+                  <svg aria-hidden="true" viewBox="0 0 16 16" className="h-3.5 w-3.5" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" strokeLinejoin="round">
+                    <path d="M3 8a5 5 0 1 0 1.5-3.6M3 2.5v2.8h2.8" />
+                  </svg>
+                  Reset to the author’s values
+                </button>
+              </fieldset>
+            ) : null}
+
+            {panels.includes('headline') ? (
+              <div className="min-w-0 space-y-2">
+                <div className={cx('rounded-lg border border-l-4 border-ink-200 bg-white px-4 py-3 transition-opacity', sim.stale && 'opacity-60')} style={{ borderLeftColor: 'var(--st-brand)' }} aria-live="polite" aria-atomic="true">
+                  {headline ? (
+                    <>
+                      <p className="text-sm text-ink-700">{headline.term ? <Term term={headline.term}>{headline.label}</Term> : headline.label}</p>
+                      <p className="num mt-0.5 text-3xl font-semibold whitespace-nowrap text-ink-900 @2xl:text-4xl">{headline.value}</p>
+                      {headline.sub ? <p className="mt-1 text-[0.8125rem] text-ink-600">{headline.sub}</p> : null}
+                    </>
+                  ) : (
+                    <p className="py-3 text-sm text-ink-600">{sim.status === 'error' ? 'No figure: the run failed.' : 'Computing…'}</p>
+                  )}
+                </div>
+                <WidgetProgress sim={sim} />
+              </div>
+            ) : null}
+          </div>
+
+          {!panels.includes('headline') ? <WidgetProgress sim={sim} /> : null}
+
+          {sim.error ? (
+            <Banner
+              tone="danger"
+              title="These settings cannot be computed"
+              action={
+                dials.length ? (
+                  <button type="button" onClick={reset} className="inline-flex h-8 items-center rounded-md border border-ink-300 bg-white px-3 text-[0.8125rem] font-medium text-ink-800">
+                    Reset to the author’s values
+                  </button>
+                ) : null
+              }
+            >
+              <p>{sim.error.issues[0]?.message ?? sim.error.message}</p>
+              {result ? <p className="mt-1">The figures below are from the last settings that worked.</p> : null}
+            </Banner>
+          ) : null}
+
+          {result ? (
+            <div className={cx('grid grid-cols-1 gap-4 transition-opacity @3xl:grid-cols-2', sim.stale && 'opacity-60')}>
+              {chartPanels.map((p, i) => (
+                <div key={p} className={chartPanels.length % 2 === 1 && i === 0 ? '@3xl:col-span-2' : undefined}>
+                  <WidgetChart result={result} panel={p} />
+                </div>
+              ))}
+            </div>
+          ) : null}
+
+          <CautionsList cautions={cautions} />
+
+          <footer className="flex flex-wrap items-center justify-between gap-2 border-t border-ink-100 pt-2">
+            <p className="text-xs text-ink-600">
+              {result ? (
+                <>
+                  <span className="num">{formatCount(result.run.trials)}</span> trials · <span className="num">{formatDuration(sim.lastRunMs ?? result.timing.totalMs)}</span>
+                  {invalid > 0 ? (
+                    <>
+                      {' '}
+                      · <span className="num">{formatCount(invalid)}</span> invalid trials left out
+                    </>
+                  ) : null}{' '}
+                  · computed in your browser
+                </>
+              ) : (
+                'Computed in your browser'
+              )}
+            </p>
+            {actions ? <div className="flex flex-wrap gap-2">{actions}</div> : null}
+          </footer>
+        </div>
+      </div>
+    </section>
+  );
+}
+
+function WidgetProgress({ sim }: { sim: ReturnType<typeof useSimulation> }) {
+  const p = sim.progress;
+  return (
+    <div className="min-h-7">
+      {sim.status === 'running' ? (
+        <ProgressBar
+          label="Updating"
+          value={p ? p.done : undefined}
+          max={p ? p.total : 100}
+          valueText={p ? `${formatCount(p.done)} of ${formatCount(p.total)} trials · ${formatDuration(p.elapsedMs)}` : 'Starting…'}
+        />
+      ) : sim.status === 'waiting' ? (
+        <p className="text-xs text-ink-600">Updating…</p>
+      ) : null}
+    </div>
+  );
+}
