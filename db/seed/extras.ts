@@ -1,6 +1,11 @@
 import 'server-only';
+import { seedDemoBilling } from '@/db/seed/billing';
+import { seedModels } from '@/db/seed/models';
+import { seedClients } from '@/db/seed/clients';
 
-/** Later capabilities (clients, models, datasets, billing) add their demo records here. */
+/** The demo firm's billing account, its two published models, then its clients with passes to those widgets. */
 export async function seedDemoExtras(firmId: string): Promise<void> {
-  void firmId;
+  await seedDemoBilling(firmId);
+  await seedModels(firmId);
+  await seedClients(firmId);
 }
