@@ -1,7 +1,7 @@
 'use client';
 
 import { useCallback, useEffect, useId, useMemo, useRef, useState } from 'react';
-import { FormProvider, useForm, useWatch, type FieldValues } from 'react-hook-form';
+import { FormProvider, useForm, useWatch, type FieldErrors, type FieldValues } from 'react-hook-form';
 import type { StochosModel, StochosModelInput } from '@/lib/engine/schema';
 import { TEMPLATE_LABELS } from '@/lib/models/templates';
 import { EditorContext, domIdFor, type EditorContextValue } from './editor-context';
@@ -98,10 +98,12 @@ function Dials() {
 export function ModelEditor({ value, onChange, readOnly = false, errors }: ModelEditorProps) {
   const prefix = 'me' + useId().replace(/[^a-zA-Z0-9_-]/g, '');
   const parsed = useRef<StochosModel | null>(null);
+  const latestErrors = useRef<FieldErrors>({});
   const resolver = useMemo(
     () =>
-      createModelResolver((m) => {
+      createModelResolver((m, errs) => {
         parsed.current = m;
+        latestErrors.current = errs;
       }),
     [],
   );
@@ -117,6 +119,8 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
     setServer(errors ?? {});
   }
   const [valid, setValid] = useState(true);
+  // Nothing is claimed about the model until the first check has run in the browser.
+  const [checked, setChecked] = useState(false);
 
   const onChangeRef = useRef(onChange);
   useEffect(() => {
@@ -137,9 +141,10 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
       const mine = ++seq.current;
       const ok = await form.trigger();
       if (mine !== seq.current) return;
-      setClient(flattenFieldErrors(form.formState.errors));
+      setClient(flattenFieldErrors(latestErrors.current));
       const isValid = ok && Object.keys(localRef.current).length === 0;
       setValid(isValid);
+      setChecked(true);
       const raw = JSON.stringify(form.getValues());
       if (!emit) {
         baseline.current = { raw, valid: isValid };
@@ -226,6 +231,7 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
       <EditorContext.Provider value={ctx}>
         <form
           noValidate
+          data-checked={checked ? 'true' : undefined}
           aria-label={`${TEMPLATE_LABELS[template]} model editor`}
           onSubmit={(e) => e.preventDefault()}
           className="space-y-4"
@@ -233,7 +239,7 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
           <div className="flex flex-wrap items-start justify-between gap-3">
             <p role="status" className="pt-1 text-sm text-ink-700">
               <span className="mr-2 inline-flex items-center rounded bg-ink-100 px-1.5 py-0.5 text-xs font-medium text-ink-700 ring-1 ring-ink-200 ring-inset">{TEMPLATE_LABELS[template]}</span>
-              {readOnly ? 'Read only.' : Object.keys(messages).length === 0 ? 'No problems found.' : null}
+              {!checked ? 'Checking…' : readOnly ? 'Read only.' : Object.keys(messages).length === 0 ? 'No problems found.' : null}
             </p>
             <ImportExport getModel={() => (parsed.current && valid ? parsed.current : (form.getValues() as StochosModel))} valid={valid} template={template} readOnly={readOnly} onImport={importModel} />
           </div>

@@ -92,7 +92,7 @@ export function AddButton({ onClick, children }: { onClick: () => void; children
 /** A table that scrolls sideways inside its own box on narrow screens; the caption names it for screen readers. */
 export function ScrollTable({ caption, minWidth, children }: { caption: string; minWidth: number; children: ReactNode }) {
   return (
-    <div className="relative -mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5" role="region" aria-label={caption} tabIndex={0}>
+    <div className="relative -mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5" role="region" aria-label={`${caption} table`} tabIndex={0}>
       <table className="w-full border-separate border-spacing-0 text-sm" style={{ minWidth }}>
         <caption className="sr-only">{caption}</caption>
         {children}

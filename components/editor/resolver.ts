@@ -29,9 +29,10 @@ function addIssue(errors: FieldErrors, issue: ModelIssue): void {
 }
 
 /**
- * Builds the resolver. `onResult` receives the validated model (defaults applied) when the draft is valid, else null.
+ * Builds the resolver. `onResult` receives the validated model (defaults applied) when the draft is valid, else
+ * null, and the error tree just computed (react-hook-form's formState snapshot can lag a render behind).
  */
-export function createModelResolver(onResult?: (model: StochosModel | null) => void): Resolver<FieldValues> {
+export function createModelResolver(onResult?: (model: StochosModel | null, errors: FieldErrors) => void): Resolver<FieldValues> {
   const base = zodResolver(modelSchema) as unknown as Resolver<FieldValues>;
   return async (values, context, options: ResolverOptions<FieldValues>) => {
     const result = await base(values, context, { ...options, criteriaMode: 'all' });
@@ -39,15 +40,14 @@ export function createModelResolver(onResult?: (model: StochosModel | null) => v
     if (!failed) {
       const checked = validateModel(result.values);
       if (checked.ok) {
-        onResult?.(checked.model);
+        onResult?.(checked.model, {});
         return { values: checked.model as unknown as FieldValues, errors: {} };
       }
       const errors: FieldErrors = {};
       for (const issue of checked.issues) addIssue(errors, issue);
-      onResult?.(null);
+      onResult?.(null, errors);
       return { values: {}, errors };
     }
-    onResult?.(null);
     // Whole-model rules on a draft whose structure is still partly wrong; they are written to tolerate that.
     let extra: ModelIssue[] = [];
     try {
@@ -55,9 +55,13 @@ export function createModelResolver(onResult?: (model: StochosModel | null) => v
     } catch {
       extra = [];
     }
-    if (!extra.length) return result;
+    if (!extra.length) {
+      onResult?.(null, result.errors);
+      return result;
+    }
     const errors = structuredCloneErrors(result.errors);
     for (const issue of extra) addIssue(errors, issue);
+    onResult?.(null, errors);
     return { values: {}, errors };
   };
 }

@@ -32,7 +32,8 @@ export function exportModelJson(model: StochosModel): string {
 /** `<title>.stochos.json`, with characters that file systems refuse replaced. */
 export function modelFileName(title: string): string {
   const base = (title ?? '')
-    .replace(/[\u0000-\u001f\u007f/\\:*?"<>|]+/g, '-')
+    // "Shaft: bearing" → "Shaft - bearing", "a/b" → "a-b"
+    .replace(/(\s*)[\u0000-\u001f\u007f/\\:*?"<>|]+(\s*)/g, (_m, before: string, after: string) => (before || after ? ' - ' : '-'))
     .replace(/\s+/g, ' ')
     .replace(/^[\s.-]+|[\s.-]+$/g, '')
     .slice(0, 100)

@@ -42,6 +42,7 @@ describe('export', () => {
   it('names the file after the title, replacing characters file systems refuse', () => {
     expect(modelFileName('Collar gap / housing')).toBe('Collar gap - housing.stochos.json');
     expect(modelFileName('  a:b*c?  ')).toBe('a-b-c.stochos.json');
+    expect(modelFileName('Gearbox shaft: float')).toBe('Gearbox shaft - float.stochos.json');
     expect(modelFileName('')).toBe('model.stochos.json');
     expect(modelFileName('...')).toBe('model.stochos.json');
   });
