@@ -15,35 +15,50 @@
  * Here the matrix holds rank (Spearman) correlations; under the copula it holds the
  * correlations of the normal scores (the Pearson correlation for normal inputs).
  */
-import type { Marginal } from './distributions';
+import { fillInverse, type Marginal } from './distributions';
 import { checkCorrelation, inverseSqrt, nearestCorrelation, symmetricSqrt } from './linalg';
 import { Stream } from './rng';
 import type { SamplerContext, SamplingMethod, ScoreSource } from './samplers';
 import { scoreSourceFor } from './samplers';
-import { argsort, averageRanks, sortedCopy } from './sort';
+import { argsort, sortedCopy } from './sort';
 import { normalCdfPair, normalCdfPairUpper, normalQuantilePQ } from './special';
-import { pearson } from './stats';
-import { asin, sin } from './det-math';
+import { correlationMatrix, pearson, RankCache } from './stats';
+import { asin, exp, sin } from './det-math';
 
 const BLOCK = 4096;
 
+interface CopulaRow {
+  /** Constant term and the nonzero coefficients of the member's score in the z_j. */
+  a: number;
+  js: Int32Array;
+  cs: Float64Array;
+  mode: 'normal' | 'lognormal' | 'inverse';
+  marginal: Marginal;
+}
+
 export class CopulaGroupSampler {
-  private readonly S: Float64Array;
-  private readonly k: number;
+  private readonly rows: CopulaRow[];
   private readonly scores: ScoreSource[];
   private readonly z: Float64Array[];
+  private readonly acc = new Float64Array(BLOCK);
+  private readonly q = new Float64Array(BLOCK);
 
-  constructor(
-    private readonly marginals: Marginal[],
-    matrix: number[][],
-    ctx: SamplerContext,
-    streamIds: string[],
-  ) {
-    const k = marginals.length;
-    this.k = k;
+  constructor(marginals: Marginal[], matrix: number[][], ctx: SamplerContext, streamIds: string[]) {
     const root = symmetricSqrt(matrix);
-    this.S = new Float64Array(k * k);
-    for (let i = 0; i < k; i++) for (let j = 0; j < k; j++) this.S[i * k + j] = root[i][j];
+    // A normal member's value is mu + sigma (S z), so sigma folds into its row of S.
+    this.rows = marginals.map((m, i) => {
+      const aff = m.affine;
+      const scale = aff ? aff.b : 1;
+      const js: number[] = [];
+      const cs: number[] = [];
+      root[i].forEach((v, j) => {
+        if (v !== 0) {
+          js.push(j);
+          cs.push(scale * v);
+        }
+      });
+      return { a: aff ? aff.a : 0, js: Int32Array.from(js), cs: Float64Array.from(cs), mode: aff ? (aff.log ? 'lognormal' : 'normal') : 'inverse', marginal: m };
+    });
     this.scores = streamIds.map((id) => scoreSourceFor(ctx, id));
     this.z = marginals.map(() => new Float64Array(BLOCK));
   }
@@ -54,34 +69,47 @@ export class CopulaGroupSampler {
 
   /** Fill each member's column over [start, start + count). */
   fill(columns: Float64Array[], start: number, count: number): void {
-    const k = this.k;
-    const S = this.S;
+    const acc = this.acc;
+    const qb = this.q;
+    const Z = this.z;
     for (let s = 0; s < count; s += BLOCK) {
       const c = Math.min(BLOCK, count - s);
-      for (let j = 0; j < k; j++) this.scores[j].fill(this.z[j], 0, c);
-      for (let i = 0; i < k; i++) {
-        const out = columns[i];
-        const base = start + s;
-        // Correlated score: sum_j S[i][j] z_j, summed in a fixed order.
-        const z0 = this.z[0];
-        const s0 = S[i * k];
-        for (let t = 0; t < c; t++) out[base + t] = s0 * z0[t];
-        for (let j = 1; j < k; j++) {
-          const sij = S[i * k + j];
-          if (sij === 0) continue;
-          const zj = this.z[j];
-          for (let t = 0; t < c; t++) out[base + t] += sij * zj[t];
+      const base = start + s;
+      for (let j = 0; j < Z.length; j++) this.scores[j].fill(Z[j], 0, c);
+      for (let i = 0; i < this.rows.length; i++) {
+        const row = this.rows[i];
+        const { js, cs } = row;
+        acc.fill(row.a, 0, c);
+        // Sum of coefficient * score, four scores per pass, in a fixed order.
+        let g = 0;
+        for (; g + 3 < js.length; g += 4) {
+          const z0 = Z[js[g]];
+          const z1 = Z[js[g + 1]];
+          const z2 = Z[js[g + 2]];
+          const z3 = Z[js[g + 3]];
+          const c0 = cs[g];
+          const c1 = cs[g + 1];
+          const c2 = cs[g + 2];
+          const c3 = cs[g + 3];
+          for (let t = 0; t < c; t++) acc[t] += c0 * z0[t] + c1 * z1[t] + c2 * z2[t] + c3 * z3[t];
         }
-        const m = this.marginals[i];
-        const fz = m.fromZ;
-        if (fz) {
-          for (let t = 0; t < c; t++) out[base + t] = fz(out[base + t]);
+        for (; g < js.length; g++) {
+          const z0 = Z[js[g]];
+          const c0 = cs[g];
+          for (let t = 0; t < c; t++) acc[t] += c0 * z0[t];
+        }
+        const out = columns[i];
+        if (row.mode === 'normal') {
+          out.set(acc.subarray(0, c), base);
+        } else if (row.mode === 'lognormal') {
+          for (let t = 0; t < c; t++) out[base + t] = exp(acc[t]);
         } else {
           for (let t = 0; t < c; t++) {
-            const p = normalCdfPair(out[base + t]);
-            const q = normalCdfPairUpper();
-            out[base + t] = m.inv(p, q);
+            acc[t] = normalCdfPair(acc[t]);
+            qb[t] = normalCdfPairUpper();
           }
+          fillInverse(row.marginal, acc, qb, acc, 0, c);
+          out.set(acc.subarray(0, c), base);
         }
       }
     }
@@ -157,25 +185,15 @@ export function achievedCorrelation(
   target: number[][],
   method: 'copula' | 'iman-conover',
   maxTrials: number,
+  cache: RankCache = new RankCache(),
 ): AchievedCorrelation {
   const n = Math.min(columns[0]?.length ?? 0, maxTrials);
   const cols = columns.map((c) => c.subarray(0, n));
-  const ranks = cols.map((c) => averageRanks(c));
-  const k = cols.length;
-  const pm: number[][] = cols.map((_, i) => cols.map((__, j) => (i === j ? 1 : 0)));
-  const sm: number[][] = cols.map((_, i) => cols.map((__, j) => (i === j ? 1 : 0)));
-  for (let i = 0; i < k; i++)
-    for (let j = i + 1; j < k; j++) {
-      const p = pearson(cols[i], cols[j]);
-      const s = pearson(ranks[i], ranks[j]);
-      pm[i][j] = pm[j][i] = Number.isFinite(p) ? p : 0;
-      sm[i][j] = sm[j][i] = Number.isFinite(s) ? s : 0;
-    }
   return {
     ids,
     target,
-    pearson: pm,
-    spearman: sm,
+    pearson: correlationMatrix(cols),
+    spearman: correlationMatrix(columns.map((c) => cache.ranks(c, n))),
     expectedSpearman: method === 'copula' ? target.map((row) => row.map((r) => (6 / Math.PI) * asin(r / 2))) : target.map((row) => row.slice()),
     trials: n,
   };

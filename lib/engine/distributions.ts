@@ -53,6 +53,8 @@ export interface Marginal {
   cdf(x: number): number;
   /** Normal and lognormal without truncation map a standard normal score directly. */
   fromZ: ((z: number) => number) | null;
+  /** The same map as coefficients: x = a + b z (normal) or exp(a + b z) (lognormal). */
+  affine?: { a: number; b: number; log: boolean };
 }
 
 // ---------------------------------------------------------------------------------------
@@ -315,6 +317,7 @@ function normal(mu: number, sd: number, lo: number | undefined, hi: number | und
       inv: (p, q) => mu + sd * normalQuantilePQ(p, q),
       cdf: (x) => normalCdfPair((x - mu) / sd),
       fromZ: (z) => mu + sd * z,
+      affine: { a: mu, b: sd, log: false },
     };
   }
   const alpha = lo === undefined ? -Infinity : (lo - mu) / sd;
@@ -359,6 +362,7 @@ function lognormal(mu: number, sigma: number, lo: number | undefined, hi: number
       inv: (p, q) => exp(mu + sigma * normalQuantilePQ(p, q)),
       cdf: (x) => (x <= 0 ? 0 : normalCdfPair((ln(x) - mu) / sigma)),
       fromZ: (z) => exp(mu + sigma * z),
+      affine: { a: mu, b: sigma, log: true },
     };
   }
   const alpha = loLog === undefined ? -Infinity : (loLog - mu) / sigma;
@@ -614,6 +618,90 @@ function drawn(points: { x: number; y: number }[], spec: DistributionSpec): Marg
     },
     fromZ: null,
   };
+}
+
+/**
+ * out[k] = inverse CDF at p[k] (complement q[k], or 1 - p[k] when q is null) for k in
+ * [start, start + count); out may be p. One loop per law, so each loop's call site only
+ * ever sees that law's inverse and the engine can inline it.
+ */
+export function fillInverse(m: Marginal, p: Float64Array, q: Float64Array | null, out: Float64Array, start: number, count: number): void {
+  const inv = m.inv;
+  const end = start + count;
+  switch (m.spec.type) {
+    case 'constant':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+    case 'uniform':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+    case 'triangular':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+    case 'pert':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+    case 'normal':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+    case 'lognormal':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+    case 'exponential':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+    case 'weibull':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+    case 'discrete':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+    case 'bernoulli':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+    case 'empirical':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+    case 'drawn':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
+  }
 }
 
 /** Build the marginal for a (validated) distribution spec. */

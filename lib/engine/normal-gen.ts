@@ -121,14 +121,32 @@ export class ZigguratGenerator implements NormalGenerator {
   fill(out: Float64Array, start: number, count: number): void {
     const s = this.stream;
     const end = start + count;
+    let buf = s.buf;
+    let pos = s.pos;
+    const len = buf.length;
     for (let k = start; k < end; k++) {
-      const u = s.nextInt32();
+      if (pos === len) {
+        s.pos = pos;
+        s.refill();
+        buf = s.buf;
+        pos = s.pos;
+      }
+      const u = buf[pos++];
       const i = u & 255;
       const j = u >>> 9;
       const xv = j * ZW[i];
       const x = u & 256 ? -xv : xv;
-      out[k] = j < ZK[i] ? x : this.slow(i, x);
+      if (j < ZK[i]) {
+        out[k] = x;
+      } else {
+        // The slow path draws from the same stream, in order.
+        s.pos = pos;
+        out[k] = this.slow(i, x);
+        buf = s.buf;
+        pos = s.pos;
+      }
     }
+    s.pos = pos;
   }
 }
 

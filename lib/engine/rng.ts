@@ -37,9 +37,12 @@ export class Stream {
   private readonly X: Int32Array;
   private i: number;
   private w: number;
-  /** Buffered integers for the bulk helpers. */
-  private readonly buf: Int32Array;
-  private pos: number;
+  /**
+   * Buffered integers. Read directly only by inner loops that keep the order of the draws
+   * (the ziggurat): read buf[pos], advance pos, call refill() when pos reaches buf.length.
+   */
+  readonly buf: Int32Array;
+  pos: number;
 
   constructor(key: string) {
     const st = xor4096(key, { state: true }).state();
@@ -54,8 +57,8 @@ export class Stream {
     return new Stream(streamKey(seed, id, purpose));
   }
 
-  /** Refill the internal buffer: the xor4096 recurrence, exactly as seedrandom's next(). */
-  private refill(): void {
+  /** Refill the buffer: the xor4096 recurrence, exactly as seedrandom's next(). */
+  refill(): void {
     const X = this.X;
     const out = this.buf;
     let i = this.i;

@@ -2,7 +2,7 @@
  * Column samplers: each fills a Float64Array segment with one input's draws from that
  * input's own stream, so the column does not depend on any other input.
  */
-import type { Marginal, RejectionEnvelope } from './distributions';
+import { fillInverse, type Marginal, type RejectionEnvelope } from './distributions';
 import { SamplingError } from './errors';
 import { createNormalGenerator, type NormalGenerator, type NormalMethod } from './normal-gen';
 import { Stream } from './rng';
@@ -153,11 +153,7 @@ class InverseCdfSampler implements ColumnSampler {
   ) {}
   fill(out: Float64Array, start: number, count: number): void {
     this.uniforms.fill(out, start, count);
-    const m = this.marginal;
-    for (let k = start; k < start + count; k++) {
-      const u = out[k];
-      out[k] = m.inv(u, 1 - u);
-    }
+    fillInverse(this.marginal, out, null, out, start, count);
   }
   report(): SamplingReport {
     return { method: this.method };

@@ -16,7 +16,7 @@ import type { NormalMethod } from './normal-gen';
 import { RNG_NAME } from './rng';
 import { createColumnSampler, type ColumnSampler, type Design, type SamplerContext, type SamplingReport } from './samplers';
 import { validateModel, type StochosModel, type Template } from './schema';
-import { fractionAtOrBelow, PERCENTILE_DEFINITION, percentileEstimates, welford, type PercentileEstimate } from './stats';
+import { fractionAtOrBelow, meanVariance, PERCENTILE_DEFINITION, percentileEstimates, RankCache, type PercentileEstimate } from './stats';
 import {
   DEFAULT_ECDF_POINTS,
   DEFAULT_HISTOGRAM_BINS,
@@ -283,6 +283,7 @@ export class Simulation {
     if (model.template === 'cost-range') levels.add(model.confidence);
     const percentiles = [...levels].sort((a, b) => a - b);
     const driverCols = this.plan.drivers.map((d) => ({ id: d.id, label: d.label, column: this.columns.get(d.id) as Float64Array }));
+    const rankCache = new RankCache();
     const sortedById = new Map<string, Float64Array>();
     const outputs = this.plan.outputs.map((o) => {
       const { summary, sorted } = summarizeOutput(o.id, o.label, o.unit, this.columns.get(o.id) as Float64Array, {
@@ -293,6 +294,7 @@ export class Simulation {
         upper: o.upper,
         capability: model.template !== 'cost-range',
         drivers: driverCols,
+        rankCache,
       });
       sortedById.set(o.id, sorted);
       if (summary.invalid.total > 0) this.warnings.push(`Output '${o.label}': ${summary.invalid.total} of ${summary.trials} trials gave NaN or an infinite value and are excluded from its statistics.`);
@@ -304,7 +306,7 @@ export class Simulation {
     const samplerOf = new Map(this.samplers.map((s) => [s.id, s.sampler]));
     const inputs: InputReport[] = this.plan.inputs.map((inp) => {
       const col = this.columns.get(inp.id) as Float64Array;
-      const w = welford(col);
+      const w = meanVariance(col);
       const m = this.marginals.get(inp.id) as Marginal;
       const corr = groupOf.get(inp.id) ?? null;
       const sampler = samplerOf.get(inp.id);
@@ -334,6 +336,7 @@ export class Simulation {
         g.matrix,
         g.method === 'gaussian-copula' ? 'copula' : 'iman-conover',
         RANK_TRIAL_LIMIT,
+        rankCache,
       ),
     );
 

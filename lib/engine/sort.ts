@@ -110,13 +110,13 @@ export function sortedCopy(values: Float64Array): Float64Array {
   return fromKeys(src);
 }
 
-/** Indices that sort values ascending (stable), values without NaN. */
-export function argsort(values: Float64Array): Uint32Array {
+/** Indices that sort values ascending (stable), with the sorted keys; values without NaN. */
+function argsortWithKeys(values: Float64Array): { order: Uint32Array; keys: Uint32Array } {
   const n = values.length;
   let idx: Uint32Array = new Uint32Array(n);
   for (let k = 0; k < n; k++) idx[k] = k;
-  if (n < 2) return idx;
   let src: Uint32Array = toKeys(values);
+  if (n < 2) return { order: idx, keys: src };
   let dst: Uint32Array = new Uint32Array(2 * n);
   let idx2: Uint32Array = new Uint32Array(n);
   const counts = histograms(src, n);
@@ -138,19 +138,26 @@ export function argsort(values: Float64Array): Uint32Array {
     idx = idx2;
     idx2 = ti;
   }
-  return idx;
+  return { order: idx, keys: src };
+}
+
+/** Indices that sort values ascending (stable), values without NaN. */
+export function argsort(values: Float64Array): Uint32Array {
+  return argsortWithKeys(values).order;
 }
 
 /** Ranks 1..n with ties given their average rank. */
 export function averageRanks(values: Float64Array): Float64Array {
   const n = values.length;
-  const order = argsort(values);
+  const { order, keys } = argsortWithKeys(values);
   const ranks = new Float64Array(n);
   let i = 0;
   while (i < n) {
+    // Equal keys are equal values (the sorted keys are read in order, no random access).
+    const lo = keys[2 * i];
+    const hi = keys[2 * i + 1];
     let j = i + 1;
-    const v = values[order[i]];
-    while (j < n && values[order[j]] === v) j++;
+    while (j < n && keys[2 * j] === lo && keys[2 * j + 1] === hi) j++;
     const r = (i + 1 + j) / 2;
     for (let k = i; k < j; k++) ranks[order[k]] = r;
     i = j;

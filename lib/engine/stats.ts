@@ -41,6 +41,23 @@ export function welford(values: Float64Array): { n: number; mean: number; varian
   return { n, mean: n > 0 ? mean : NaN, variance: n > 1 ? m2 / (n - 1) : NaN };
 }
 
+/** Mean and n - 1 variance by two passes (summaries of input columns; no division per element). */
+export function meanVariance(values: Float64Array): { n: number; mean: number; variance: number } {
+  const n = values.length;
+  let s = 0;
+  for (let k = 0; k < n; k++) s += values[k];
+  const mean = s / n;
+  let ss = 0;
+  let comp = 0;
+  for (let k = 0; k < n; k++) {
+    const d = values[k] - mean;
+    ss += d * d;
+    comp += d;
+  }
+  // Corrected two-pass formula (Chan, Golub & LeVeque 1983): removes the rounding left in the mean.
+  return { n, mean: n > 0 ? mean : NaN, variance: n > 1 ? (ss - (comp * comp) / n) / (n - 1) : NaN };
+}
+
 /** Hyndman-Fan type 6 percentile of ascending data, p in [0, 1]. */
 export function percentileSorted(sorted: Float64Array | number[], p: number): number {
   const n = sorted.length;
@@ -227,6 +244,46 @@ export function pearson(a: Float64Array, b: Float64Array): number {
     sbb += db * db;
   }
   return saa > 0 && sbb > 0 ? sab / Math.sqrt(saa * sbb) : NaN;
+}
+
+/** Pearson correlation matrix of several columns (each standardised once). */
+export function correlationMatrix(cols: Float64Array[]): number[][] {
+  const k = cols.length;
+  const std = cols.map((x) => {
+    const n = x.length;
+    let m = 0;
+    for (let t = 0; t < n; t++) m += x[t];
+    m /= n;
+    let ss = 0;
+    for (let t = 0; t < n; t++) ss += (x[t] - m) * (x[t] - m);
+    if (!(ss > 0)) return null;
+    const inv = 1 / Math.sqrt(ss);
+    const z = new Float64Array(n);
+    for (let t = 0; t < n; t++) z[t] = (x[t] - m) * inv;
+    return z;
+  });
+  const out: number[][] = cols.map((_, i) => cols.map((__, j) => (i === j ? 1 : 0)));
+  for (let i = 0; i < k; i++)
+    for (let j = i + 1; j < k; j++) {
+      const a = std[i];
+      const b = std[j];
+      let d = 0;
+      if (a && b) for (let t = 0; t < a.length; t++) d += a[t] * b[t];
+      out[i][j] = out[j][i] = a && b ? Math.max(-1, Math.min(1, d)) : 0;
+    }
+  return out;
+}
+
+/** Average ranks of leading segments of columns, computed once per (column, length). */
+export class RankCache {
+  private readonly map = new Map<Float64Array, Map<number, Float64Array>>();
+  ranks(col: Float64Array, n: number): Float64Array {
+    let byN = this.map.get(col);
+    if (!byN) this.map.set(col, (byN = new Map()));
+    let r = byN.get(n);
+    if (!r) byN.set(n, (r = averageRanks(n === col.length ? col : col.subarray(0, n))));
+    return r;
+  }
 }
 
 /** Spearman rank correlation (Pearson correlation of average ranks). */

@@ -4,6 +4,7 @@
  */
 import { averageRanks, sortedCopy } from './sort';
 import {
+  RankCache,
   capability,
   ecdfPoints,
   histogram,
@@ -109,6 +110,8 @@ export interface SummaryOptions {
   /** Report Pp/Ppk (tolerances) or not (costs). */
   capability: boolean;
   drivers: { id: string; label: string; column: Float64Array }[];
+  /** Shared ranks (drivers and achieved correlations rank the same columns). */
+  rankCache?: RankCache;
 }
 
 function prob(count: number, n: number): ProbabilityEstimate {
@@ -180,7 +183,7 @@ export function summarizeOutput(id: string, label: string, unit: string, column:
     };
   }
 
-  const drivers = computeDrivers(column, opts.drivers);
+  const drivers = computeDrivers(column, opts.drivers, opts.rankCache);
 
   // Convergence verdict.
   const reasons: string[] = [];
@@ -258,7 +261,7 @@ export function summarizeOutput(id: string, label: string, unit: string, column:
  * Drivers: Spearman rank correlation of each driver column with the output over the first
  * RANK_TRIAL_LIMIT trials with a finite output; share of variance = rho^2 / sum rho^2.
  */
-export function computeDrivers(output: Float64Array, drivers: { id: string; label: string; column: Float64Array }[]): DriverReport {
+export function computeDrivers(output: Float64Array, drivers: { id: string; label: string; column: Float64Array }[], cache: RankCache = new RankCache()): DriverReport {
   const limit = Math.min(output.length, RANK_TRIAL_LIMIT);
   const keep: number[] = [];
   for (let k = 0; k < limit; k++) {
@@ -267,15 +270,16 @@ export function computeDrivers(output: Float64Array, drivers: { id: string; labe
   }
   const m = keep.length;
   if (m < 3 || drivers.length === 0) return { method: 'spearman', trials: m, items: drivers.map((d) => ({ id: d.id, label: d.label, spearman: 0, share: 0 })) };
-  const pick = (col: Float64Array) => {
-    if (m === limit) return col.length === limit ? col : col.subarray(0, limit);
+  // Every trial in the window is valid: rank the leading segment (shared with other reports).
+  const ranksOf = (col: Float64Array) => {
+    if (m === limit) return cache.ranks(col, limit);
     const out = new Float64Array(m);
     for (let i = 0; i < m; i++) out[i] = col[keep[i]];
-    return out;
+    return averageRanks(out);
   };
-  const yr = averageRanks(pick(output));
+  const yr = ranksOf(output);
   const rhos = drivers.map((d) => {
-    const r = pearson(averageRanks(pick(d.column)), yr);
+    const r = pearson(ranksOf(d.column), yr);
     return Number.isFinite(r) ? r : 0;
   });
   const total = rhos.reduce((s, r) => s + r * r, 0);

@@ -1,0 +1,187 @@
+/**
+ * Engine benchmark: `npm run bench` (add `-- --json` for one JSON object on the last line).
+ * Every figure is the median of 5 timed runs after a warm-up run, in this Node process.
+ *
+ *  - draws per second for each distribution and sampling method;
+ *  - R1: 10 correlated normals (mu_i = 10 i, sigma_i = 1 + i/10, rho^|i-j| with rho = 0.6),
+ *    output = sum, 1,000,000 trials, plain Monte Carlo, through the real model path;
+ *  - R2: cost range, 40 beta-PERT items (90, 100, 130), items 1-20 pairwise 0.3 through the
+ *    copula, 10 risk events (p 0.1, impact triangular 5, 10, 30), 200,000 trials;
+ *  - R3: 20-contributor linear stack, 50,000 trials, one dial moved.
+ */
+import { createMarginal, type DistributionSpec } from '@/lib/engine/distributions';
+import { createColumnSampler, type SamplerContext } from '@/lib/engine/samplers';
+import { runModelSync, Simulation } from '@/lib/engine/simulate';
+import { sortedCopy } from '@/lib/engine/sort';
+import { percentileSorted } from '@/lib/engine/stats';
+
+const json = process.argv.includes('--json');
+const REPEATS = 5;
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+/** Warm up once, then time REPEATS runs; returns the median in ms and the last value. */
+function time<T>(fn: () => T): { ms: number; value: T } {
+  let value = fn();
+  const times: number[] = [];
+  for (let i = 0; i < REPEATS; i++) {
+    const t0 = performance.now();
+    value = fn();
+    times.push(performance.now() - t0);
+  }
+  return { ms: median(times), value };
+}
+
+// ---- Draws per second --------------------------------------------------------------------
+const DRAWS = 1_000_000;
+const distCases: [string, DistributionSpec, Partial<SamplerContext>][] = [
+  ['uniform (inverse CDF)', { type: 'uniform', min: 0, max: 1 }, {}],
+  ['triangular (inverse CDF)', { type: 'triangular', min: 0, mode: 3, max: 10 }, {}],
+  ['normal (Box-Muller)', { type: 'normal', mean: 0, sd: 1 }, {}],
+  ['normal (ziggurat)', { type: 'normal', mean: 0, sd: 1 }, { normalMethod: 'ziggurat' }],
+  ['normal (inverse CDF, Latin hypercube)', { type: 'normal', mean: 0, sd: 1 }, { design: 'latin-hypercube' }],
+  ['truncated normal (inverse CDF)', { type: 'normal', mean: 0, sd: 1, min: -1, max: 2 }, {}],
+  ['lognormal (Box-Muller)', { type: 'lognormal', mu: 0, sigma: 0.5 }, {}],
+  ['truncated lognormal (inverse CDF)', { type: 'lognormal', mu: 0, sigma: 0.5, max: 3 }, {}],
+  ['exponential (inverse CDF)', { type: 'exponential', rate: 2 }, {}],
+  ['Weibull (inverse CDF)', { type: 'weibull', shape: 2, scale: 1 }, {}],
+  ['beta-PERT (rejection)', { type: 'pert', min: 90, mode: 100, max: 130 }, {}],
+  ['beta-PERT (tabulated inverse CDF, Latin hypercube)', { type: 'pert', min: 90, mode: 100, max: 130 }, { design: 'latin-hypercube' }],
+  ['discrete, 5 values (inverse CDF)', { type: 'discrete', values: [1, 2, 3, 4, 5], probabilities: [0.1, 0.2, 0.4, 0.2, 0.1] }, {}],
+  ['Bernoulli (inverse CDF)', { type: 'bernoulli', p: 0.1 }, {}],
+  ['empirical, 200 points (inverse ECDF)', { type: 'empirical', data: Array.from({ length: 200 }, (_, i) => Math.sqrt(i)) }, {}],
+  ['drawn density, 4 points (rejection)', { type: 'drawn', points: [{ x: 0, y: 0 }, { x: 1, y: 2 }, { x: 3, y: 1 }, { x: 4, y: 0 }] }, {}],
+];
+
+const draws: { distribution: string; drawsPerSecond: number }[] = [];
+for (const [name, spec, ctx] of distCases) {
+  const out = new Float64Array(DRAWS);
+  const full: SamplerContext = { seed: 'bench', design: 'monte-carlo', normalMethod: 'box-muller', trials: DRAWS, ...ctx };
+  const m = createMarginal(spec);
+  const { ms } = time(() => createColumnSampler(m, full, 'x').fill(out, 0, DRAWS));
+  draws.push({ distribution: name, drawsPerSecond: DRAWS / (ms / 1000) });
+}
+
+// ---- R1 -----------------------------------------------------------------------------------
+function r1Model(normalMethod: 'box-muller' | 'ziggurat') {
+  const k = 10;
+  const ids = Array.from({ length: k }, (_, i) => `x${i + 1}`);
+  return {
+    schema: 'stochos.model/1',
+    template: 'formula',
+    title: 'R1: ten correlated normals',
+    settings: { trials: 1_000_000, seed: 'r1', design: 'monte-carlo', normalMethod },
+    inputs: ids.map((id, i) => ({ id, name: id, distribution: { type: 'normal', mean: 10 * (i + 1), sd: 1 + (i + 1) / 10 } })),
+    correlation: { inputs: ids, matrix: ids.map((_, i) => ids.map((__, j) => 0.6 ** Math.abs(i - j))) },
+    outputs: [{ id: 'total', name: 'Sum', formula: `sum(${ids.join(', ')})` }],
+  };
+}
+
+interface R1Figures {
+  ms: number;
+  mean: number;
+  p5: number;
+  p50: number;
+  p95: number;
+}
+
+/** Sampling + formula + mean and the three percentiles (one sort): what NumPy's version does. */
+function r1Core(model: object): R1Figures {
+  const r = time(() => {
+    const sim = new Simulation(model);
+    sim.step(sim.total);
+    const y = sim.column('total') as Float64Array;
+    let s = 0;
+    for (let i = 0; i < y.length; i++) s += y[i];
+    const sorted = sortedCopy(y);
+    return { mean: s / y.length, p5: percentileSorted(sorted, 0.05), p50: percentileSorted(sorted, 0.5), p95: percentileSorted(sorted, 0.95) };
+  });
+  return { ms: r.ms, ...r.value };
+}
+
+/** The full report (all statistics: histogram, ECDF, intervals, drivers, achieved correlations...). */
+function r1Full(model: object): R1Figures {
+  const r = time(() => runModelSync(model));
+  const o = r.value.outputs[0];
+  const pct = (p: number) => o.percentiles.find((x) => x.p === p)!.value;
+  return { ms: r.ms, mean: o.mean as number, p5: pct(0.05), p50: pct(0.5), p95: pct(0.95) };
+}
+
+const r1 = {
+  coreZiggurat: r1Core(r1Model('ziggurat')),
+  coreBoxMuller: r1Core(r1Model('box-muller')),
+  fullZiggurat: r1Full(r1Model('ziggurat')),
+  fullBoxMuller: r1Full(r1Model('box-muller')),
+  // Closed form: mean sum 10 i = 550; sd from the covariance (computed here for the table).
+  expectedMean: 550,
+  expectedSd: (() => {
+    let v = 0;
+    for (let i = 1; i <= 10; i++) for (let j = 1; j <= 10; j++) v += 0.6 ** Math.abs(i - j) * (1 + i / 10) * (1 + j / 10);
+    return Math.sqrt(v);
+  })(),
+};
+
+// ---- R2 -----------------------------------------------------------------------------------
+const r2Model = {
+  schema: 'stochos.model/1',
+  template: 'cost-range',
+  title: 'R2: 40 PERT items, 10 risks',
+  currency: 'k',
+  settings: { trials: 200_000, seed: 'r2' },
+  items: Array.from({ length: 40 }, (_, i) => ({ id: `item${i + 1}`, name: `Item ${i + 1}`, low: 90, mostLikely: 100, high: 130, distribution: 'pert' })),
+  correlationGroups: [{ id: 'g', items: Array.from({ length: 20 }, (_, i) => `item${i + 1}`), rho: 0.3 }],
+  riskEvents: Array.from({ length: 10 }, (_, i) => ({ id: `risk${i + 1}`, name: `Risk ${i + 1}`, probability: 0.1, impact: { low: 5, mostLikely: 10, high: 30, distribution: 'triangular' } })),
+  confidence: 0.8,
+};
+const r2run = time(() => runModelSync(r2Model));
+const r2 = { ms: r2run.ms, p50: r2run.value.cost!.p50, p80: r2run.value.cost!.p80, p90: r2run.value.cost!.p90 };
+
+// ---- R3 -----------------------------------------------------------------------------------
+const kinds = [{ type: 'normal', k: 3 }, { type: 'uniform' }, { type: 'triangular' }, { type: 'normal', k: 4 }];
+const r3Model = {
+  schema: 'stochos.model/1',
+  template: 'linear-stack',
+  title: 'R3: 20-contributor stack',
+  unit: 'mm',
+  settings: { trials: 50_000, seed: 'r3' },
+  contributors: Array.from({ length: 20 }, (_, i) => ({
+    id: `c${i + 1}`,
+    name: `Part ${i + 1}`,
+    nominal: i === 0 ? 100.5 : 5,
+    plusTol: 0.02 + 0.002 * i,
+    minusTol: 0.02 + 0.002 * i,
+    direction: i === 0 ? 1 : -1,
+    distribution: kinds[i % kinds.length],
+  })),
+  limits: { lower: 0.2, upper: 0.8 },
+  dials: [{ id: 'part2', label: 'Part 2 nominal', unit: 'mm', min: 4.9, max: 5.1, step: 0.01, default: 5, target: { kind: 'input-param', inputId: 'c2', param: 'nominal' } }],
+};
+let dial = 4.9;
+const r3run = time(() => runModelSync(r3Model, { dialValues: { part2: (dial = dial >= 5.1 ? 4.9 : +(dial + 0.01).toFixed(2)) } }));
+const r3 = { ms: r3run.ms, trials: 50_000, ppmObserved: r3run.value.outputs[0].limits!.ppmObserved };
+
+// ---- Output ---------------------------------------------------------------------------------
+const fmt = (x: number, d = 1) => x.toFixed(d).padStart(9);
+if (!json || process.argv.includes('--table')) {
+  console.log(`Stochos engine benchmark (Node ${process.version}, median of ${REPEATS} after a warm-up)\n`);
+  console.log('Draws per second'.padEnd(56) + 'M draws/s');
+  for (const d of draws) console.log(d.distribution.padEnd(56) + fmt(d.drawsPerSecond / 1e6));
+  console.log('\nR1: 10 correlated normals, sum, 1,000,000 trials'.padEnd(57) + '      ms     mean       P5      P50      P95');
+  const row = (name: string, f: R1Figures) => console.log(name.padEnd(56) + fmt(f.ms, 0) + fmt(f.mean, 3) + fmt(f.p5, 3) + fmt(f.p50, 3) + fmt(f.p95, 3));
+  row('  core path, ziggurat', r1.coreZiggurat);
+  row('  core path, Box-Muller', r1.coreBoxMuller);
+  row('  full report, ziggurat', r1.fullZiggurat);
+  row('  full report, Box-Muller', r1.fullBoxMuller);
+  const z = [1.6448536269514722, 0, 1.6448536269514722];
+  console.log(
+    '  closed form'.padEnd(56) + '         ' + fmt(550, 3) + fmt(550 - z[0] * r1.expectedSd, 3) + fmt(550, 3) + fmt(550 + z[2] * r1.expectedSd, 3),
+  );
+  console.log('\nR2: 40 PERT items, 20 correlated, 10 risks, 200,000 trials'.padEnd(57) + '      ms      P50      P80      P90');
+  console.log('  full report'.padEnd(56) + fmt(r2.ms, 0) + fmt(r2.p50, 2) + fmt(r2.p80, 2) + fmt(r2.p90, 2));
+  console.log('\nR3: 20-contributor stack, 50,000 trials, one dial moved'.padEnd(57) + '      ms');
+  console.log('  full report (target under 25 ms)'.padEnd(56) + fmt(r3.ms, 1));
+}
+if (json) console.log(JSON.stringify({ node: process.version, repeats: REPEATS, draws, r1, r2, r3 }));
