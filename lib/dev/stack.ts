@@ -69,7 +69,14 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
     stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });
-  await waitForHttp(`${appUrl}/`, next);
+  try {
+    await waitForHttp(`${appUrl}/`, next);
+  } catch (err) {
+    // Leave nothing behind holding the ports when start-up fails.
+    next.kill('SIGTERM');
+    await Promise.allSettled([smtp.close(), stripe.close()]);
+    throw err;
+  }
   const hostPage = o.hostPagePort ? await startHostPage({ port: o.hostPagePort, appUrl }) : null;
 
   return {
@@ -79,7 +86,10 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     stripeUrl: `http://127.0.0.1:${o.stripePort}`,
     env,
     async stop() {
+      const exited = next.exitCode !== null ? Promise.resolve() : new Promise<void>((r) => next.once('exit', () => r()));
       next.kill('SIGTERM');
+      // Wait (briefly) until the port is free for the next run.
+      await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
       await Promise.allSettled([smtp.close(), stripe.close(), hostPage?.close()]);
     },
     seedMessage,

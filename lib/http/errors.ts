@@ -10,6 +10,7 @@ export type ErrorCode =
   | 'unsupported_media_type'
   | 'validation_failed'
   | 'rate_limited'
+  | 'unavailable'
   | 'internal';
 
 const STATUS: Record<ErrorCode, number> = {
@@ -23,6 +24,7 @@ const STATUS: Record<ErrorCode, number> = {
   validation_failed: 422,
   rate_limited: 429,
   internal: 500,
+  unavailable: 503,
 };
 
 export type FieldErrors = Record<string, string[]>;

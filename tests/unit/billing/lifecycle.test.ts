@@ -8,7 +8,7 @@ import path from 'node:path';
 import fs from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import { randomUUID } from 'node:crypto';
-import { freshMigratedDb } from './fresh-db';
+import { useFreshDb } from '../../support/test-db';
 import { closeDb, getDb, writeTransaction } from '@/db/knex';
 import { resetEnvCache } from '@/lib/env';
 import { resetMailTransport } from '@/lib/mail/send';
@@ -62,7 +62,7 @@ async function waitForMail(email: string, subject: RegExp, count = 1): Promise<s
 }
 
 beforeAll(async () => {
-  await freshMigratedDb();
+  await useFreshDb();
   const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'stochos-billing-life-'));
   smtp = await startFakeSmtp({ smtpPort: 0, httpPort: 0, dir: path.join(tmp, 'mail'), log: false });
   receiver = http.createServer((req, res) => {

@@ -3,7 +3,7 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import type Stripe from 'stripe';
 import { randomUUID } from 'node:crypto';
-import { freshMigratedDb } from './fresh-db';
+import { useFreshDb } from '../../support/test-db';
 import { closeDb, getDb, writeTransaction } from '@/db/knex';
 import { insertFirmWithOwner, insertUser } from '@/db/users';
 import { insertMembership } from '@/db/team';
@@ -52,7 +52,7 @@ async function addSeats(firmId: string, n: number): Promise<void> {
 const count = async (table: string, where: Record<string, unknown> = {}) => Number(((await getDb()(table).where(where).count({ n: '*' }).first()) as { n: number }).n);
 
 beforeAll(async () => {
-  await freshMigratedDb();
+  await useFreshDb();
 });
 afterAll(async () => {
   await closeDb();
