@@ -3,6 +3,7 @@ import { requirePageMember } from '@/lib/auth/guard';
 import { can } from '@/lib/auth/permissions';
 import { PageHeader } from '@/components/ui/page-header';
 import { SettingsForm } from '@/components/settings/settings-form';
+import { ApiKeysPanel } from '@/components/api-keys/api-keys-panel';
 
 export const metadata: Metadata = { title: 'Settings' };
 
@@ -12,6 +13,11 @@ export default async function SettingsPage() {
     <>
       <PageHeader title="Settings" description="Your firm’s name, defaults for new models, branding of widgets and snapshots, and the publishing rule." />
       <SettingsForm canEdit={can(member.role, 'settings.manage')} />
+      {can(member.role, 'apikeys.manage') && (
+        <div className="mt-8">
+          <ApiKeysPanel />
+        </div>
+      )}
     </>
   );
 }
