@@ -18,6 +18,8 @@ export interface SpreadChartProps {
   markers?: readonly ValueMarker[];
   /** Exact shares printed in the hatched regions, e.g. { lower: '0.006 % below' }. */
   outLabels?: { lower?: string | null; upper?: string | null };
+  /** Exact shares below / above the limits, for the text alternative. */
+  outShare?: { below: number; above: number };
   title?: ReactNode;
   /** Text alternative; defaults to one generated from the bins. */
   description?: string;
@@ -38,9 +40,9 @@ function beyond(b: HistogramBin, limits: SpecLimits | undefined): string {
 }
 
 /** Histogram of an output with its limits; the parts beyond a limit are hatched. */
-export function SpreadChart({ name, unit, bins, total, limits, markers, outLabels, title, description, caption, headingLevel, className, downloads }: SpreadChartProps) {
+export function SpreadChart({ name, unit, bins, total, limits, markers, outLabels, outShare, title, description, caption, headingLevel, className, downloads }: SpreadChartProps) {
   const [ref, width] = useElementWidth();
-  const geometry = useMemo(() => spreadGeometry({ bins, name, unit, limits, markers, total, width, outLabels }), [bins, name, unit, limits, markers, total, width, outLabels]);
+  const geometry = useMemo(() => spreadGeometry({ bins, name, unit, limits, markers, total, width, outLabels, outShare }), [bins, name, unit, limits, markers, total, width, outLabels, outShare]);
   const scene = useMemo(() => spreadScene(geometry, { title: `Spread of ${name}`, description }), [geometry, name, description]);
   const rows = useMemo(
     () =>

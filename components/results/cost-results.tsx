@@ -9,7 +9,7 @@ import { DriversChart } from '@/components/charts/drivers-chart';
 import { SpreadChart } from '@/components/charts/spread-chart';
 import { GLOSSARY, Term, type GlossaryTerm } from '@/components/ui/term';
 import { Figure, Figures } from './figures';
-import { fa, fv, ScatterPanel } from './shared';
+import { fa, fv, ScatterPanel, outShareOf } from './shared';
 
 function pTerm(p: number) {
   const name = percentileName(p);
@@ -47,6 +47,7 @@ export function CostResults({ result }: { result: RunResult }) {
   const limits = useMemo(() => (budget !== null ? { upper: budget, upperLabel: 'Budget' } : undefined), [budget]);
   const spreadMarkers = useMemo<ValueMarker[]>(() => [{ value: c.atConfidence.value, label: `${conf} ${fv(c.atConfidence.value, unit)}`, kind: 'percentile' }], [c.atConfidence.value, conf, unit]);
   const outLabels = useMemo(() => (c.exceedBudget ? { upper: `${formatPercent(c.exceedBudget.p)} over budget` } : undefined), [c.exceedBudget]);
+  const outShare = useMemo(() => outShareOf(total), [total]);
   const drivers = useMemo(() => total.drivers.items.map((d) => ({ id: d.id, label: d.label, share: d.share, correlation: d.spearman })), [total.drivers.items]);
   const candidates = useMemo(() => total.drivers.items.map((d) => ({ id: d.id, label: d.label, unit })), [total.drivers.items, unit]);
 
@@ -108,7 +109,7 @@ export function CostResults({ result }: { result: RunResult }) {
           limitRanks
         />
         <DriversChart name={total.label} drivers={drivers} title="Drivers of the total" caption={`Line items and risks ranked by their share of the variance of the total (squared rank correlations, normalised). An up arrow means a higher value raises the total.`} />
-        <SpreadChart name={total.label} unit={unit} bins={total.histogram} total={total.valid} limits={limits} markers={spreadMarkers} outLabels={outLabels} />
+        <SpreadChart name={total.label} unit={unit} bins={total.histogram} total={total.valid} limits={limits} markers={spreadMarkers} outLabels={outLabels} outShare={outShare} />
         <div className="xl:col-span-2">
           <ScatterPanel result={result} output={total} candidates={candidates} />
         </div>

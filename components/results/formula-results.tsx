@@ -9,7 +9,7 @@ import { SpreadChart } from '@/components/charts/spread-chart';
 import { Tabs } from '@/components/ui/tabs';
 import { Term } from '@/components/ui/term';
 import { Figure, Figures } from './figures';
-import { fv, limitsOf, outLabelsOf, outputFormat, ScatterPanel } from './shared';
+import { fv, limitsOf, outLabelsOf, outputFormat, ScatterPanel, outShareOf } from './shared';
 
 function OutputResults({ result, output }: { result: RunResult; output: OutputSummary }) {
   const unit = output.unit;
@@ -19,6 +19,7 @@ function OutputResults({ result, output }: { result: RunResult; output: OutputSu
   const pv = (p: number) => output.percentiles.find((x) => Math.abs(x.p - p) < 1e-9)?.value ?? null;
   const percentiles = useMemo(() => output.percentiles.filter((p) => [0.1, 0.5, 0.9].includes(p.p)).map((p) => ({ p: p.p, value: p.value })), [output.percentiles]);
   const allPercentiles = useMemo(() => output.percentiles.map((p) => ({ p: p.p, value: p.value })), [output.percentiles]);
+  const outShare = useMemo(() => outShareOf(output), [output]);
   const drivers = useMemo(() => output.drivers.items.map((d) => ({ id: d.id, label: d.label, share: d.share, correlation: d.spearman })), [output.drivers.items]);
   const markers = useMemo(() => (output.mean !== null ? [{ value: output.mean, label: `Mean ${f(output.mean)}`, kind: 'mean' as const }] : []), [output.mean, f]);
   const outLabels = useMemo(() => outLabelsOf(output, 'percent'), [output]);
@@ -73,7 +74,7 @@ function OutputResults({ result, output }: { result: RunResult; output: OutputSu
         )}
       </Figures>
       <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
-        <SpreadChart className="xl:col-span-2" name={output.label} unit={unit} bins={output.histogram} total={output.valid} limits={limits} markers={markers} outLabels={outLabels} />
+        <SpreadChart className="xl:col-span-2" name={output.label} unit={unit} bins={output.histogram} total={output.valid} limits={limits} markers={markers} outLabels={outLabels} outShare={outShare} />
         <CumulativeChart name={output.label} unit={unit} ecdf={output.ecdf} percentiles={percentiles} tablePercentiles={allPercentiles} limits={limits} />
         <DriversChart name={output.label} drivers={drivers} />
         <div className="xl:col-span-2">

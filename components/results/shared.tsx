@@ -33,6 +33,12 @@ export function outLabelsOf(o: OutputSummary, style: 'ppm' | 'percent', words?: 
   };
 }
 
+/** Exact shares beyond the limits, from the engine's counts. */
+export function outShareOf(o: OutputSummary): { below: number; above: number } | undefined {
+  const l = o.limits;
+  return l ? { below: l.below?.p ?? 0, above: l.above?.p ?? 0 } : undefined;
+}
+
 /** Convergence verdict, invalid trials and engine notes for each output. */
 export function Convergence({ outputs, warnings }: { outputs: readonly OutputSummary[]; warnings: readonly string[] }) {
   return (

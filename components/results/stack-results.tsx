@@ -10,7 +10,7 @@ import { RangesChart } from '@/components/charts/ranges-chart';
 import { SpreadChart } from '@/components/charts/spread-chart';
 import { Term } from '@/components/ui/term';
 import { Figure, Figures, StatusMark } from './figures';
-import { fv, limitsOf, outLabelsOf, outputFormat, ScatterPanel } from './shared';
+import { fv, limitsOf, outLabelsOf, outputFormat, ScatterPanel, outShareOf } from './shared';
 
 const PPK_MIN = 1.33; // common practice, no source: the usual minimum for an established process
 
@@ -50,6 +50,7 @@ export function StackResults({ result }: { result: RunResult }) {
     return r;
   }, [a, mcLo, mcHi, mc.mean]);
 
+  const outShare = useMemo(() => outShareOf(gap), [gap]);
   const drivers = useMemo(() => s.contributors.map((c) => ({ id: c.id, label: c.name, share: c.analyticShare, correlation: c.spearman })), [s.contributors]);
   const markers = useMemo(() => (mc.mean !== null ? [{ value: mc.mean, label: `Mean ${f(mc.mean)}`, kind: 'mean' as const }] : []), [mc.mean, f]);
   const outLabels = useMemo(() => outLabelsOf(gap, 'ppm'), [gap]);
@@ -106,7 +107,7 @@ export function StackResults({ result }: { result: RunResult }) {
       </section>
 
       <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
-        <SpreadChart className="xl:col-span-2" name={gap.label} unit={unit} bins={gap.histogram} total={gap.valid} limits={limits} markers={markers} outLabels={outLabels} />
+        <SpreadChart className="xl:col-span-2" name={gap.label} unit={unit} bins={gap.histogram} total={gap.valid} limits={limits} markers={markers} outLabels={outLabels} outShare={outShare} />
         <CumulativeChart name={gap.label} unit={unit} ecdf={gap.ecdf} percentiles={percentiles} tablePercentiles={allPercentiles} limits={limits} />
         <DriversChart
           name={gap.label}

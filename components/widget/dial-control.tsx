@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useId, useState } from 'react';
+import { useId, useState } from 'react';
 import { cx } from '@/components/ui/cx';
 import { dialDisplay, dialText, parseDialInput, type DialSpec } from './dial-values';
 
@@ -16,25 +16,25 @@ export interface DialControlProps {
  */
 export function DialControl({ dial, value, onChange }: DialControlProps) {
   const id = useId().replace(/[^a-zA-Z0-9_-]/g, '');
-  const [text, setText] = useState(() => dialText(dial, value));
+  // What the viewer is typing; null shows the dial's current value (so the slider and resets show through).
+  const [draft, setDraft] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
-  const [editing, setEditing] = useState(false);
-
-  // Follow the slider (and resets) unless the viewer is typing.
-  useEffect(() => {
-    if (!editing) {
-      setText(dialText(dial, value));
-      setError(null);
-    }
-  }, [value, dial, editing]);
+  const text = draft ?? dialText(dial, value);
 
   function commit() {
-    const r = parseDialInput(text, dial);
+    if (draft === null) return;
+    const r = parseDialInput(draft, dial);
     if (r.ok) {
       setError(null);
-      setText(dialText(dial, r.value));
+      setDraft(null);
       if (r.value !== value) onChange(r.value);
     } else setError(r.message);
+  }
+
+  function slide(v: number) {
+    setDraft(null);
+    setError(null);
+    onChange(v);
   }
 
   const unit = dial.unit ? ` ${dial.unit}` : '';
@@ -57,7 +57,7 @@ export function DialControl({ dial, value, onChange }: DialControlProps) {
           value={value}
           aria-valuetext={`${dialDisplay(dial, value)}${unit}`}
           aria-describedby={`${id}-hint`}
-          onChange={(e) => onChange(Number(e.target.value))}
+          onChange={(e) => slide(Number(e.target.value))}
           className="h-8 min-w-0 flex-1 cursor-pointer"
           style={{ accentColor: 'var(--st-brand)' }}
         />
@@ -69,18 +69,14 @@ export function DialControl({ dial, value, onChange }: DialControlProps) {
           aria-invalid={error ? true : undefined}
           aria-describedby={error ? `${id}-err ${id}-hint` : `${id}-hint`}
           value={text}
-          onFocus={() => setEditing(true)}
-          onChange={(e) => setText(e.target.value)}
-          onBlur={() => {
-            setEditing(false);
-            commit();
-          }}
+          onChange={(e) => setDraft(e.target.value)}
+          onBlur={commit}
           onKeyDown={(e) => {
             if (e.key === 'Enter') {
               e.preventDefault();
               commit();
             } else if (e.key === 'Escape') {
-              setText(dialText(dial, value));
+              setDraft(null);
               setError(null);
             }
           }}

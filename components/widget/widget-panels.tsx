@@ -66,13 +66,14 @@ export function WidgetChart({ result, panel }: { result: RunResult; panel: Chart
     return { lower: l.below ? `${show(l.below.p)} below` : null, upper: l.above ? `${show(l.above.p)} above` : null };
   }, [o, cost, result.template]);
 
+  const outShare = useMemo(() => (o.limits ? { below: o.limits.below?.p ?? 0, above: o.limits.above?.p ?? 0 } : undefined), [o.limits]);
   const drivers = useMemo(() => {
     if (result.stack) return result.stack.contributors.map((c) => ({ id: c.id, label: c.name, share: c.analyticShare, correlation: c.spearman }));
     return o.drivers.items.map((d) => ({ id: d.id, label: d.label, share: d.share, correlation: d.spearman }));
   }, [result.stack, o.drivers.items]);
 
   if (panel === 'spread')
-    return <SpreadChart name={o.label} unit={o.unit} bins={o.histogram} total={o.valid} limits={limits} markers={spreadMarkers} outLabels={outLabels} headingLevel="h3" />;
+    return <SpreadChart name={o.label} unit={o.unit} bins={o.histogram} total={o.valid} limits={limits} markers={spreadMarkers} outLabels={outLabels} outShare={outShare} headingLevel="h3" />;
   if (panel === 'cumulative')
     return (
       <CumulativeChart

@@ -79,6 +79,8 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   }, [checked, widget.dialIds]);
 
   const [values, setValues] = useState<Record<string, number>>(() => initialDialValues(dials, given));
+  // Bumped by a reset so each dial's half-typed text and message are cleared too.
+  const [resets, setResets] = useState(0);
   // Dials can change with a new model; keep only theirs, with defaults for new ones.
   const current = useMemo(() => {
     const out: Record<string, number> = {};
@@ -100,6 +102,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   const reset = useCallback(() => {
     const next = initialDialValues(dials);
     setValues(next);
+    setResets((n) => n + 1);
     onDialChange?.(next, null);
   }, [dials, onDialChange]);
 
@@ -163,7 +166,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
               <fieldset className="min-w-0 space-y-3 rounded-lg border border-ink-200 bg-ink-50 px-3 pt-2 pb-3">
                 <legend className="px-1 text-sm font-semibold text-ink-900">Try other values</legend>
                 {dials.map((d) => (
-                  <DialControl key={d.id} dial={d} value={current[d.id]} onChange={(v) => setDial(d.id, v)} />
+                  <DialControl key={`${d.id}-${resets}`} dial={d} value={current[d.id]} onChange={(v) => setDial(d.id, v)} />
                 ))}
                 <button
                   type="button"

@@ -310,7 +310,7 @@ export function stepReadout(g: CumulativeGeometry, current: Readout | null, key:
 
 export function describeCumulative(g: CumulativeGeometry): string {
   if (!g.points.length) return `No results to show for ${g.name}.`;
-  const parts = [`S-curve of ${g.name}: the chance that the outcome is at or below each value, from ${formatValue(g.points[0].value, g.unit)} to ${formatValue(g.points[g.points.length - 1].value, g.unit)}.`];
+  const parts = [`S-curve of ${g.name}: the chance that the outcome is at or below each value, from ${formatValue(g.points[0].value, g.unit, { trim: true })} to ${formatValue(g.points[g.points.length - 1].value, g.unit, { trim: true })}.`];
   if (g.percentiles.length) parts.push(g.percentiles.map((m) => `${m.name} ${formatValue(m.value, g.unit)}`).join(', ') + '.');
   for (const r of g.references) parts.push(`${r.label.text.replace(/ · P.*$/, '')} falls at about ${formatPercent(r.p)}.`);
   return parts.join(' ');

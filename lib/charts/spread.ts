@@ -1,6 +1,6 @@
 import { bin as d3bin } from 'd3-array';
 import { coveringDomain, linear, linearAxis, makeBox, percentAxis, xTickCount, yTickCount, type Axis, type Box } from './axis';
-import { formatPercent, formatValue } from './format';
+import { formatPercent, formatPpm, formatValue } from './format';
 import { placeLabels, rowCount, type PlacedLabel } from './labels';
 import { chartColors, HATCH } from './palette';
 import { r2, textWidth, type PatternDef, type Scene, type SceneNode } from './scene';
@@ -48,6 +48,8 @@ export interface SpreadInput {
    * pass the engine's exact counts when known, or null to print nothing.
    */
   outLabels?: { lower?: string | null; upper?: string | null };
+  /** Exact shares below / above the limits (the engine's counts); otherwise estimated from the bins. */
+  outShare?: { below: number; above: number };
 }
 
 export interface BarSegment {
@@ -202,6 +204,7 @@ export function spreadGeometry(input: SpreadInput): SpreadGeometry {
     below /= total;
     above /= total;
   }
+  if (input.outShare) ({ below, above } = input.outShare);
 
   for (const r of outRegions) {
     const given = input.outLabels?.[r.side];
@@ -289,12 +292,13 @@ export function describeSpread(g: SpreadGeometry): string {
   const hi = g.bars[g.bars.length - 1].x1;
   const peak = g.bars.reduce((a, b) => (b.count > a.count ? b : a), g.bars[0]);
   const parts = [
-    `Histogram of ${g.name} from ${formatValue(lo, g.unit)} to ${formatValue(hi, g.unit)} in ${g.bars.length} bins; the most frequent bin is ${formatValue(peak.x0, g.unit)} to ${formatValue(peak.x1, g.unit)} with ${formatPercent(peak.fraction)} of trials.`,
+    `Histogram of ${g.name} from ${formatValue(lo, g.unit, { trim: true })} to ${formatValue(hi, g.unit, { trim: true })} in ${g.bars.length} bins; the most frequent bin is ${formatValue(peak.x0, g.unit, { trim: true })} to ${formatValue(peak.x1, g.unit, { trim: true })} with ${formatPercent(peak.fraction)} of trials.`,
   ];
   for (const l of g.limits) parts.push(`${l.label.text}.`);
   if (g.limits.length) {
     const out = g.outShare.below + g.outShare.above;
-    parts.push(`About ${formatPercent(out)} of trials fall beyond ${g.limits.length > 1 ? 'the limits' : 'the limit'} (hatched).`);
+    const share = out > 0 && out < 0.001 ? formatPpm(out * 1e6) : formatPercent(out);
+    parts.push(`${share.charAt(0).toUpperCase() + share.slice(1)} of trials fall beyond ${g.limits.length > 1 ? 'the limits' : 'the limit'} (hatched).`);
   }
   return parts.join(' ');
 }

@@ -134,6 +134,10 @@ describe('spreadGeometry', () => {
     for (const l of limitLines) expect(l.type === 'line' && l.dash).toBeTruthy();
     expect(scene.description).toMatch(/Lower limit 0\.08/);
     expect(scene.description).toMatch(/beyond the limits/);
+    // Exact shares from the engine replace the estimate, in ppm when small.
+    const exact = spreadGeometry({ bins, name: 'Gap', unit: 'mm', limits, width: 720, outShare: { below: 0.00004, above: 0.00002 } });
+    expect(exact.outShare).toEqual({ below: 0.00004, above: 0.00002 });
+    expect(spreadScene(exact).description).toMatch(/60(\.0)?\u00a0ppm of trials fall beyond the limits \(hatched\)\.$/);
   });
 
   it('places label rows so limit labels never overlap', () => {
