@@ -92,6 +92,7 @@ export function CorrelationEditor() {
   const matrix = useMemo(() => corr?.matrix ?? [], [corr?.matrix]);
   const [repair, setRepair] = useState<Repair | null>(null);
 
+  const orphans = ids.filter((id) => !inputs.some((x) => x?.id === id));
   const nameOf = (id: string) => inputs.find((x) => x?.id === id)?.name?.trim() || id;
   const square = matrix.length === ids.length && matrix.every((r) => Array.isArray(r) && r.length === ids.length);
   const check = useMemo(() => (square && ids.length >= 2 ? checkCorrelation(matrix) : null), [square, ids.length, matrix]);
@@ -166,6 +167,23 @@ export function CorrelationEditor() {
             })}
           </div>
         )}
+        {orphans.length ? (
+          <p className="mt-1.5 flex flex-wrap items-center gap-1.5 text-sm text-ink-700">
+            In the matrix but not an input:
+            {orphans.map((id) => (
+              <button
+                key={id}
+                type="button"
+                disabled={readOnly}
+                onClick={() => setMembers(ids.filter((x) => x !== id))}
+                className="num rounded bg-danger-50 px-1.5 py-0.5 text-danger-700 ring-1 ring-danger-600/30 hover:bg-white"
+                aria-label={`Remove ${id} from the matrix`}
+              >
+                {id} ×
+              </button>
+            ))}
+          </p>
+        ) : null}
         {memberMessages.map(([k, list]) => list.map((m) => <FieldError key={k + m}>{m}</FieldError>))}
       </fieldset>
 

@@ -5,9 +5,9 @@ import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { Term } from '@/components/ui/term';
 import { checkCorrelation } from '@/lib/engine/linalg';
 import { AddButton, EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
-import { GroupMessages, InlineMessages, NumberInput, RowMessages, SelectInput, TextInput, type Choice } from './fields';
+import { GroupMessages, KeyInput, InlineMessages, NumberInput, RowMessages, SelectInput, TextInput, type Choice } from './fields';
 import { useEditor } from './editor-context';
-import { allIds, makeId } from './model-helpers';
+import { allIds, makeId, removeReferences } from './model-helpers';
 import { shortNumber } from './numbers';
 
 const THREE_POINT: Choice<'pert' | 'triangular' | 'uniform'>[] = [
@@ -41,7 +41,7 @@ interface GroupRow {
 }
 
 function LineItems({ currency }: { currency: string }) {
-  const { control, getValues } = useFormContext();
+  const { control, getValues, setValue } = useFormContext();
   const { fields, append, remove, move } = useFieldArray({ control, name: 'items', keyName: '_key' });
   const rows = (useWatch({ control, name: 'items' }) ?? []) as ItemRow[];
   const sumMostLikely = rows.reduce((s, r) => s + (typeof r?.mostLikely === 'number' && Number.isFinite(r.mostLikely) ? r.mostLikely : 0), 0);
@@ -87,7 +87,7 @@ function LineItems({ currency }: { currency: string }) {
                   <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
                   <Td>
                     <TextInput path={`${p}.name`} label={`Name of line item ${i + 1}`} hideLabel />
-                    <TextInput path={`${p}.id`} label={`Key of line item ${i + 1}`} hideLabel mono inputClassName="mt-1 h-6! text-xs! text-ink-600" />
+                    <KeyInput path={`${p}.id`} label={`Key of line item ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
                   </Td>
                   <Td>
                     <NumberInput path={`${p}.low`} label={`Low estimate of ${what}`} hideLabel />
@@ -102,7 +102,18 @@ function LineItems({ currency }: { currency: string }) {
                     <SelectInput path={`${p}.distribution`} label={`Distribution of ${what}`} hideLabel choices={THREE_POINT} />
                   </Td>
                   <Td>
-                    <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} minRows={1} />
+                    <RowButtons
+                      index={i}
+                      count={fields.length}
+                      what={what}
+                      onMove={move}
+                      onRemove={() => {
+                        // The item leaves its correlation groups too.
+                        if (row.id) for (const w of removeReferences(getValues(), row.id)) setValue(w.path, w.value, { shouldDirty: true });
+                        remove(i);
+                      }}
+                      minRows={1}
+                    />
                   </Td>
                 </tr>
                 </InlineMessages.Provider>,
@@ -143,6 +154,7 @@ function GroupItemsPicker({ index, items }: { index: number; items: ItemRow[] })
   const path = `correlationGroups.${index}.items`;
   const chosen = (useWatch({ control, name: path }) ?? []) as string[];
   const legendId = `${idFor(path)}-legend`;
+  const orphans = chosen.filter((id) => !items.some((it) => it?.id === id));
   const toggle = (id: string, on: boolean) => {
     const next = on ? [...chosen.filter((x) => x !== id), id] : chosen.filter((x) => x !== id);
     // Keep the line items' order so the list reads like the table.
@@ -167,6 +179,23 @@ function GroupItemsPicker({ index, items }: { index: number; items: ItemRow[] })
           );
         })}
       </div>
+      {orphans.length ? (
+        <p className="mt-1.5 flex flex-wrap items-center gap-1.5 text-sm text-ink-700">
+          Listed but not a line item:
+          {orphans.map((id) => (
+            <button
+              key={id}
+              type="button"
+              disabled={readOnly}
+              onClick={() => setValue(path, chosen.filter((x) => x !== id), { shouldDirty: true })}
+              className="num rounded bg-danger-50 px-1.5 py-0.5 text-danger-700 ring-1 ring-danger-600/30 hover:bg-white"
+              aria-label={`Remove ${id} from this group`}
+            >
+              {id} ×
+            </button>
+          ))}
+        </p>
+      ) : null}
       <GroupMessages path={path} />
       {chosen.map((_, j) => (
         <GroupMessages key={j} path={`${path}.${j}`} />
@@ -234,7 +263,7 @@ function CorrelationGroups() {
               <li key={f._key} className="rounded-md border border-ink-200 bg-ink-50/60 p-3">
                 <div className="flex flex-wrap items-start gap-3">
                   <TextInput path={`${p}.name`} label="Group name" className="min-w-48 flex-1" />
-                  <TextInput path={`${p}.id`} label="Key" className="w-40" mono />
+                  <KeyInput path={`${p}.id`} label="Key" className="w-40" />
                   <NumberInput path={`${p}.rho`} label="Correlation ρ" className="w-28" />
                   <div className="ml-auto pt-5">
                     <RowButtons index={i} count={fields.length} what={what} onRemove={() => remove(i)} />
@@ -315,7 +344,7 @@ function RiskRegister({ currency }: { currency: string }) {
                   <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
                   <Td>
                     <TextInput path={`${p}.name`} label={`Name of risk ${i + 1}`} hideLabel />
-                    <TextInput path={`${p}.id`} label={`Key of risk ${i + 1}`} hideLabel mono inputClassName="mt-1 h-6! text-xs! text-ink-600" />
+                    <KeyInput path={`${p}.id`} label={`Key of risk ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
                   </Td>
                   <Td>
                     <NumberInput

@@ -6,7 +6,7 @@ import { Button } from '@/components/ui/button';
 import { controlClasses } from '@/components/ui/field';
 import type { DialTarget, StochosModel } from '@/lib/engine/schema';
 import { useEditor } from './editor-context';
-import { FieldShell, GroupMessages, InlineMessages, NumberInput, RowMessages, TextInput } from './fields';
+import { FieldShell, GroupMessages, KeyInput, InlineMessages, NumberInput, RowMessages, TextInput } from './fields';
 import { allIds, dialTargetOptions, makeId, suggestDial, targetKey, type DialTargetOption } from './model-helpers';
 import { EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
 
@@ -128,7 +128,7 @@ export function DialsEditor({ model }: { model: StochosModel }) {
                 <tr>
                   <Td>
                     <TextInput path={`${p}.label`} label={`Label of dial ${i + 1}`} hideLabel />
-                    <TextInput path={`${p}.id`} label={`Key of dial ${i + 1}`} hideLabel mono inputClassName="mt-1 h-6! text-xs! text-ink-600" />
+                    <KeyInput path={`${p}.id`} label={`Key of dial ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
                   </Td>
                   <Td>
                     <TargetSelect index={i} options={options} what={what} />

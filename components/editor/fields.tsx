@@ -6,6 +6,7 @@ import { controlClasses, FieldError } from '@/components/ui/field';
 import { cx } from '@/components/ui/cx';
 import { useEditor, useMessages } from './editor-context';
 import { formatNumberText, listProblem, parseNumberList, parseNumberText, sameNumber } from './numbers';
+import { allIds, renameReferences } from './model-helpers';
 
 // Inputs bound to a dotted model path. Each has a label (visible or screen-reader only), shows every message for
 // its path right below it, and sets aria-invalid and aria-describedby (message, hint, unit).
@@ -182,9 +183,11 @@ interface TextInputProps {
   maxLength?: number;
   /** Transforms the typed text before it is stored (e.g. seeds that are whole numbers). */
   toValue?: (text: string) => unknown;
+  /** Called after each change with the value before and after (e.g. to carry a renamed key to its references). */
+  onValueChange?: (prev: unknown, next: unknown) => void;
 }
 
-export function TextInput({ path, label, hideLabel, hint, className, inputClassName, placeholder, dense = true, mono, maxLength, toValue }: TextInputProps) {
+export function TextInput({ path, label, hideLabel, hint, className, inputClassName, placeholder, dense = true, mono, maxLength, toValue, onValueChange }: TextInputProps) {
   const { control } = useFormContext();
   const { readOnly } = useEditor();
   const { field } = useController({ name: path, control });
@@ -205,7 +208,12 @@ export function TextInput({ path, label, hideLabel, hint, className, inputClassN
           maxLength={maxLength}
           aria-invalid={invalid || undefined}
           aria-describedby={describedBy}
-          onChange={(e) => field.onChange(toValue ? toValue(e.target.value) : e.target.value)}
+          onChange={(e) => {
+            const prev = field.value;
+            const next = toValue ? toValue(e.target.value) : e.target.value;
+            field.onChange(next);
+            onValueChange?.(prev, next);
+          }}
           onBlur={field.onBlur}
           className={controlClasses(invalid, cx(dense ? 'h-8 px-2 text-sm' : 'h-10', mono && 'num', inputClassName))}
         />
@@ -325,6 +333,26 @@ interface NumberListInputProps {
   hint?: ReactNode;
   className?: string;
   rows?: number;
+}
+
+/**
+ * A row's key (its name in formulas and the handle other rows use). Renaming it carries the new key to the
+ * correlation matrix, correlation groups and dial targets, unless another row already has that key.
+ */
+export function KeyInput(props: Omit<TextInputProps, 'mono' | 'onValueChange'>) {
+  const { getValues, setValue } = useFormContext();
+  return (
+    <TextInput
+      {...props}
+      mono
+      onValueChange={(prev, next) => {
+        if (typeof prev !== 'string' || typeof next !== 'string' || !prev || !next || prev === next) return;
+        const values = getValues();
+        if (allIds(values).filter((x) => x === next).length > 1) return;
+        for (const w of renameReferences(values, prev, next)) setValue(w.path, w.value, { shouldDirty: true });
+      }}
+    />
+  );
 }
 
 /** A pasted list of numbers (measured data, empirical samples). Text that is not a number is named beside the box. */

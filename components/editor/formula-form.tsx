@@ -6,8 +6,8 @@ import { checkFormula, FORMULA_CONSTANTS, FORMULA_FUNCTIONS } from '@/lib/engine
 import { useEditor, useMessages } from './editor-context';
 import { DistributionPicker } from './distribution-picker';
 import { CorrelationEditor } from './correlation-editor';
-import { GroupMessages, NumberInput, TextAreaInput, TextInput } from './fields';
-import { allIds, makeId } from './model-helpers';
+import { GroupMessages, KeyInput, NumberInput, TextAreaInput, TextInput } from './fields';
+import { allIds, makeId, removeReferences } from './model-helpers';
 import { AddButton, EmptyRows, RowButtons, Section } from './parts';
 
 interface Row {
@@ -23,7 +23,7 @@ interface DialRow {
 }
 
 function Inputs() {
-  const { control, getValues } = useFormContext();
+  const { control, getValues, setValue } = useFormContext();
   const { fields, append, remove, move } = useFieldArray({ control, name: 'inputs', keyName: '_key' });
   const rows = (useWatch({ control, name: 'inputs' }) ?? []) as Row[];
   return (
@@ -44,10 +44,21 @@ function Inputs() {
                     {i + 1}
                   </span>
                   <TextInput path={`${p}.name`} label="Name" className="min-w-44 flex-[2]" />
-                  <TextInput path={`${p}.id`} label="Key in formulas" className="min-w-32 flex-1" mono />
+                  <KeyInput path={`${p}.id`} label="Key in formulas" className="min-w-32 flex-1" />
                   <TextInput path={`${p}.unit`} label="Unit" className="w-24" mono maxLength={24} />
                   <div className="ml-auto pt-5">
-                    <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} minRows={1} />
+                    <RowButtons
+                      index={i}
+                      count={fields.length}
+                      what={what}
+                      onMove={move}
+                      onRemove={() => {
+                        // The input leaves the correlation matrix with its row; dials on it stay, flagged.
+                        if (row.id) for (const w of removeReferences(getValues(), row.id)) setValue(w.path, w.value, { shouldDirty: true });
+                        remove(i);
+                      }}
+                      minRows={1}
+                    />
                   </div>
                 </div>
                 <div className="mt-2 border-t border-ink-100 pt-2">
@@ -185,7 +196,7 @@ function OutputRow({ index, count, onMove, onRemove }: { index: number; count: n
           {index + 1}
         </span>
         <TextInput path={`${p}.name`} label="Name" className="min-w-44 flex-[2]" />
-        <TextInput path={`${p}.id`} label="Key" className="min-w-32 flex-1" mono />
+        <KeyInput path={`${p}.id`} label="Key" className="min-w-32 flex-1" />
         <TextInput path={`${p}.unit`} label="Unit" className="w-24" mono maxLength={24} />
         <NumberInput path={`${p}.lower`} label="Lower limit" className="w-28" placeholder="none" unit={row.unit || undefined} />
         <NumberInput path={`${p}.upper`} label="Upper limit" className="w-28" placeholder="none" unit={row.unit || undefined} />

@@ -3,7 +3,7 @@
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { Term } from '@/components/ui/term';
 import { AddButton, EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
-import { GroupMessages, InlineMessages, NumberInput, NumberListInput, RowMessages, SelectInput, TextInput, type Choice } from './fields';
+import { GroupMessages, KeyInput, InlineMessages, NumberInput, NumberListInput, RowMessages, SelectInput, TextInput, type Choice } from './fields';
 import { allIds, makeId } from './model-helpers';
 
 type StackKind = 'normal' | 'uniform' | 'triangular' | 'normal-fit' | 'empirical';
@@ -87,11 +87,11 @@ export function LinearStackForm() {
         {fields.length === 0 ? (
           <EmptyRows>No contributors yet. Add the first dimension of the loop, starting from one side of the gap.</EmptyRows>
         ) : (
-          <ScrollTable caption="Contributors to the gap" minWidth={1100}>
+          <ScrollTable caption="Contributors to the gap" minWidth={1150}>
             <thead>
               <tr>
                 <Th className="w-8">#</Th>
-                <Th className="min-w-60">Name and key</Th>
+                <Th className="min-w-72">Name and key</Th>
                 <Th className="w-28">Nominal</Th>
                 <Th className="w-24">Plus tol.</Th>
                 <Th className="w-24">Minus tol.</Th>
@@ -121,7 +121,7 @@ export function LinearStackForm() {
                     <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
                     <Td>
                       <TextInput path={`${p}.name`} label={`Name of contributor ${i + 1}`} hideLabel />
-                      <TextInput path={`${p}.id`} label={`Key of contributor ${i + 1}`} hideLabel mono inputClassName="mt-1 h-6! text-xs! text-ink-600" />
+                      <KeyInput path={`${p}.id`} label={`Key of contributor ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
                     </Td>
                     <Td>
                       <NumberInput path={`${p}.nominal`} label={`Nominal of ${what}`} hideLabel unit={unit || undefined} />

@@ -297,3 +297,73 @@ export function suggestDial(option: DialTargetOption): { min: number; max: numbe
   if (!(min < max)) max = min + step;
   return { min, max, step, default: Math.min(max, Math.max(min, cur)) };
 }
+
+// ---- References between rows ------------------------------------------------------------------------------------
+
+type Draft = Record<string, unknown>;
+
+/**
+ * Paths and values to write so that every reference to `from` (correlation lists, group members, dial targets)
+ * names `to` instead, after a key is renamed. Formulas are left alone: the schema flags a formula that still
+ * uses the old name, and the author decides.
+ */
+export function renameReferences(model: Draft, from: string, to: string): { path: string; value: unknown }[] {
+  const out: { path: string; value: unknown }[] = [];
+  if (!from || from === to) return out;
+  const corr = model.correlation as { inputs?: unknown } | undefined;
+  if (corr && Array.isArray(corr.inputs) && corr.inputs.includes(from)) {
+    out.push({ path: 'correlation.inputs', value: corr.inputs.map((x) => (x === from ? to : x)) });
+  }
+  const groups = model.correlationGroups;
+  if (Array.isArray(groups)) {
+    groups.forEach((g, i) => {
+      const items = (g as { items?: unknown })?.items;
+      if (Array.isArray(items) && items.includes(from)) out.push({ path: `correlationGroups.${i}.items`, value: items.map((x) => (x === from ? to : x)) });
+    });
+  }
+  const dials = model.dials;
+  if (Array.isArray(dials)) {
+    dials.forEach((d, i) => {
+      const t = (d as { target?: Record<string, unknown> })?.target;
+      if (!t || typeof t !== 'object') return;
+      const next = { ...t };
+      let hit = false;
+      for (const key of ['inputId', 'groupId', 'outputId', 'a', 'b']) {
+        if (next[key] === from) {
+          next[key] = to;
+          hit = true;
+        }
+      }
+      if (hit) out.push({ path: `dials.${i}.target`, value: next });
+    });
+  }
+  return out;
+}
+
+/**
+ * Paths and values to write when the row with key `id` is removed: it leaves the correlation matrix (its row and
+ * column go) and every correlation group. Dials on it stay, flagged, so the author chooses a new target.
+ */
+export function removeReferences(model: Draft, id: string): { path: string; value: unknown }[] {
+  const out: { path: string; value: unknown }[] = [];
+  const corr = model.correlation as { inputs?: unknown; matrix?: unknown } | undefined;
+  if (corr && Array.isArray(corr.inputs) && corr.inputs.includes(id)) {
+    const keep = corr.inputs.map((x, k) => ({ x, k })).filter((e) => e.x !== id);
+    if (keep.length === 0) out.push({ path: 'correlation', value: undefined });
+    else {
+      const m = Array.isArray(corr.matrix) ? (corr.matrix as unknown[][]) : [];
+      out.push({
+        path: 'correlation',
+        value: { inputs: keep.map((e) => e.x), matrix: keep.map((a) => keep.map((b) => (a.k === b.k ? 1 : typeof m[a.k]?.[b.k] === 'number' ? m[a.k][b.k] : 0))) },
+      });
+    }
+  }
+  const groups = model.correlationGroups;
+  if (Array.isArray(groups)) {
+    groups.forEach((g, i) => {
+      const items = (g as { items?: unknown })?.items;
+      if (Array.isArray(items) && items.includes(id)) out.push({ path: `correlationGroups.${i}.items`, value: items.filter((x) => x !== id) });
+    });
+  }
+  return out;
+}

@@ -9,6 +9,8 @@ import {
   distributionKind,
   makeId,
   niceStep,
+  removeReferences,
+  renameReferences,
   reshapeDistribution,
   suggestDial,
   targetKey,
@@ -165,5 +167,29 @@ describe('dial targets', () => {
     expect(s.default).toBe(0.3);
     const conf = dialTargetOptions(m).find((o) => o.key === 'confidence')!;
     expect(suggestDial(conf)).toEqual({ min: 0.5, max: 0.95, step: 0.05, default: 0.8 });
+  });
+});
+
+describe('references between rows', () => {
+  it('a renamed key follows into correlation lists, group members and dial targets', () => {
+    const f = structuredClone(exampleFormula) as unknown as Record<string, unknown>;
+    expect(renameReferences(f, 'flow', 'duty_flow')).toEqual([
+      { path: 'correlation.inputs', value: ['duty_flow', 'head'] },
+      { path: 'dials.1.target', value: { kind: 'input-param', inputId: 'duty_flow', param: 'mean' } },
+    ]);
+    const c = structuredClone(exampleCostRange) as unknown as Record<string, unknown>;
+    expect(renameReferences(c, 'surface_works', 'surface')).toEqual([{ path: 'dials.3.target', value: { kind: 'group-correlation', groupId: 'surface' } }]);
+    expect(renameReferences(c, 'blast', 'blasting')).toEqual([{ path: 'correlationGroups.0.items', value: ['scaffold', 'blasting', 'steel_repair', 'coating'] }]);
+    expect(renameReferences(c, 'blast', 'blast')).toEqual([]);
+  });
+
+  it('a removed row leaves the matrix (row and column) and its groups', () => {
+    const f = structuredClone(exampleFormula) as unknown as Record<string, unknown>;
+    f.correlation = { inputs: ['flow', 'head', 'pump_eff'], matrix: [[1, 0.2, 0.3], [0.2, 1, 0.4], [0.3, 0.4, 1]] };
+    expect(removeReferences(f, 'head')).toEqual([{ path: 'correlation', value: { inputs: ['flow', 'pump_eff'], matrix: [[1, 0.3], [0.3, 1]] } }]);
+    f.correlation = { inputs: ['flow'], matrix: [[1]] };
+    expect(removeReferences(f, 'flow')).toEqual([{ path: 'correlation', value: undefined }]);
+    const c = structuredClone(exampleCostRange) as unknown as Record<string, unknown>;
+    expect(removeReferences(c, 'site_setup')).toEqual([{ path: 'correlationGroups.1.items', value: ['traffic_mgmt'] }]);
   });
 });
