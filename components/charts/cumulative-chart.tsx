@@ -3,6 +3,7 @@
 import { useMemo, useRef, useState, type KeyboardEvent, type PointerEvent, type ReactNode } from 'react';
 import {
   cumulativeGeometry,
+  ecdfAt,
   cumulativeScene,
   readoutAtPixel,
   readoutAtProbability,
@@ -106,8 +107,13 @@ export function CumulativeChart({ name, unit, ecdf, percentiles, tablePercentile
     return [
       ...list.map((m) => ({ what: percentileName(m.p), value: formatValue(m.value, unit, { significant: 5 }), share: formatPercent(m.p) })),
       ...geometry.references.map((r) => ({ what: r.label.text.replace(/ · P.*$/, '').replace(/ [^ ]+$/, ''), value: formatValue(r.value, unit, { significant: 6, trim: true }), share: formatPercent(r.p) })),
+      ...geometry.limits.map((l) => ({
+        what: l.side === 'lower' ? (limits?.lowerLabel ?? 'Lower limit') : (limits?.upperLabel ?? 'Upper limit'),
+        value: formatValue(l.value, unit, { significant: 6, trim: true }),
+        share: formatPercent(ecdfAt(geometry.points, l.value)),
+      })),
     ];
-  }, [tablePercentiles, percentiles, geometry, unit]);
+  }, [tablePercentiles, percentiles, geometry, unit, limits]);
 
   const p = shown ? Math.round(shown.p * 100) : 50;
   const below = (

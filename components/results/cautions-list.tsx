@@ -5,7 +5,7 @@ import { cx } from '@/components/ui/cx';
 export function CautionsList({ cautions, className, compact }: { cautions: readonly Caution[]; className?: string; compact?: boolean }) {
   if (!cautions.length) return null;
   return (
-    <aside aria-label="Cautions" className={cx('rounded-md border border-ink-200 bg-ink-50 px-3 py-2.5 text-[0.8125rem] leading-snug text-ink-700', className)}>
+    <div role="note" aria-label="Cautions" className={cx('rounded-md border border-ink-200 bg-ink-50 px-3 py-2.5 text-[0.8125rem] leading-snug text-ink-700', className)}>
       <h3 className="mb-1 flex items-center gap-1.5 text-[0.8125rem] font-semibold text-ink-900">
         <svg aria-hidden="true" viewBox="0 0 16 16" className="h-3.5 w-3.5 flex-none text-ink-600">
           <circle cx="8" cy="8" r="6.5" fill="none" stroke="currentColor" strokeWidth="1.5" />
@@ -21,6 +21,6 @@ export function CautionsList({ cautions, className, compact }: { cautions: reado
           </li>
         ))}
       </ul>
-    </aside>
+    </div>
   );
 }

@@ -16,10 +16,24 @@ export interface ResultsPreviewProps {
   model: unknown;
   /** Dial values by dial id; missing dials take the author's defaults. */
   dialValues?: Record<string, number>;
-  /** Sample columns to bring back; 'all' (default) enables the scatter chart. */
+  /** Sample columns to bring back; by default 'all' (the scatter chart) when the run is small enough, see samplesFor. */
   samples?: SampleSelection;
   debounceMs?: number;
   className?: string;
+}
+
+/** Sample values the scatter may bring back from the worker (8 bytes each): about 32 MB. */
+export const SAMPLE_BUDGET = 4_000_000;
+
+/**
+ * 'all' sample columns when the run is small enough to send them to the page, else none: the scatter
+ * needs only a few thousand points, but the worker sends whole columns.
+ */
+export function samplesFor(model: unknown): SampleSelection {
+  const m = model as { settings?: { trials?: unknown }; contributors?: unknown[]; items?: unknown[]; riskEvents?: unknown[]; inputs?: unknown[]; outputs?: unknown[] } | null;
+  const trials = typeof m?.settings?.trials === 'number' ? m.settings.trials : 0;
+  const columns = (m?.contributors?.length ?? 0) + (m?.items?.length ?? 0) + 3 * (m?.riskEvents?.length ?? 0) + (m?.inputs?.length ?? 0) + (m?.outputs?.length ?? 0) + 1;
+  return trials * columns <= SAMPLE_BUDGET ? 'all' : 'none';
 }
 
 /** Progress of the run in flight, the state between runs, and the last run's time. */
@@ -89,8 +103,8 @@ export function RunError({ sim }: { sim: SimulationState }) {
 }
 
 /** Live results of a model: reruns in the browser's engine worker as the model or dials change. */
-export function ResultsPreview({ model, dialValues, samples = 'all', debounceMs, className }: ResultsPreviewProps) {
-  const sim = useSimulation(model, dialValues, { samples, debounceMs });
+export function ResultsPreview({ model, dialValues, samples, debounceMs, className }: ResultsPreviewProps) {
+  const sim = useSimulation(model, dialValues, { samples: samples ?? samplesFor(model), debounceMs });
   return (
     <div className={cx('space-y-3', className)}>
       <RunStatus sim={sim} />

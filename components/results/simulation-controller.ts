@@ -60,7 +60,7 @@ export class SimulationController {
   private client: RunClient | null = null;
   private readonly factory: () => RunClient;
   private readonly debounceMs: number;
-  private readonly samples: SampleSelection;
+  private samples: SampleSelection;
   private readonly now: () => number;
   private readonly setTimer: (fn: () => void, ms: number) => unknown;
   private readonly clearTimer: (t: unknown) => void;
@@ -97,13 +97,15 @@ export class SimulationController {
   }
 
   /**
-   * New inputs. `key` identifies them (the hook passes their JSON); nothing happens when it is
+   * New inputs (and optionally a new sample selection, which must then be part of `key`).
+   * `key` identifies them (the hook passes their JSON); nothing happens when it is
    * unchanged. A run in flight is cancelled at once; the new run starts after the debounce, or
    * immediately when nothing has been shown yet.
    */
-  setInputs(model: unknown, dialValues: Record<string, number> | undefined, key: string): void {
+  setInputs(model: unknown, dialValues: Record<string, number> | undefined, key: string, samples?: SampleSelection): void {
     if (key === this.key) return;
     this.key = key;
+    if (samples) this.samples = samples;
     this.model = model;
     this.dialValues = dialValues;
     this.clearPending();

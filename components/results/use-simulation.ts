@@ -40,11 +40,11 @@ export function useSimulation(model: unknown, dialValues?: Record<string, number
   const snapshot = useSyncExternalStore(controller.subscribe, controller.getSnapshot, () => SERVER_SNAPSHOT);
 
   // Identity of the inputs: their JSON, computed only when the objects change.
-  const key = useMemo(() => (model == null || !enabled ? null : JSON.stringify([model, dialValues ?? {}])), [model, dialValues, enabled]);
+  const key = useMemo(() => (model == null || !enabled ? null : JSON.stringify([model, dialValues ?? {}, samples])), [model, dialValues, enabled, samples]);
 
   useEffect(() => {
     if (key === null) controller.setInputs(null, undefined, 'none');
-    else controller.setInputs(model, dialValues, key);
+    else controller.setInputs(model, dialValues, key, samples);
     // model and dialValues are captured with their key.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [controller, key]);

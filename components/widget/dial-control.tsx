@@ -85,7 +85,8 @@ export function DialControl({ dial, value, onChange }: DialControlProps) {
             error ? 'border-danger-600 ring-1 ring-danger-600' : 'border-ink-400 hover:border-ink-500',
           )}
         />
-        {dial.unit ? <span className="w-10 flex-none text-sm text-ink-700">{dial.unit}</span> : null}
+        {/* The unit slot keeps every dial's slider the same length, with or without a unit. */}
+        <span className="w-10 flex-none text-sm text-ink-700">{dial.unit}</span>
       </div>
       {error ? (
         <p id={`${id}-err`} role="alert" className="mt-1 text-[0.8125rem] font-medium text-danger-700">

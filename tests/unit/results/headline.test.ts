@@ -53,3 +53,16 @@ describe('headline figures', () => {
     expect(headlineFigure(formula, 'nonsense').id).toBe('mean');
   });
 });
+
+describe('sample budget of the results preview', () => {
+  it('brings sample columns back only for runs small enough to send to the page', async () => {
+    const { samplesFor, SAMPLE_BUDGET } = await import('@/components/results/results-preview');
+    expect(samplesFor(exampleLinearStack)).toBe('all'); // 50 000 trials × 7 columns
+    expect(samplesFor({ ...exampleLinearStack, settings: { ...exampleLinearStack.settings, trials: 2_000_000 } })).toBe('none');
+    // Cost range: 20 000 trials × (10 items + 3 × 4 risks + 1) columns is well inside the budget; 200 000 trials is not.
+    expect(samplesFor(exampleCostRange)).toBe('all');
+    expect(samplesFor({ ...exampleCostRange, settings: { ...exampleCostRange.settings, trials: 200_000 } })).toBe(200_000 * 23 <= SAMPLE_BUDGET ? 'all' : 'none');
+    expect(SAMPLE_BUDGET).toBe(4_000_000);
+    expect(samplesFor(null)).toBe('all');
+  });
+});

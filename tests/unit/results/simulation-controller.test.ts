@@ -184,6 +184,17 @@ describe('SimulationController', () => {
     expect(clients[1].calls).toHaveLength(1);
   });
 
+  it('uses a new sample selection handed in with new inputs', async () => {
+    const { c, client } = setup();
+    c.setInputs({ m: 1 }, undefined, 'k1');
+    expect(client.last.options.samples).toBe('all');
+    client.last.resolve(fakeResult('one'));
+    await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
+    c.setInputs({ m: 2 }, undefined, 'k2', 'none');
+    vi.advanceTimersByTime(150);
+    expect(client.last.options.samples).toBe('none');
+  });
+
   it('goes idle when there is no model', async () => {
     const { c, client } = setup();
     c.setInputs(null, undefined, 'none');
