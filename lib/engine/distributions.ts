@@ -6,7 +6,7 @@
  * upper tail keeps its precision when p comes from Phi(z) of a large z (Gaussian copula).
  */
 import { gamma, lbeta, normalCdfPair, normalCdfPairUpper, normalPdf, normalQuantilePQ, regIncBeta } from './special';
-import { cos, exp, expm1, ln, log1p, pow } from './det-math';
+import { cos, exp, expm1, ln, log1p } from './det-math';
 
 export type DistributionSpec =
   | { type: 'constant'; value: number }
@@ -250,8 +250,11 @@ function pert(a: number, m: number, b: number, spec: DistributionSpec): Marginal
   const density = (x: number) => {
     if (x < a || x > b) return 0;
     const t = (x - a) / w;
-    // 0^0 is 1 in IEEE pow, which gives the right endpoint value when a shape is 1.
-    return scale * pow(t, am1) * pow(1 - t, bm1);
+    // t^(alpha-1) (1-t)^(beta-1) through ln/exp (cheaper than two pow calls); a zero power
+    // term is 1, which gives the right endpoint value when a shape parameter is 1.
+    const left = am1 === 0 ? 0 : t > 0 ? am1 * ln(t) : -Infinity;
+    const right = bm1 === 0 ? 0 : t < 1 ? bm1 * ln(1 - t) : -Infinity;
+    return scale * exp(left + right);
   };
   // Both shape parameters are >= 1, so the density is bounded and peaks at the mode.
   const M = density(m);
@@ -423,8 +426,8 @@ function weibull(k: number, lambda: number, spec: DistributionSpec): Marginal {
     variance: lambda * lambda * (g2 - g1 * g1),
     natural: 'inverse-cdf',
     envelope: null,
-    inv: (p, q) => lambda * pow(minusLogQ(p, q), 1 / k),
-    cdf: (x) => (x <= 0 ? 0 : -expm1(-pow(x / lambda, k))),
+    inv: (p, q) => lambda * exp(ln(minusLogQ(p, q)) / k),
+    cdf: (x) => (x <= 0 ? 0 : -expm1(-exp(k * ln(x / lambda)))),
     fromZ: null,
   };
 }

@@ -26,11 +26,28 @@ function digit(lo: number, hi: number, pass: number): number {
   }
 }
 
-function toKeys(values: Float64Array): Uint32Array {
+// Scratch buffers reused between calls (the engine is single-threaded): sorting many
+// columns would otherwise allocate, and collect, several arrays per column.
+let scratchKeys = new Uint32Array(0);
+let scratchKeys2 = new Uint32Array(0);
+let scratchIdx = new Uint32Array(0);
+let scratchIdx2 = new Uint32Array(0);
+
+function scratch(n: number): void {
+  if (scratchIdx.length < n) {
+    const size = Math.max(n, 2 * scratchIdx.length);
+    scratchKeys = new Uint32Array(2 * size);
+    scratchKeys2 = new Uint32Array(2 * size);
+    scratchIdx = new Uint32Array(size);
+    scratchIdx2 = new Uint32Array(size);
+  }
+}
+
+function toKeys(values: Float64Array, into?: Uint32Array): Uint32Array {
   const n = values.length;
-  const f = new Float64Array(n);
+  const u = into ?? new Uint32Array(2 * n);
+  const f = new Float64Array(u.buffer, u.byteOffset, n);
   f.set(values);
-  const u = new Uint32Array(f.buffer);
   for (let k = 0; k < n; k++) {
     const hi = u[2 * k + 1];
     if (hi & 0x80000000) {
@@ -110,15 +127,19 @@ export function sortedCopy(values: Float64Array): Float64Array {
   return fromKeys(src);
 }
 
-/** Indices that sort values ascending (stable), with the sorted keys; values without NaN. */
+/**
+ * Sorts indices by value (stable) in the scratch buffers. Returns views of the scratch:
+ * the order and the sorted keys, valid until the next call.
+ */
 function argsortWithKeys(values: Float64Array): { order: Uint32Array; keys: Uint32Array } {
   const n = values.length;
-  let idx: Uint32Array = new Uint32Array(n);
+  scratch(n);
+  let idx: Uint32Array = scratchIdx.subarray(0, n);
+  let idx2: Uint32Array = scratchIdx2.subarray(0, n);
   for (let k = 0; k < n; k++) idx[k] = k;
-  let src: Uint32Array = toKeys(values);
+  let src: Uint32Array = toKeys(values, scratchKeys.subarray(0, 2 * n));
+  let dst: Uint32Array = scratchKeys2.subarray(0, 2 * n);
   if (n < 2) return { order: idx, keys: src };
-  let dst: Uint32Array = new Uint32Array(2 * n);
-  let idx2: Uint32Array = new Uint32Array(n);
   const counts = histograms(src, n);
   for (let pass = 0; pass < PASSES; pass++) {
     const c = counts[pass];
@@ -143,23 +164,28 @@ function argsortWithKeys(values: Float64Array): { order: Uint32Array; keys: Uint
 
 /** Indices that sort values ascending (stable), values without NaN. */
 export function argsort(values: Float64Array): Uint32Array {
-  return argsortWithKeys(values).order;
+  return argsortWithKeys(values).order.slice();
 }
 
 /** Ranks 1..n with ties given their average rank. */
 export function averageRanks(values: Float64Array): Float64Array {
   const n = values.length;
   const { order, keys } = argsortWithKeys(values);
+  // Compare keys as int32: equal bits, and no unsigned values above 2^31 to box.
+  const k32 = new Int32Array(keys.buffer, keys.byteOffset, keys.length);
   const ranks = new Float64Array(n);
   let i = 0;
   while (i < n) {
-    // Equal keys are equal values (the sorted keys are read in order, no random access).
-    const lo = keys[2 * i];
-    const hi = keys[2 * i + 1];
+    const lo = k32[2 * i];
+    const hi = k32[2 * i + 1];
     let j = i + 1;
-    while (j < n && keys[2 * j] === lo && keys[2 * j + 1] === hi) j++;
-    const r = (i + 1 + j) / 2;
-    for (let k = i; k < j; k++) ranks[order[k]] = r;
+    while (j < n && k32[2 * j] === lo && k32[2 * j + 1] === hi) j++;
+    if (j === i + 1) {
+      ranks[order[i]] = i + 1;
+    } else {
+      const r = (i + 1 + j) / 2;
+      for (let k = i; k < j; k++) ranks[order[k]] = r;
+    }
     i = j;
   }
   return ranks;

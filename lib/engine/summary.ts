@@ -22,7 +22,7 @@ export const DEFAULT_PERCENTILES = [0.01, 0.05, 0.1, 0.25, 0.5, 0.75, 0.8, 0.9, 
 export const DEFAULT_HISTOGRAM_BINS = 40;
 export const DEFAULT_ECDF_POINTS = 201;
 /** Drivers and achieved correlations use at most this many trials (the first ones). */
-export const RANK_TRIAL_LIMIT = 200_000;
+export const RANK_TRIAL_LIMIT = 100_000;
 /** Verdict thresholds. */
 export const CONVERGENCE_RULES = {
   minTrials: 1000,
