@@ -32,7 +32,7 @@ export function insertEmbedWidget(db: Database.Database, firmId: string, title =
   );
   db.prepare(
     'insert into widgets (id, firm_id, model_id, version_id, title, panels, headline, dial_ids, brand_color, show_logo, published_at, updated_at) values (?,?,?,?,?,?,?,?,?,?,?,?)',
-  ).run(widgetId, firmId, modelId, versionId, title, '["spread","cumulative","drivers"]', 'ppm', '["spacer_length","float_max"]', '#1f887b', 1, now(), now());
+  ).run(widgetId, firmId, modelId, versionId, title, '["headline","spread","cumulative","drivers"]', 'mean', '["spacer_length","float_max"]', '#1f887b', 1, now(), now());
   return widgetId;
 }
 
