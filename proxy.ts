@@ -1,14 +1,22 @@
 import { NextResponse, type NextRequest } from 'next/server';
+import { embedResponseHeaders } from '@/lib/embed/headers';
 
-// Redirects only: signed-out visitors of the dashboard go to sign-in. Authorization happens in the server layer.
-export function proxy(req: NextRequest) {
+// Redirects signed-out dashboard visitors to sign-in, and sets the per-client framing headers of embed pages.
+// Authorization happens in the server layer, not here.
+export async function proxy(req: NextRequest) {
+  const { pathname } = req.nextUrl;
+  if (pathname.startsWith('/embed/')) {
+    const res = NextResponse.next();
+    for (const [k, v] of Object.entries(await embedResponseHeaders(pathname, req.nextUrl.searchParams))) res.headers.set(k, v);
+    return res;
+  }
   const hasSession = req.cookies.has('next-auth.session-token') || req.cookies.has('__Secure-next-auth.session-token');
   if (!hasSession) {
     const url = new URL('/sign-in', req.url);
-    url.searchParams.set('next', req.nextUrl.pathname);
+    url.searchParams.set('next', pathname);
     return NextResponse.redirect(url);
   }
   return NextResponse.next();
 }
 
-export const config = { matcher: ['/app/:path*'] };
+export const config = { matcher: ['/app/:path*', '/embed/:path*'] };
