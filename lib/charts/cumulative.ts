@@ -188,7 +188,7 @@ export function cumulativeGeometry(input: CumulativeInput): CumulativeGeometry {
 
   // Percentile labels sit on their horizontal drop line, near the y axis: left of its point a rising
   // curve is always below that line, so the label never crosses the curve. When the point is too close
-  // to the axis for the label, it goes right of the point, under the line (where the curve is above it).
+  // to the axis for the label, it goes right of the point at its height (there the curve is above it).
   const marks = [...(input.percentiles ?? [])].filter((m) => Number.isFinite(m.value) && m.p > 0 && m.p < 1).sort((a, b) => a.p - b.p);
   const percentiles: PercentileMarker[] = [];
   let lastLabelY = Infinity;
@@ -199,10 +199,10 @@ export function cumulativeGeometry(input: CumulativeInput): CumulativeGeometry {
     const text = `${name} ${formatValue(m.value, unit)}`;
     const w = textWidth(text, 11, 'mono');
     const left = px - 10 >= w + 4;
-    let ly = left ? py - 4 : py + 14;
+    let ly = left ? py - 4 : py + 4;
     if (ly > lastLabelY - 13) ly = lastLabelY - 13;
     lastLabelY = ly;
-    percentiles.push({ p: m.p, value: m.value, name, x: px, y: py, label: { text, x: left ? 4 : px + 8, y: ly, anchor: 'start' } });
+    percentiles.push({ p: m.p, value: m.value, name, x: px, y: py, label: { text, x: left ? 4 : px + 9, y: ly, anchor: 'start' } });
   }
 
   let li = limitReqs.length;
