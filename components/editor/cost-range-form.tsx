@@ -66,7 +66,7 @@ function LineItems({ currency }: { currency: string }) {
           <thead>
             <tr>
               <Th className="w-8">#</Th>
-              <Th className="min-w-56">Name and key</Th>
+              <Th className="min-w-52">Name and key</Th>
               <Th className="w-28">Low</Th>
               <Th className="w-28">Most likely</Th>
               <Th className="w-28">High</Th>
@@ -323,7 +323,7 @@ function RiskRegister({ currency }: { currency: string }) {
           <thead>
             <tr>
               <Th className="w-8">#</Th>
-              <Th className="min-w-56">Risk and key</Th>
+              <Th className="min-w-52">Risk and key</Th>
               <Th className="w-28">Probability{percent ? ' (%)' : ' (0–1)'}</Th>
               <Th className="w-28">Impact low</Th>
               <Th className="w-28">Most likely</Th>
@@ -407,7 +407,7 @@ function EstimateAndBudget({ currency }: { currency: string }) {
         </>
       }
     >
-      <div className="grid max-w-2xl gap-4 sm:grid-cols-3">
+      <div className="grid max-w-2xl gap-4 @xl:grid-cols-3">
         <NumberInput path="baseEstimate" label="Base estimate" unit={currency || undefined} dense={false} placeholder="optional" />
         <NumberInput path="budget" label="Budget" unit={currency || undefined} dense={false} placeholder="optional" />
         <NumberInput

@@ -204,7 +204,7 @@ function OutputRow({ index, count, onMove, onRemove }: { index: number; count: n
           <RowButtons index={index} count={count} what={what} onMove={onMove} onRemove={onRemove} minRows={1} />
         </div>
       </div>
-      <div className="mt-2 grid gap-3 lg:grid-cols-[minmax(0,1fr)_18rem]">
+      <div className="mt-2 grid gap-3 @3xl:grid-cols-[minmax(0,1fr)_18rem]">
         <TextAreaInput
           path={`${p}.formula`}
           label={`Formula for ${what}`}

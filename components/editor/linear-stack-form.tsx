@@ -87,11 +87,11 @@ export function LinearStackForm() {
         {fields.length === 0 ? (
           <EmptyRows>No contributors yet. Add the first dimension of the loop, starting from one side of the gap.</EmptyRows>
         ) : (
-          <ScrollTable caption="Contributors to the gap" minWidth={1150}>
+          <ScrollTable caption="Contributors to the gap" minWidth={1080}>
             <thead>
               <tr>
                 <Th className="w-8">#</Th>
-                <Th className="min-w-72">Name and key</Th>
+                <Th className="min-w-56">Name and key</Th>
                 <Th className="w-28">Nominal</Th>
                 <Th className="w-24">Plus tol.</Th>
                 <Th className="w-24">Minus tol.</Th>

@@ -234,7 +234,8 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
           data-checked={checked ? 'true' : undefined}
           aria-label={`${TEMPLATE_LABELS[template]} model editor`}
           onSubmit={(e) => e.preventDefault()}
-          className="space-y-4"
+          // A container: the editor lays itself out by the width it is given (full page, or beside a preview).
+          className="@container space-y-4"
         >
           <div className="flex flex-wrap items-start justify-between gap-3">
             <p role="status" className="pt-1 text-sm text-ink-700">
@@ -248,7 +249,7 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
 
           <Section id="about" title="About this model">
             <GroupMessages path="_" className="mb-2" />
-            <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1.4fr)]">
+            <div className="grid gap-4 @3xl:grid-cols-[minmax(0,1fr)_minmax(0,1.4fr)]">
               <TextInput path="title" label="Title" dense={false} maxLength={120} />
               <TextAreaInput path="description" label="Description (optional)" rows={2} />
             </div>

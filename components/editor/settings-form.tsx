@@ -33,7 +33,7 @@ export function SettingsForm() {
         </>
       }
     >
-      <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+      <div className="grid gap-4 @xl:grid-cols-2 @4xl:grid-cols-3">
         <NumberInput path="settings.trials" label="Trials" dense={false} hint={`A whole number from ${MIN_TRIALS.toLocaleString('en-US')} to ${MAX_TRIALS.toLocaleString('en-US')}.`} />
         <TextInput path="settings.seed" label="Seed" dense={false} mono toValue={parseSeedText} hint="A whole number or any text, up to 128 characters." />
         <SelectInput
