@@ -1,0 +1,101 @@
+import { test, expect, type Page } from '@playwright/test';
+import fs from 'node:fs';
+import { runModelSync } from '../../lib/engine';
+import { decimalsForSignificant, formatValue } from '../../lib/charts/format';
+
+// How long an edit takes to reach the figures: a 20-contributor stack at 50,000 trials, edited in the studio.
+// Each edit's figures must be the engine's own for the edited model; the times are reported, never asserted
+// (speed is measured, not tested). Results go to STUDIO_SPEED_OUT (JSON) and the test's output.
+
+const norm = (s: string) => s.replace(/\u00a0|\u202f/g, ' ').replace(/\s+/g, ' ').trim();
+
+function stack20(nominals: number[]) {
+  const kinds = ['normal', 'uniform', 'triangular', 'normal'] as const;
+  return {
+    schema: 'stochos.model/1',
+    template: 'linear-stack',
+    title: 'Speed check: twenty-part stack',
+    unit: 'mm',
+    settings: { trials: 50_000, seed: 'speed-20', design: 'monte-carlo', normalMethod: 'box-muller', correlationMethod: 'copula' },
+    contributors: nominals.map((nominal, i) => ({
+      id: `part_${i + 1}`,
+      name: `Part ${i + 1}`,
+      nominal,
+      plusTol: 0.02 + (i % 5) * 0.01,
+      minusTol: 0.02 + (i % 3) * 0.01,
+      direction: i === 0 ? 1 : -1,
+      distribution: kinds[i % 4] === 'normal' ? { type: 'normal', k: 3 } : { type: kinds[i % 4] },
+      meanShift: 0,
+    })),
+    limits: { lower: 0.2, upper: 1.0 },
+    dials: [],
+  };
+}
+
+const BASE = [100, ...Array.from({ length: 19 }, () => 5.2)];
+
+function mcRange(model: unknown): string {
+  const s = runModelSync(model).stack!;
+  const mc = s.monteCarlo;
+  const decimals = Math.min(8, decimalsForSignificant(mc.sd!, 2));
+  const f = (v: number) => norm(formatValue(v, 'mm', { decimals }));
+  return `${f(mc.mean! - 3 * mc.sd!)} to ${f(mc.mean! + 3 * mc.sd!)}`;
+}
+
+async function signIn(page: Page) {
+  await page.goto('/sign-in');
+  await page.getByLabel(/e-mail/i).first().fill('author@orrinvale.example');
+  await page.getByLabel(/password/i).fill('stochos-demo-2026');
+  await page.getByRole('button', { name: /^sign in$/i }).click();
+  await expect(page).toHaveURL(/\/app\//);
+}
+
+test('a 20-contributor stack at 50,000 trials: each edit reaches the figures (timed)', async ({ page }) => {
+  test.setTimeout(240_000);
+  await page.setViewportSize({ width: 1440, height: 1000 });
+  await signIn(page);
+  const created = await page.request.post('/api/models', { data: { template: 'linear-stack', start: 'import', model: stack20(BASE) } });
+  expect(created.status()).toBe(201);
+  const id = (await created.json()).model.id as string;
+  await page.goto(`/app/models/${id}`);
+  const card = page.getByRole('heading', { name: 'Monte Carlo', exact: true, level: 4 }).locator('..');
+  await expect.poll(async () => norm(await card.innerText()), { timeout: 60_000 }).toContain(mcRange(stack20(BASE)));
+
+  // Time from the last keystroke of an edit to the moment the Monte Carlo card shows the engine's figures for it.
+  await page.evaluate(() => {
+    const w = window as unknown as { __lastInput: number };
+    document.addEventListener('input', () => (w.__lastInput = performance.now()), true);
+  });
+  const times: number[] = [];
+  const nominals = [...BASE];
+  for (let i = 0; i < 9; i++) {
+    const part = 2 + (i % 19);
+    nominals[part - 1] = +(nominals[part - 1]! + 0.01 * (i % 2 === 0 ? 1 : -2)).toFixed(3);
+    const want = mcRange(stack20(nominals));
+    await page.evaluate((expected) => {
+      const w = window as unknown as { __doneAt: number | null; __obs?: MutationObserver };
+      w.__doneAt = null;
+      w.__obs?.disconnect();
+      const norm = (s: string) => s.replace(/\u00a0|\u202f/g, ' ').replace(/\s+/g, ' ').trim();
+      const h = [...document.querySelectorAll('h4')].find((e) => e.textContent === 'Monte Carlo')!;
+      const target = h.parentElement!;
+      w.__obs = new MutationObserver(() => {
+        if (w.__doneAt === null && norm(target.innerText).includes(expected)) w.__doneAt = performance.now();
+      });
+      w.__obs.observe(target, { subtree: true, childList: true, characterData: true });
+    }, want);
+    await page.getByRole('textbox', { name: new RegExp(`^Nominal of Part ${part}\\b`) }).fill(String(nominals[part - 1]));
+    await page.waitForFunction(() => (window as unknown as { __doneAt: number | null }).__doneAt !== null, undefined, { timeout: 30_000 });
+    const ms = await page.evaluate(() => {
+      const w = window as unknown as { __doneAt: number; __lastInput: number };
+      return w.__doneAt - w.__lastInput;
+    });
+    times.push(ms);
+    expect(norm(await card.innerText())).toContain(want);
+  }
+  const sorted = [...times].sort((a, b) => a - b);
+  const median = sorted[Math.floor(sorted.length / 2)]!;
+  const report = { contributors: 20, trials: 50_000, edits: times.length, medianMs: Math.round(median), minMs: Math.round(sorted[0]!), maxMs: Math.round(sorted[sorted.length - 1]!), timesMs: times.map(Math.round) };
+  console.log(`[studio speed] ${JSON.stringify(report)}`);
+  if (process.env.STUDIO_SPEED_OUT) fs.writeFileSync(process.env.STUDIO_SPEED_OUT, JSON.stringify(report, null, 2));
+});
