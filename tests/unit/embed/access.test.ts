@@ -1,7 +1,7 @@
 import { describe, it, expect, beforeAll } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { SignJWT, decodeJwt, decodeProtectedHeader } from 'jose';
-import { freshMigratedDb } from './fresh-db';
+import { useFreshDb } from '../../support/test-db';
 import { getDb } from '@/db/knex';
 import { createClient, createPass, renewPass, revokePass, rotateKey, editClient, passView } from '@/lib/embed/service';
 import { checkPass, requireViewer } from '@/lib/embed/access';
@@ -15,7 +15,7 @@ let other: Awaited<ReturnType<typeof seedFirmWithWidget>>;
 const m = () => memberOf(firm.firmId, firm.userId);
 
 beforeAll(async () => {
-  await freshMigratedDb();
+  await useFreshDb();
   firm = await seedFirmWithWidget();
   other = await seedFirmWithWidget('Other firm');
 });

@@ -1,6 +1,6 @@
 import { describe, it, expect, beforeAll } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import { freshMigratedDb } from './fresh-db';
+import { useFreshDb } from '../../support/test-db';
 import { seedFirmWithWidget, memberOf } from './fixtures';
 import { createClient, createPass, passView, revokePass } from '@/lib/embed/service';
 import { embedCsp, embedResponseHeaders } from '@/lib/embed/headers';
@@ -11,7 +11,7 @@ import { DIALED_MODEL } from './fixtures';
 
 let firm: Awaited<ReturnType<typeof seedFirmWithWidget>>;
 beforeAll(async () => {
-  await freshMigratedDb();
+  await useFreshDb();
   firm = await seedFirmWithWidget();
 });
 
