@@ -17,7 +17,7 @@ function OutputResults({ result, output }: { result: RunResult; output: OutputSu
   const f = outputFormat(unit, output.sd);
   const limits = limitsOf(output);
   const pv = (p: number) => output.percentiles.find((x) => Math.abs(x.p - p) < 1e-9)?.value ?? null;
-  const percentiles = useMemo(() => output.percentiles.filter((p) => [0.1, 0.5, 0.9].includes(p.p)).map((p) => ({ p: p.p, value: p.value })), [output.percentiles]);
+  const percentiles = useMemo(() => output.percentiles.filter((p) => [0.1, 0.5, 0.8, 0.9].includes(p.p)).map((p) => ({ p: p.p, value: p.value })), [output.percentiles]);
   const allPercentiles = useMemo(() => output.percentiles.map((p) => ({ p: p.p, value: p.value })), [output.percentiles]);
   const outShare = useMemo(() => outShareOf(output), [output]);
   const drivers = useMemo(() => output.drivers.items.map((d) => ({ id: d.id, label: d.label, share: d.share, correlation: d.spearman })), [output.drivers.items]);

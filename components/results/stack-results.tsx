@@ -54,7 +54,7 @@ export function StackResults({ result }: { result: RunResult }) {
   const drivers = useMemo(() => s.contributors.map((c) => ({ id: c.id, label: c.name, share: c.analyticShare, correlation: c.spearman })), [s.contributors]);
   const markers = useMemo(() => (mc.mean !== null ? [{ value: mc.mean, label: `Mean ${f(mc.mean)}`, kind: 'mean' as const }] : []), [mc.mean, f]);
   const outLabels = useMemo(() => outLabelsOf(gap, 'ppm'), [gap]);
-  const percentiles = useMemo(() => gap.percentiles.filter((p) => [0.1, 0.5, 0.9].includes(p.p)).map((p) => ({ p: p.p, value: p.value })), [gap.percentiles]);
+  const percentiles = useMemo(() => gap.percentiles.filter((p) => [0.1, 0.5, 0.8, 0.9].includes(p.p)).map((p) => ({ p: p.p, value: p.value })), [gap.percentiles]);
   const allPercentiles = useMemo(() => gap.percentiles.map((p) => ({ p: p.p, value: p.value })), [gap.percentiles]);
   const candidates = useMemo(() => s.contributors.map((c) => ({ id: c.id, label: c.name, unit })), [s.contributors, unit]);
   const ppk = mc.ppk;

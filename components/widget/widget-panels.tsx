@@ -36,7 +36,7 @@ export function WidgetChart({ result, panel }: { result: RunResult; panel: Chart
 
   const percentiles = useMemo(() => {
     if (cost) return [0.1, 0.5, 0.8, 0.9].map((p) => ({ p, value: p === 0.1 ? cost.p10 : p === 0.5 ? cost.p50 : p === 0.8 ? cost.p80 : cost.p90 }));
-    return o.percentiles.filter((p) => [0.1, 0.5, 0.9].includes(p.p)).map((p) => ({ p: p.p, value: p.value }));
+    return o.percentiles.filter((p) => [0.1, 0.5, 0.8, 0.9].includes(p.p)).map((p) => ({ p: p.p, value: p.value }));
   }, [cost, o.percentiles]);
   const allPercentiles = useMemo(() => o.percentiles.map((p) => ({ p: p.p, value: p.value })), [o.percentiles]);
 

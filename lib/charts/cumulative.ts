@@ -198,11 +198,13 @@ export function cumulativeGeometry(input: CumulativeInput): CumulativeGeometry {
     const name = percentileName(m.p);
     const text = `${name} ${formatValue(m.value, unit)}`;
     const w = textWidth(text, 11, 'mono');
-    const left = px - 10 >= w + 4;
+    // Start right of a lower limit's line, so the label does not sit on the hatch.
+    const lx = lower !== null && x(lower) > 0 && x(lower) < px ? x(lower) + 6 : 4;
+    const left = px - 10 >= lx + w;
     let ly = left ? py - 4 : py + 4;
     if (ly > lastLabelY - 13) ly = lastLabelY - 13;
     lastLabelY = ly;
-    percentiles.push({ p: m.p, value: m.value, name, x: px, y: py, label: { text, x: left ? 4 : px + 9, y: ly, anchor: 'start' } });
+    percentiles.push({ p: m.p, value: m.value, name, x: px, y: py, label: { text, x: left ? lx : px + 9, y: ly, anchor: 'start' } });
   }
 
   let li = limitReqs.length;
