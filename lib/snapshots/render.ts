@@ -1,0 +1,40 @@
+import 'server-only';
+import { runModelSync, type RunResult } from '@/lib/engine';
+import type { SnapshotContext } from '@/db/snapshots';
+import { snapshotContent, type SnapshotContent } from './content';
+import { renderSnapshotPdf } from './pdf';
+
+// The re-run: the pinned version's model with the viewer's dial values, through the same engine (and so the same
+// seed, trial count and sampling design) as the widget in the browser. No options beyond the dial values: the
+// browser passes none either (samples are not needed), so the summaries are bit for bit the same.
+
+export interface RenderedSnapshot {
+  content: SnapshotContent;
+  result: RunResult;
+  pdf: Buffer;
+  pages: number;
+  renderMs: number;
+}
+
+export async function renderSnapshot(ctx: SnapshotContext): Promise<RenderedSnapshot> {
+  const start = performance.now();
+  const result = runModelSync(ctx.model, { dialValues: ctx.job.dialValues, samples: 'none' });
+  const content = snapshotContent(ctx.model, result, {
+    firmName: ctx.firm.name,
+    brandColor: ctx.widget.brandColor || ctx.firm.brandColor,
+    paperSize: ctx.firm.paperSize,
+    widgetTitle: ctx.widget.title,
+    clientName: ctx.clientName,
+    requestedAt: ctx.job.createdAt,
+    versionNumber: ctx.versionNumber,
+    checkState: ctx.checkState,
+    checkedAt: ctx.checkedAt,
+    checkerName: ctx.checkerName,
+    authorName: ctx.authorName,
+    panels: ctx.widget.panels,
+    headline: ctx.widget.headline,
+    dialIds: ctx.widget.dialIds,
+  });
+  const pdf = await renderSnapshotPdf(content, result);
+  return { content, result, pdf: pdf.bytes, pages: pdf.pages, renderMs: Math.round(performance.now() - start) };
+}
