@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { WidgetView } from '@/components/widget/widget-view';
 import type { EmbedWidgetPayload } from '@/lib/embed/payload';
 import { createEmbedClient, EmbedAccessError } from './embed-client';
@@ -38,7 +38,7 @@ export function EmbedApp({ passId, origin, title, firmName, brandColor }: { pass
     };
   }, [client]);
 
-  const onDialChange = (values: Record<string, number>, dialId: string | null) => {
+  const onDialChange = useCallback((values: Record<string, number>, dialId: string | null) => {
     // A reset moves every dial back; analytics count moves of one dial.
     if (dialId === null) return;
     const value = values[dialId];
@@ -55,7 +55,7 @@ export function EmbedApp({ passId, origin, title, firmName, brandColor }: { pass
         });
       }, DIAL_SETTLE_MS),
     );
-  };
+  }, [client]);
 
   if (state.phase === 'refused') return <EmbedNotice title={state.title} body={state.body} firmName={firmName} />;
   if (state.phase === 'loading') {
