@@ -78,6 +78,8 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     throw err;
   }
   const hostPage = o.hostPagePort ? await startHostPage({ port: o.hostPagePort, appUrl }) : null;
+  // The snapshot worker starts with the app, as its own process (a restart or crash of one leaves the other running).
+  const worker = startSnapshotWorkerProcess({ ...process.env, ...env }, o.quiet);
 
   return {
     appUrl,
@@ -90,6 +92,7 @@ export async function startStack(o: StackOptions): Promise<Stack> {
       next.kill('SIGTERM');
       // Wait (briefly) until the port is free for the next run.
       await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
+      await stopChild(worker);
       await Promise.allSettled([smtp.close(), stripe.close(), hostPage?.close()]);
     },
     seedMessage,
@@ -122,4 +125,19 @@ async function waitForHttp(url: string, child: ChildProcess, timeoutMs = 60_000)
     await new Promise((r) => setTimeout(r, 250));
   }
   throw new Error(`${url} did not answer within ${timeoutMs / 1000} s`);
+}
+
+/** The snapshot worker (lib/snapshots/worker-main.ts) as a child process; node loads TypeScript through tsx directly so a signal reaches it. */
+export function startSnapshotWorkerProcess(childEnv: NodeJS.ProcessEnv, quiet?: boolean): ChildProcess {
+  return spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'lib/snapshots/worker-main.ts'], {
+    env: { ...childEnv, NODE_OPTIONS: '' },
+    stdio: quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
+  });
+}
+
+async function stopChild(child: ChildProcess): Promise<void> {
+  if (child.exitCode !== null || child.signalCode !== null) return;
+  const exited = new Promise<void>((r) => child.once('exit', () => r()));
+  child.kill('SIGTERM');
+  await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
 }
