@@ -1,4 +1,5 @@
 import { test, expect, type Locator, type Page } from '@playwright/test';
+import AxeBuilder from '@axe-core/playwright';
 
 // The model editor on its development page (/dev/editor, present in demo installations): bad input is caught
 // beside the field at fault, the correlation repair shows what it changed, import never replaces the model with
@@ -172,5 +173,15 @@ test('keyboard focus is visible on the editor controls', async ({ page }) => {
     });
     expect(outline.style, outline.tag).not.toBe('none');
     expect(outline.width).toBeGreaterThanOrEqual(2);
+  }
+});
+
+test('axe finds no accessibility violations in the editor, with and without problems shown', async ({ page }) => {
+  for (const t of ['linear-stack', 'cost-range', 'formula'] as const) {
+    await openEditor(page, t);
+    expect((await new AxeBuilder({ page }).include('form').analyze()).violations, t).toEqual([]);
+    await page.getByRole('button', { name: 'Load a broken copy' }).click();
+    await expect(page.getByText(/problems? to fix/)).toBeVisible();
+    expect((await new AxeBuilder({ page }).include('form').analyze()).violations, `${t} with problems`).toEqual([]);
   }
 });
