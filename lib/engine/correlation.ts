@@ -23,7 +23,10 @@ import { scoreSourceFor } from './samplers';
 import { argsort, sortedCopy } from './sort';
 import { normalCdfPair, normalCdfPairUpper, normalQuantilePQ } from './special';
 import { correlationMatrix, pearson, RankCache } from './stats';
-import { asin, exp, sin } from './det-math';
+import * as detMath from './det-math';
+
+// Bound once: module interop in some runtimes turns each imported call into a getter call.
+const { asin, exp, sin } = detMath;
 
 const BLOCK = 4096;
 

@@ -6,7 +6,10 @@
  * upper tail keeps its precision when p comes from Phi(z) of a large z (Gaussian copula).
  */
 import { gamma, lbeta, normalCdfPair, normalCdfPairUpper, normalPdf, normalQuantilePQ, regIncBeta } from './special';
-import { cos, exp, expm1, ln, log1p } from './det-math';
+import * as detMath from './det-math';
+
+// Bound once: module interop in some runtimes turns each imported call into a getter call.
+const { cos, exp, expm1, ln, log1p } = detMath;
 
 export type DistributionSpec =
   | { type: 'constant'; value: number }

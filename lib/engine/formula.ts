@@ -9,7 +9,10 @@
  * powers associate to the right (2^3^2 = 2^9).
  */
 import jsep from 'jsep';
-import { acos, asin, atan, atan2, cos, exp, hypotN, ln, log10, pow, sin, tan } from './det-math';
+import * as detMath from './det-math';
+
+// Bound once: module interop in some runtimes turns each imported call into a getter call.
+const { acos, asin, atan, atan2, cos, exp, hypotN, ln, log10, pow, sin, tan } = detMath;
 
 export type BinaryOp = '+' | '-' | '*' | '/' | '^' | '<' | '<=' | '>' | '>=' | '==' | '!=' | '&&' | '||';
 

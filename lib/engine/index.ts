@@ -5,7 +5,7 @@
 export { runModel, runModelSync, Simulation, ENGINE_VERSION } from './simulate';
 export type { RunOptions, AsyncRunOptions, Progress, RunResult, InputReport, StackResult, CostResult, StackContributorResult, SampleSelection } from './simulate';
 export type { OutputSummary, LimitReport, DriverReport, DriverItem, Convergence, ProbabilityEstimate } from './summary';
-export { CONVERGENCE_RULES, DEFAULT_PERCENTILES, RANK_TRIAL_LIMIT } from './summary';
+export { CONVERGENCE_RULES, DEFAULT_PERCENTILES, DRIVER_TRIAL_LIMIT, RANK_TRIAL_LIMIT } from './summary';
 export { applyDials, type AppliedDials } from './dials';
 export { evaluateStack, evaluateCost, contributorDistribution, threePointDistribution } from './analytic';
 export type { StackAnalysis, StackContributorAnalysis, CostAnalysis, CostItemAnalysis, CostRiskAnalysis } from './analytic';

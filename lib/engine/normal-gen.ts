@@ -13,7 +13,10 @@
  */
 import { Stream, uniformOpenClosed } from './rng';
 import { normalSf } from './special';
-import { cosSin2Pi, exp, lastSin2Pi, ln } from './det-math';
+import * as detMath from './det-math';
+
+// Bound once: module interop in some runtimes turns each imported call into a getter call.
+const { cosSin2Pi, exp, lastSin2Pi, ln } = detMath;
 
 export type NormalMethod = 'box-muller' | 'ziggurat';
 

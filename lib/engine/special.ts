@@ -10,7 +10,10 @@
  * - log Gamma: Lanczos approximation (g = 7, n = 9).
  * - Regularised incomplete beta: continued fraction evaluated by the modified Lentz method.
  */
-import { exp, ln, log1p, pow, sin } from './det-math';
+import * as detMath from './det-math';
+
+// Bound once: module interop in some runtimes turns each imported call into a getter call.
+const { exp, ln, log1p, pow, sin } = detMath;
 
 const A = [2.2352520354606839287, 161.02823106855587881, 1067.6894854603709582, 18154.981253343561249, 0.065682337918207449113];
 const B = [47.20258190468824187, 976.09855173777669322, 10260.932208618978205, 45507.789335026729956];

@@ -4,7 +4,10 @@
  */
 import { lgamma, normalSf } from './special';
 import { averageRanks, sortedCopy } from './sort';
-import { exp, ln } from './det-math';
+import * as detMath from './det-math';
+
+// Bound once: module interop in some runtimes turns each imported call into a getter call.
+const { exp, ln } = detMath;
 
 /** The one pinned percentile definition (shown in the UI and the PDF). */
 export const PERCENTILE_DEFINITION = {

@@ -64,7 +64,10 @@ export interface Fingerprint {
 
 /** What must agree bit for bit between two runs of the same model, dials, seed and trials. */
 export function fingerprint(r: RunResult): Fingerprint {
-  const { timing: _t, samples, ...rest } = r;
+  const rest: Partial<RunResult> = { ...r };
+  delete rest.timing;
+  delete rest.samples;
+  const samples = r.samples;
   const cols = samples
     ? [...Object.keys(samples.outputs).sort().map((k) => samples.outputs[k]), ...Object.keys(samples.inputs).sort().map((k) => samples.inputs[k])]
     : [];

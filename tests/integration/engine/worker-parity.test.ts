@@ -1,3 +1,4 @@
+/* eslint-disable @typescript-eslint/no-explicit-any -- these tests edit model JSON freely to build variants and bad inputs */
 /**
  * The engine in a real Chromium web worker gives the same numbers, bit for bit, as the
  * engine in Node: every statistic of the three example models and a hash of every sample

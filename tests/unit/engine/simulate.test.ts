@@ -1,3 +1,4 @@
+/* eslint-disable @typescript-eslint/no-explicit-any -- these tests edit model JSON freely to build variants and bad inputs */
 import { describe, expect, it } from 'vitest';
 import { RunCancelledError } from '@/lib/engine/errors';
 import { EXAMPLE_MODELS, exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine/examples';

@@ -59,7 +59,9 @@ describe('linear stack', () => {
     expect(s.contributors.map((c) => c.id)).toEqual(['a', 'b', 'd', 'c']);
     const rs = s.contributors.map((c) => ((6 / Math.PI) * Math.asin(Math.sqrt(c.analyticShare) / 2)) ** 2);
     const total = rs.reduce((x, y) => x + y, 0);
-    s.contributors.forEach((c, i) => expect(Math.abs(c.monteCarloShare - rs[i] / total)).toBeLessThan(0.004));
+    // Drivers use the first 25,000 trials; a share's standard error is then about 0.006, so allow five.
+    expect(r.outputs[0].drivers.trials).toBe(25_000);
+    s.contributors.forEach((c, i) => expect(Math.abs(c.monteCarloShare - rs[i] / total)).toBeLessThan(0.03));
   });
 
   it('the gearbox example: worst case fails, RSS passes, Monte Carlo reports the rest', () => {
