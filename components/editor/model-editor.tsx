@@ -31,14 +31,26 @@ export interface ModelEditorProps {
 
 const VALIDATE_DELAY_MS = 120;
 
+/** The model as form values: lists present, and the schema's defaults filled in where a select shows them. */
 function toFormValues(model: StochosModel | StochosModelInput): FieldValues {
   const v = structuredClone(model) as FieldValues;
   v.dials ??= [];
+  const s = (v.settings ??= {}) as Record<string, unknown>;
+  s.design ??= 'monte-carlo';
+  s.normalMethod ??= 'box-muller';
+  s.correlationMethod ??= 'copula';
+  const rows = (key: string) => (Array.isArray(v[key]) ? (v[key] as Record<string, unknown>[]) : []);
   if (v.template === 'cost-range') {
     v.correlationGroups ??= [];
     v.riskEvents ??= [];
+    v.confidence ??= 0.8;
+    for (const it of rows('items')) if (it && typeof it === 'object') it.distribution ??= 'pert';
+    for (const r of rows('riskEvents')) if (r?.impact && typeof r.impact === 'object') (r.impact as Record<string, unknown>).distribution ??= 'pert';
   }
-  v.settings ??= {};
+  if (v.template === 'linear-stack') {
+    v.limits ??= {};
+    for (const c of rows('contributors')) if (c && typeof c === 'object') c.meanShift ??= 0;
+  }
   return v;
 }
 

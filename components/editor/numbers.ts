@@ -2,7 +2,9 @@
 
 /** Text typed in a number box → value: empty is undefined (the schema says "required" where it is), junk is NaN. */
 export function parseNumberText(text: string, scale = 1): number | undefined {
-  const t = text.trim().replace(/\u2212/g, '-').replace(/[\u2009\u202f\u00a0_]/g, '');
+  // Spaces and underscores group digits ("2 000 000"); the unicode minus is a minus. Commas are refused: they could
+  // be decimal commas.
+  const t = text.replace(/\u2212/g, '-').replace(/[\s_]/g, '');
   if (t === '') return undefined;
   if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) return Number.NaN;
   const v = Number(t);

@@ -32,6 +32,8 @@ describe('number boxes', () => {
     expect(parseNumberText('0x10')).toBeNaN();
     expect(parseNumberText('\u22120.05')).toBe(-0.05);
     expect(parseNumberText('.5')).toBe(0.5);
+    expect(parseNumberText('2 000 000')).toBe(2_000_000);
+    expect(parseNumberText('50_000')).toBe(50_000);
     expect(parseNumberText('2e-3')).toBe(0.002);
     expect(parseNumberText('7', 100)).toBe(0.07);
     expect(formatNumberText(0.07, 100)).toBe('7');
