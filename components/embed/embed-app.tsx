@@ -5,6 +5,7 @@ import { WidgetView } from '@/components/widget/widget-view';
 import type { EmbedWidgetPayload } from '@/lib/embed/payload';
 import { createEmbedClient, EmbedAccessError } from './embed-client';
 import { EmbedNotice } from './embed-notice';
+import { SnapshotRequestForm } from '@/components/snapshots/snapshot-request-form';
 
 // The client viewer's page: exchange the pass in the URL for an in-memory bearer token, load the widget
 // through the embed API, and show it. Dial moves are counted (one event per settled move, not per tick).
@@ -20,6 +21,8 @@ export function EmbedApp({ passId, origin, title, firmName, brandColor }: { pass
     return createEmbedClient({ passId, pass, origin });
   }, [passId, origin]);
   const pending = useRef(new Map<string, ReturnType<typeof setTimeout>>());
+  // The view the viewer sees, for "E-mail this view"; empty means the author's values.
+  const [dialValues, setDialValues] = useState<Record<string, number>>({});
 
   useEffect(() => {
     let live = true;
@@ -39,6 +42,7 @@ export function EmbedApp({ passId, origin, title, firmName, brandColor }: { pass
   }, [client]);
 
   const onDialChange = useCallback((values: Record<string, number>, dialId: string | null) => {
+    setDialValues(values);
     // A reset moves every dial back; analytics count moves of one dial.
     if (dialId === null) return;
     const value = values[dialId];
@@ -78,6 +82,7 @@ export function EmbedApp({ passId, origin, title, firmName, brandColor }: { pass
       branding={{ firmName: p.branding.firmName, brandColor: p.branding.brandColor }}
       versionInfo={{ number: p.versionInfo.number, signedOffAt }}
       onDialChange={onDialChange}
+      actions={<SnapshotRequestForm send={client.sendSnapshot} dialValues={dialValues} version={p.versionInfo.number} />}
       headingLevel="h1"
     />
   );

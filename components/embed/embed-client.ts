@@ -29,6 +29,8 @@ async function readError(res: Response): Promise<EmbedAccessError> {
 export interface EmbedClient {
   loadWidget(): Promise<EmbedWidgetPayload>;
   reportDial(dialId: string, value: number): Promise<void>;
+  /** "E-mail this view": the answer is returned as it is (202, or a refusal the form explains). */
+  sendSnapshot(body: { email: string; dialValues: Record<string, number>; version?: number }): Promise<Response>;
 }
 
 export function createEmbedClient(o: { passId: string; pass: string; origin: string | null }): EmbedClient {
@@ -50,7 +52,7 @@ export function createEmbedClient(o: { passId: string; pass: string; origin: str
   }
 
   /** One call with the bearer; a refused token is exchanged again once (it may simply have run out). */
-  async function call(method: 'GET' | 'POST', path: string, body?: unknown): Promise<Response> {
+  async function call(method: 'GET' | 'POST', path: string, body?: unknown, acceptRefusals = false): Promise<Response> {
     for (let attempt = 0; attempt < 2; attempt++) {
       if (!token || expiresAt - Date.now() < 30_000) await exchange();
       const res = await fetch(path, {
@@ -64,7 +66,7 @@ export function createEmbedClient(o: { passId: string; pass: string; origin: str
         token = null;
         continue;
       }
-      if (!res.ok) throw await readError(res);
+      if (!res.ok && !(acceptRefusals && res.status >= 400 && res.status < 500 && res.status !== 401)) throw await readError(res);
       return res;
     }
     throw new EmbedAccessError(401, 'This widget cannot be shown. Reload the page to try again.');
@@ -76,5 +78,6 @@ export function createEmbedClient(o: { passId: string; pass: string; origin: str
     reportDial: async (dialId, value) => {
       await call('POST', `${base}/events`, { kind: 'dial', dialId, value });
     },
+    sendSnapshot: (body) => call('POST', `${base}/snapshots`, body, true),
   };
 }
