@@ -4,6 +4,7 @@ import { can } from '@/lib/auth/permissions';
 import { PageHeader } from '@/components/ui/page-header';
 import { SettingsForm } from '@/components/settings/settings-form';
 import { ApiKeysPanel } from '@/components/api-keys/api-keys-panel';
+import { LogoUpload } from '@/components/datasets/logo-upload';
 
 export const metadata: Metadata = { title: 'Settings' };
 
@@ -13,6 +14,9 @@ export default async function SettingsPage() {
     <>
       <PageHeader title="Settings" description="Your firm’s name, defaults for new models, branding of widgets and snapshots, and the publishing rule." />
       <SettingsForm canEdit={can(member.role, 'settings.manage')} />
+      <div className="mt-8">
+        <LogoUpload firmId={member.firmId} canEdit={can(member.role, 'settings.manage')} />
+      </div>
       {can(member.role, 'apikeys.manage') && (
         <div className="mt-8">
           <ApiKeysPanel />

@@ -65,3 +65,18 @@ describe('summary and capability of measured data', () => {
     expect(s.histogram.reduce((t, b) => t + b.count, 0)).toBe(12);
   });
 });
+
+describe('demo datasets', () => {
+  it('are invented, fixed, and fit: spigot lengths near 12.006 mm, cost growth right-skewed', async () => {
+    const { DEMO_SPIGOT_LENGTHS, DEMO_COST_GROWTH } = await import('@/db/seed/datasets');
+    expect(DEMO_SPIGOT_LENGTHS).toHaveLength(60);
+    expect(DEMO_COST_GROWTH).toHaveLength(30);
+    const s = summarise(DEMO_SPIGOT_LENGTHS);
+    expect(Math.abs(s.mean - 12.006)).toBeLessThan(4 * (0.008 / Math.sqrt(60)));
+    // Against the demo stack's 12.00 ± 0.03 mm the data give a Ppk a consultant can act on (below 1.33).
+    const c = dataCapability(DEMO_SPIGOT_LENGTHS, 12, 0.03, 0.03);
+    expect(c.ppk!).toBeGreaterThan(0.6);
+    expect(c.ppk!).toBeLessThan(1.33);
+    expect(Math.min(...DEMO_COST_GROWTH)).toBeGreaterThan(0.7);
+  });
+});

@@ -1,0 +1,15 @@
+import { route, json } from '@/lib/http/handler';
+import { requireMember } from '@/lib/auth/guard';
+import { listDatasets } from '@/db/datasets';
+import { uploadDataset } from '@/lib/datasets/service';
+
+export const GET = route(async () => {
+  const m = await requireMember('models.read');
+  return json({ datasets: await listDatasets(m.firmId) });
+});
+
+/** Multipart: `file` (CSV) or `text` (a pasted column), with `name`, `unit`, `column` (index) and `drop` (row numbers). */
+export const POST = route(async (req) => {
+  const m = await requireMember('models.edit');
+  return json(await uploadDataset(m, req), 201);
+});
