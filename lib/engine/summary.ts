@@ -202,9 +202,9 @@ export function summarizeOutput(id: string, label: string, unit: string, column:
   if (sd !== null && sd > 0) {
     for (const pe of percentiles) {
       if (pe.p < 0.05 - 1e-12 || pe.p > 0.95 + 1e-12) continue;
-      const hw = pe.ci ? (pe.ci.high - pe.ci.low) / 2 / sd : Infinity;
-      if (worst === null || hw > worst) worst = hw;
-      if (hw > CONVERGENCE_RULES.percentileHalfWidthOverSd) {
+      const hw = pe.ci ? (pe.ci.high - pe.ci.low) / 2 / sd : null;
+      if (hw !== null && (worst === null || hw > worst)) worst = hw;
+      if (hw === null || hw > CONVERGENCE_RULES.percentileHalfWidthOverSd) {
         enough = false;
         reasons.push(
           pe.ci

@@ -63,6 +63,13 @@ describe('reproducibility', () => {
   });
 });
 
+describe('results are plain JSON', () => {
+  it.each(variants)('%s: no NaN or infinity hides in the statistics', (_n, model) => {
+    const r = runModelSync(model);
+    expect(JSON.parse(JSON.stringify(r))).toEqual(r);
+  });
+});
+
 describe('common random numbers: one sub-stream per input', () => {
   it('changing one contributor leaves every other contributor column bit-identical (Monte Carlo and LHS)', () => {
     for (const design of ['monte-carlo', 'latin-hypercube']) {
