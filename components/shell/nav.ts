@@ -6,6 +6,7 @@ export const NAV: ReadonlyArray<NavItem & { permission: Permission }> = [
   { href: '/app/models', label: 'Models', icon: 'models', permission: 'models.read' },
   { href: '/app/datasets', label: 'Datasets', icon: 'models', permission: 'models.read' },
   { href: '/app/clients', label: 'Clients', icon: 'clients', permission: 'firm.read' },
+  { href: '/app/snapshots', label: 'Snapshots', icon: 'clients', permission: 'clients.manage' },
   { href: '/app/team', label: 'Team', icon: 'team', permission: 'team.manage' },
   { href: '/app/billing', label: 'Billing', icon: 'billing', permission: 'billing.manage' },
   { href: '/app/settings', label: 'Settings', icon: 'settings', permission: 'firm.read' },

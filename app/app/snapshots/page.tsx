@@ -1,0 +1,23 @@
+import type { Metadata } from 'next';
+import { requirePageMember } from '@/lib/auth/guard';
+import { PageHeader } from '@/components/ui/page-header';
+import { SnapshotsList } from '@/components/snapshots/snapshots-list';
+
+export const metadata: Metadata = { title: 'Snapshots' };
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/;
+
+export default async function SnapshotsPage({ searchParams }: { searchParams: Promise<{ clientId?: string | string[] }> }) {
+  await requirePageMember('clients.manage', '/app/snapshots');
+  const raw = (await searchParams).clientId;
+  const clientId = typeof raw === 'string' && UUID.test(raw) ? raw : null;
+  return (
+    <>
+      <PageHeader
+        title="Snapshots"
+        description="PDF snapshots your clients' viewers asked for by e-mail, and whether each one reached its recipient."
+      />
+      <SnapshotsList initialClientId={clientId} />
+    </>
+  );
+}
