@@ -159,6 +159,13 @@ export function CheckView({ modelId, number, userId, canCheck }: CheckViewProps)
             Saved by {v.authorName ?? 'a former member'}, <DateText iso={v.createdAt} mode="absolute" /> <CheckStatePill state={v.checkState} />
           </span>
         }
+        actions={
+          canDecide ? (
+            <a href="#check-decision" className="text-sm font-medium text-accent-800 underline">
+              Go to your decision
+            </a>
+          ) : null
+        }
       />
       {v.note ? (
         <Card className="mb-4" title="Author’s note">
@@ -265,7 +272,7 @@ export function CheckView({ modelId, number, userId, canCheck }: CheckViewProps)
       </section>
 
       {canDecide ? (
-        <Card title="Your decision" className="mt-6">
+        <Card title="Your decision" className="mt-6" id="check-decision">
           <form
             noValidate
             className="space-y-3"

@@ -53,6 +53,7 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
   const [serverErrors, setServerErrors] = useState<Record<string, string[]> | undefined>(undefined);
   const [tab, setTab] = useState('versions');
   const [clientPreview, setClientPreview] = useState(false);
+  const [narrow, setNarrow] = useState(false);
 
   // The editor starts from the latest version, or from the model's starting point before the first save.
   if (data && !work) {
@@ -98,10 +99,56 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
     };
   }, [data, work?.lastValid, firmBrandColor]);
 
+  // Stable elements: typing in the editor re-renders the studio, but neither the editor (it keeps its own state)
+  // nor the version history and publishing tabs need to render again for it.
+  const loaded = work?.loaded;
+  const editor = useMemo(
+    () => (loaded ? <ModelEditor value={loaded as StochosModel} onChange={onEditorChange} readOnly={!canEdit} errors={serverErrors} /> : null),
+    [loaded, onEditorChange, canEdit, serverErrors],
+  );
+  const record = useMemo(() => {
+    if (!data) return null;
+    const isArchived = Boolean(data.model.archivedAt);
+    return (
+      <Tabs
+        label="Model record"
+        value={tab}
+        onChange={setTab}
+        tabs={[
+          {
+            id: 'versions',
+            label: `Versions (${data.versions.length})`,
+            content: <VersionHistory modelId={modelId} versions={data.versions} publishedNumber={data.widget?.versionNumber ?? null} userId={userId} canCheck={abilities.check} />,
+          },
+          {
+            id: 'publish',
+            label: data.widget ? 'Widget' : 'Publish',
+            content: (
+              <PublishPanel
+                modelId={modelId}
+                modelTitle={data.model.title}
+                template={data.model.template}
+                versions={data.versions}
+                widget={data.widget}
+                requireCheck={data.requireCheck}
+                firmBrandColor={firmBrandColor}
+                canPublish={abilities.publish && !isArchived}
+                onChanged={() => void mutate()}
+                renderPreview={({ model: m, widget: w, signedOffAt }) => (
+                  <WidgetView model={m} widget={w} branding={{ firmName, brandColor: w.brandColor, logoUrl: null }} versionInfo={{ number: w.versionNumber, signedOffAt }} />
+                )}
+              />
+            ),
+          },
+        ]}
+      />
+    );
+  }, [data, tab, modelId, userId, abilities.check, abilities.publish, firmBrandColor, firmName, mutate]);
+
   if (error) return <LoadError error={error} what="this model" onRetry={() => mutate()} />;
   if (!data || !work) return <Loading>Loading the model…</Loading>;
 
-  const { model, versions, latest, widget, requireCheck } = data;
+  const { model, versions, latest, widget } = data;
   const newer = latest && latest.number > work.base ? latest : null;
 
   return (
@@ -161,9 +208,17 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
       ) : null}
 
       {clientPreview ? (
-        <Card title="Preview as client" description="The widget as a client viewer sees it, with the dials you offer. Nothing here is published.">
+        <Card
+          title="Preview as client"
+          description="The widget as a client viewer sees it, with the dials you offer. Nothing here is published."
+          actions={
+            <Button size="sm" variant="secondary" aria-pressed={narrow} onClick={() => setNarrow((n) => !n)}>
+              {narrow ? 'Wide column' : 'Narrow column (360 px)'}
+            </Button>
+          }
+        >
           {work.lastValid ? (
-            <div className="mx-auto max-w-3xl">
+            <div className={narrow ? 'mx-auto w-[360px] max-w-full' : 'mx-auto max-w-3xl'}>
               <WidgetView
                 model={work.lastValid}
                 widget={previewWidget}
@@ -176,7 +231,7 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
           )}
         </Card>
       ) : (
-        <div className="grid gap-5 xl:grid-cols-[minmax(0,1.15fr)_minmax(0,1fr)]">
+        <div className="grid gap-5 xl:grid-cols-2">
           <section aria-label="Model" className="min-w-0 space-y-4">
             {canEdit ? (
               <Card>
@@ -199,10 +254,11 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
                 {abilities.check ? 'Checkers read models here and sign off versions from the version history.' : 'Authors edit models; you can read this one and run its preview.'}
               </Banner>
             )}
-            <ModelEditor value={work.loaded as StochosModel} onChange={onEditorChange} readOnly={!canEdit} errors={serverErrors} />
+            {editor}
           </section>
           <section aria-label="Live preview" className="min-w-0 xl:sticky xl:top-4 xl:self-start">
-            <ResultsPreview model={work.lastValid} />
+            {/* The editor already waits for typing to pause, so the preview starts almost at once. */}
+            <ResultsPreview model={work.lastValid} debounceMs={30} />
             {!work.valid && work.lastValid ? (
               <p className="mt-2 text-sm text-warn-700" role="status">
                 The preview shows the last model without problems; fix the editor’s problems to see your latest edit.
@@ -212,40 +268,7 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
         </div>
       )}
 
-      <div className="mt-8">
-        <Tabs
-          label="Model record"
-          value={tab}
-          onChange={setTab}
-          tabs={[
-            {
-              id: 'versions',
-              label: `Versions (${versions.length})`,
-              content: <VersionHistory modelId={modelId} versions={versions} publishedNumber={widget?.versionNumber ?? null} userId={userId} canCheck={abilities.check} />,
-            },
-            {
-              id: 'publish',
-              label: widget ? 'Widget' : 'Publish',
-              content: (
-                <PublishPanel
-                  modelId={modelId}
-                  modelTitle={model.title}
-                  template={model.template}
-                  versions={versions}
-                  widget={widget}
-                  requireCheck={requireCheck}
-                  firmBrandColor={firmBrandColor}
-                  canPublish={abilities.publish && !archived}
-                  onChanged={() => void mutate()}
-                  renderPreview={({ model: m, widget: w, signedOffAt }) => (
-                    <WidgetView model={m} widget={w} branding={{ firmName, brandColor: w.brandColor, logoUrl: null }} versionInfo={{ number: w.versionNumber, signedOffAt }} />
-                  )}
-                />
-              ),
-            },
-          ]}
-        />
-      </div>
+      <div className="mt-8">{record}      </div>
     </>
   );
 }

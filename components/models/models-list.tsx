@@ -111,7 +111,7 @@ export function ModelsList({ canEdit, isChecker }: ModelsListProps) {
       key: 'actions',
       header: <span className="sr-only">Actions</span>,
       cell: (m) => (
-        <span className="flex flex-wrap justify-end gap-1.5">
+        <span className="flex flex-nowrap justify-end gap-1.5 whitespace-nowrap">
           <Button size="sm" variant="ghost" aria-label={`Duplicate ${m.title}`} onClick={() => act(() => duplicate(m.id)).catch(() => undefined)}>
             Duplicate
           </Button>

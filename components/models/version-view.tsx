@@ -72,7 +72,7 @@ export function VersionView({ modelId, number, userId, canCheck }: { modelId: st
           ) : null}
         </Banner>
       ) : null}
-      <div className="grid gap-5 xl:grid-cols-[minmax(0,1.15fr)_minmax(0,1fr)]">
+      <div className="grid gap-5 xl:grid-cols-2">
         <section aria-label="Model" className="min-w-0">
           <ModelEditor value={m} onChange={noop} readOnly />
         </section>
