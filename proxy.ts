@@ -1,15 +1,11 @@
 import { NextResponse, type NextRequest } from 'next/server';
-import { embedResponseHeaders } from '@/lib/embed/headers';
+import { embedProxy } from '@/lib/embed/proxy';
 
 // Redirects signed-out dashboard visitors to sign-in, and sets the per-client framing headers of embed pages.
 // Authorization happens in the server layer, not here.
 export async function proxy(req: NextRequest) {
   const { pathname } = req.nextUrl;
-  if (pathname.startsWith('/embed/')) {
-    const res = NextResponse.next();
-    for (const [k, v] of Object.entries(await embedResponseHeaders(pathname, req.nextUrl.searchParams))) res.headers.set(k, v);
-    return res;
-  }
+  if (pathname.startsWith('/embed/')) return embedProxy(req);
   const hasSession = req.cookies.has('next-auth.session-token') || req.cookies.has('__Secure-next-auth.session-token');
   if (!hasSession) {
     const url = new URL('/sign-in', req.url);
