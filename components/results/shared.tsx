@@ -3,7 +3,8 @@
 import { useMemo, useState, type ReactNode } from 'react';
 import type { OutputSummary, RunResult } from '@/lib/engine';
 import { PERCENTILE_DEFINITION } from '@/lib/engine/stats';
-import { decimalsForSignificant, formatCount, formatDuration, formatPercent, formatPpm, formatValue, isCurrency } from '@/lib/charts/format';
+import { formatCount, formatDuration, formatPercent, formatPpm, formatValue } from '@/lib/charts/format';
+import { outputFormatter } from '@/lib/results/chart-inputs';
 import type { SpecLimits } from '@/lib/charts/spread';
 import { tablesToCsv } from '@/lib/results/csv';
 import { resultTables } from '@/lib/results/tables';
@@ -168,7 +169,6 @@ export function fa(v: number | null | undefined, unit: string | null | undefined
  * standard deviation to two significant digits (money keeps four significant digits and k/M).
  */
 export function outputFormat(unit: string | null | undefined, sd: number | null | undefined): (v: number | null | undefined) => string {
-  if (isCurrency(unit) || sd === null || sd === undefined || !(sd > 0)) return (v) => fv(v, unit);
-  const decimals = Math.min(8, decimalsForSignificant(sd, 2));
-  return (v) => (v === null || v === undefined ? '—' : formatValue(v, unit, { decimals }));
+  const f = outputFormatter({ unit: unit ?? '', sd: sd ?? null });
+  return (v) => (v === null || v === undefined ? '—' : f(v));
 }

@@ -1,7 +1,8 @@
 // The one figure a client asks for (a widget's "headline"), read from a run. Ids are those the
 // publishing form offers (lib/models/widget-options.ts); the widget and the PDF snapshot print the same text.
 import type { OutputSummary, RunResult } from '@/lib/engine';
-import { decimalsForSignificant, formatFixed, formatPercent, formatPpm, formatValue, isCurrency, percentileName } from '@/lib/charts/format';
+import { formatFixed, formatPercent, formatPpm, formatValue, percentileName } from '@/lib/charts/format';
+import { outputFormatter } from './chart-inputs';
 
 export interface HeadlineFigure {
   id: string;
@@ -15,11 +16,10 @@ export interface HeadlineFigure {
   term: 'ppm' | 'Ppk' | 'P50' | 'P80' | 'P90' | 'contingency' | null;
 }
 
-/** Shared decimals for an output's figures (two significant digits of the standard deviation; money: four significant digits). */
+/** The output's shared formatter, printing '—' for missing values. */
 function fmt(unit: string, sd: number | null): (v: number | null | undefined) => string {
-  if (isCurrency(unit) || sd === null || !(sd > 0)) return (v) => (v == null ? '—' : formatValue(v, unit, { significant: 4 }));
-  const decimals = Math.min(8, decimalsForSignificant(sd, 2));
-  return (v) => (v == null ? '—' : formatValue(v, unit, { decimals }));
+  const f = outputFormatter({ unit, sd });
+  return (v) => (v == null ? '—' : f(v));
 }
 
 const typed = (v: number, unit: string) => formatValue(v, unit, { significant: 6, trim: true });
