@@ -88,7 +88,8 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
     return out;
   }, [dials, values]);
 
-  const sim = useSimulation(checked.ok ? model : null, current, { samples: 'none' });
+  // A dial move is one discrete step: a short wait is enough to merge a burst of key presses.
+  const sim = useSimulation(checked.ok ? model : null, current, { samples: 'none', debounceMs: 30 });
   const colors = useMemo(() => brandColors(branding.brandColor), [branding.brandColor]);
 
   const setDial = useCallback(
