@@ -3,7 +3,7 @@
  * Kolmogorov–Smirnov statistics beside each. Pure functions: used by the API, the pages and the tests.
  */
 import { lgamma, normalCdf, normalQuantile } from '@/lib/engine/special';
-import { digamma, regLowerGamma, trigamma } from './special';
+import { logMinusDigamma, regLowerGamma, trigamma } from './special';
 
 export const LAWS = ['normal', 'lognormal', 'weibull', 'gamma', 'exponential', 'uniform'] as const;
 export type Law = (typeof LAWS)[number];
@@ -283,12 +283,12 @@ function fitGamma(x: ArrayLike<number>, maxIter: number): Est {
   if (!(s > 0)) throw new FitError('The gamma shape equation has no solution for these data.');
   let k = (3 - s + Math.sqrt((s - 3) ** 2 + 24 * s)) / (12 * s);
   for (let it = 1; it <= maxIter; it++) {
-    const f = Math.log(k) - digamma(k) - s;
+    const f = logMinusDigamma(k) - s;
     const df = 1 / k - trigamma(k);
     let next = k - f / df;
     if (!(next > 0)) next = k / 2;
     if (!Number.isFinite(next)) break;
-    const done = Math.abs(next - k) <= 1e-12 * k;
+    const done = Math.abs(next - k) <= 1e-11 * k;
     k = next;
     if (done) {
       const scale = mean / k;

@@ -16,7 +16,7 @@ import {
   type Law,
   type LawParams,
 } from '@/lib/datasets/fit';
-import { digamma, regLowerGamma, trigamma } from '@/lib/datasets/special';
+import { digamma, logMinusDigamma, regLowerGamma, trigamma } from '@/lib/datasets/special';
 
 // Seeded uniforms in (0, 1) for generating samples with known parameters.
 function uniforms(seed: string, n: number): number[] {
@@ -46,6 +46,9 @@ describe('special functions for the fits', () => {
     // Abramowitz & Stegun 6.4.2: ψ'(1) = π²/6; ψ'(1/2) = π²/2 (from memory)
     expect(trigamma(1)).toBeCloseTo(Math.PI ** 2 / 6, 12);
     expect(trigamma(0.5)).toBeCloseTo(Math.PI ** 2 / 2, 12);
+    // ln x − ψ(x) agrees with the direct difference where that is accurate, and tends to 1/(2x) (A&S 6.3.18)
+    for (const x of [10, 37.5, 400]) expect(logMinusDigamma(x)).toBeCloseTo(Math.log(x) - digamma(x), 13);
+    expect(logMinusDigamma(1e7) * 2e7).toBeCloseTo(1 + 1 / 6e7, 12);
   });
 
   it('regularised lower incomplete gamma: closed forms and jstat', () => {
@@ -55,7 +58,11 @@ describe('special functions for the fits', () => {
     for (const x of [0.1, 1, 4]) expect(regLowerGamma(0.5, x)).toBeCloseTo(2 * jStat.normal.cdf(Math.sqrt(2 * x), 0, 1) - 1, 10);
     // jstat 1.9.6 lowRegGamma (MIT; its tests were checked against R)
     const low = (jStat as unknown as { lowRegGamma(a: number, x: number): number }).lowRegGamma;
-    for (const [a, x] of [[2.5, 1], [2.5, 6], [10, 8], [0.3, 0.2], [40, 45]]) expect(regLowerGamma(a, x)).toBeCloseTo(low(a, x), 9);
+    for (const [a, x] of [[2.5, 1], [2.5, 6], [10, 8], [0.3, 0.2], [40, 45], [5000, 5100]]) expect(regLowerGamma(a, x)).toBeCloseTo(low(a, x), 9);
+    // Very large shapes (narrow positive data): P(a, a) → 1/2 + 1/(3√(2πa)) (Temme's uniform expansion; from memory)
+    for (const a of [2e4, 1e6, 4e7]) expect(regLowerGamma(a, a)).toBeCloseTo(0.5 + 1 / (3 * Math.sqrt(2 * Math.PI * a)), 6);
+    // Continuity where the method changes (series below 1e7, Wilson–Hilferty above).
+    expect(Math.abs(regLowerGamma(1e7, 1.001e7) - regLowerGamma(1e7 + 1e-3, 1.001e7))).toBeLessThan(1e-6);
   });
 });
 
@@ -132,6 +139,15 @@ describe('iterative maximum-likelihood fits', () => {
     expect(e.logLik).toBeCloseTo(x.reduce((acc, t) => acc + Math.log(lawPdf('gamma', e.params, t)), 0), 6);
     // Minka's closed-form start is already within a few per cent of the root; Newton then needs few steps.
     expect(e.iterations).toBeLessThan(8);
+  });
+
+  it('gamma on narrow data (huge shape) still matches the data: KS close to the normal fit', () => {
+    const x = sample('normal', { mean: 12, sd: 0.01 }, 'narrow', 60);
+    const r = fitAll(x).filter((f): f is FitOk => f.ok);
+    const g = r.find((f) => f.law === 'gamma')!;
+    const n = r.find((f) => f.law === 'normal')!;
+    expect(g.params.shape).toBeGreaterThan(1e5);
+    expect(Math.abs(g.ks - n.ks)).toBeLessThan(0.02);
   });
 
   it('a fit that does not converge is reported for that law, and the others are kept', () => {
