@@ -40,6 +40,12 @@ export interface RejectionEnvelope {
   density(x: number): number;
   /** 1 / (M (b - a)): the acceptance rate the box gives. */
   expectedAcceptance: number;
+  /**
+   * Points inside (a, b) where the density may turn (mode, vertices): with the cell edges
+   * they bound the density on each cell, which lets the sampler decide most candidates
+   * without evaluating it (a squeeze; the decisions are the same).
+   */
+  turningPoints?: number[];
 }
 
 export interface Marginal {
@@ -269,7 +275,7 @@ function pert(a: number, m: number, b: number, spec: DistributionSpec): Marginal
     mean,
     variance: ((mean - a) * (b - mean)) / 7,
     natural: 'rejection',
-    envelope: { a, b, M, density, expectedAcceptance: 1 / (M * w) },
+    envelope: { a, b, M, density, expectedAcceptance: 1 / (M * w), turningPoints: [m] },
     inv: (p) => {
       if (!table) table = new TabulatedInverse(a, b, cdf, density);
       return table.inv(p);
@@ -591,7 +597,7 @@ function drawn(points: { x: number; y: number }[], spec: DistributionSpec): Marg
     mean,
     variance: Math.max(0, m2 / area - mean * mean),
     natural: 'rejection',
-    envelope: { a, b, M, density, expectedAcceptance: 1 / (M * (b - a)) },
+    envelope: { a, b, M, density, expectedAcceptance: 1 / (M * (b - a)), turningPoints: Array.from(xs) },
     inv: (p) => {
       const target = p * area;
       // Segment i (between points i-1 and i) with cum[i-1] <= target < cum[i].

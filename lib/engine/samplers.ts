@@ -184,6 +184,9 @@ function oneIn(rate: number): string {
   return `1 in ${Math.round(1 / rate).toLocaleString('en-US')}`;
 }
 
+/** Cells of the squeeze table used to skip most density evaluations. */
+const SQUEEZE_CELLS = 256;
+
 /** Smallest acceptance rate a box envelope may have before a run is refused. */
 export const MIN_ACCEPTANCE = 1e-3;
 /** Attempts for a single draw after which the sampler gives up. */
@@ -201,6 +204,9 @@ export class RejectionSampler implements ColumnSampler {
   readonly method = 'rejection' as const;
   attempts = 0;
   accepted = 0;
+  /** Per-cell lower and upper bounds of the density (squeeze), or null. */
+  private readonly lower: Float64Array | null = null;
+  private readonly upper: Float64Array | null = null;
 
   constructor(
     private readonly env: RejectionEnvelope,
@@ -215,6 +221,40 @@ export class RejectionSampler implements ColumnSampler {
         label,
       );
     }
+    if (env.turningPoints) {
+      // Between turning points the density is monotone, so on each cell its extremes are at
+      // the cell's ends or at a turning point inside it. Bounds are widened by a relative
+      // 1e-9 so rounding can never make a squeeze decision differ from evaluating f.
+      const cells = SQUEEZE_CELLS;
+      const lo = new Float64Array(cells);
+      const hi = new Float64Array(cells);
+      const span = env.b - env.a;
+      const turns = env.turningPoints.filter((t) => t > env.a && t < env.b).sort((x, y) => x - y);
+      let ti = 0;
+      let fPrev = env.density(env.a);
+      for (let c = 0; c < cells; c++) {
+        // Cell edges computed as candidates are (a + w v, rounding is monotone), so every
+        // candidate with v in [c/cells, (c+1)/cells) lies between them.
+        const x0 = env.a + span * (c / cells);
+        const x1 = env.a + span * ((c + 1) / cells);
+        const f1 = env.density(x1);
+        let mn = Math.min(fPrev, f1);
+        let mx = Math.max(fPrev, f1);
+        while (ti < turns.length && turns[ti] < x1) {
+          if (turns[ti] > x0) {
+            const ft = env.density(turns[ti]);
+            mn = Math.min(mn, ft);
+            mx = Math.max(mx, ft);
+          }
+          ti++;
+        }
+        lo[c] = mn * (1 - 1e-9);
+        hi[c] = mx * (1 + 1e-9);
+        fPrev = f1;
+      }
+      this.lower = lo;
+      this.upper = hi;
+    }
   }
 
   private who(): string {
@@ -226,14 +266,33 @@ export class RejectionSampler implements ColumnSampler {
     const w = b - a;
     const s = this.stream;
     const limit = M * (1 + 1e-9);
+    const lower = this.lower;
+    const upper = this.upper;
+    const cellScale = SQUEEZE_CELLS;
     let attempts = this.attempts;
     for (let k = start; k < start + count; k++) {
       let tries = 0;
       for (;;) {
-        const x = a + w * s.uniform();
+        const v = s.uniform();
+        const x = a + w * v;
         const u = s.uniform();
         attempts++;
         tries++;
+        const uM = u * M;
+        if (lower !== null && upper !== null) {
+          const c = Math.min(cellScale - 1, Math.floor(v * cellScale));
+          if (uM < lower[c]) {
+            out[k] = x;
+            break;
+          }
+          if (uM >= upper[c]) {
+            if (tries >= MAX_ATTEMPTS_PER_DRAW) {
+              this.attempts = attempts;
+              throw this.collapse();
+            }
+            continue;
+          }
+        }
         const fx = density(x);
         if (fx > limit) {
           throw new SamplingError(
@@ -243,7 +302,7 @@ export class RejectionSampler implements ColumnSampler {
             this.label,
           );
         }
-        if (u * M < fx) {
+        if (uM < fx) {
           out[k] = x;
           break;
         }
