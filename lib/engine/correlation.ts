@@ -21,9 +21,12 @@ import { Stream } from './rng';
 import type { SamplerContext, SamplingMethod, ScoreSource } from './samplers';
 import { scoreSourceFor } from './samplers';
 import { argsort, sortedCopy } from './sort';
-import { normalCdfPair, normalCdfPairUpper, normalQuantilePQ } from './special';
+import * as special from './special';
 import { correlationMatrix, pearson, RankCache } from './stats';
 import * as detMath from './det-math';
+
+// Bound once (see det-math): hot loops call these per sample.
+const { normalCdfPair, normalCdfPairUpper, normalQuantilePQ } = special;
 
 // Bound once: module interop in some runtimes turns each imported call into a getter call.
 const { asin, exp, sin } = detMath;

@@ -5,8 +5,11 @@
  * Every inverse CDF takes the lower probability p and its complement q = 1 - p, so the
  * upper tail keeps its precision when p comes from Phi(z) of a large z (Gaussian copula).
  */
-import { gamma, lbeta, normalCdfPair, normalCdfPairUpper, normalPdf, normalQuantilePQ, regIncBeta } from './special';
+import * as special from './special';
 import * as detMath from './det-math';
+
+// Bound once (see det-math): hot loops call these per sample.
+const { gamma, lbeta, normalCdfPair, normalCdfPairUpper, normalPdf, normalQuantilePQ, regIncBeta } = special;
 
 // Bound once: module interop in some runtimes turns each imported call into a getter call.
 const { cos, exp, expm1, ln, log1p } = detMath;

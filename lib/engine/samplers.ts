@@ -6,7 +6,10 @@ import { fillInverse, type Marginal, type RejectionEnvelope } from './distributi
 import { SamplingError } from './errors';
 import { createNormalGenerator, type NormalGenerator, type NormalMethod } from './normal-gen';
 import { Stream } from './rng';
-import { normalQuantilePQ } from './special';
+import * as special from './special';
+
+// Bound once (see det-math): hot loops call these per sample.
+const { normalQuantilePQ } = special;
 
 export type Design = 'monte-carlo' | 'latin-hypercube';
 
