@@ -6,7 +6,7 @@ import { ResultsPreview } from '@/components/results';
 import { Banner, Button, Card, DateText, EmptyState, FieldError, FormError, LoadError, Loading, PageHeader, StatusPill, cx } from '@/components/ui';
 import { ApiError, errorMessage } from '@/lib/client/api';
 import type { StochosModel } from '@/lib/engine/schema';
-import { diffModels, summarise, type DiffEntry, type DiffKind } from '@/lib/models/diff';
+import { diffModels, formatDiffValue, summarise, type DiffEntry, type DiffKind } from '@/lib/models/diff';
 import type { CheckComment, VersionRecord } from '@/lib/models/types';
 import { CheckStatePill } from './check-state-pill';
 import { checkVersion, useModel, useVersion } from './use-models';
@@ -16,21 +16,6 @@ export interface CheckViewProps {
   number: number;
   userId: string;
   canCheck: boolean;
-}
-
-/** A cell value as a short, exact text: numbers in full, lists inline, records as compact JSON. */
-export function formatDiffValue(v: unknown): string {
-  if (v === undefined) return '—';
-  if (v === null) return 'null';
-  if (typeof v === 'number') return String(v);
-  if (typeof v === 'string') return `“${v}”`;
-  if (typeof v === 'boolean') return v ? 'yes' : 'no';
-  if (Array.isArray(v) && v.every((x) => typeof x === 'number' || typeof x === 'string')) {
-    const s = v.join(', ');
-    return s.length > 160 ? `${v.length} values: ${s.slice(0, 150)}…` : `[${s}]`;
-  }
-  const s = JSON.stringify(v);
-  return s.length > 200 ? `${s.slice(0, 190)}…` : s;
 }
 
 const KIND_LABEL: Record<DiffKind, string> = { added: 'Added', removed: 'Removed', changed: 'Changed', reordered: 'Reordered' };

@@ -7,6 +7,7 @@ import { ResultsPreview } from '@/components/results';
 import { WidgetView } from '@/components/widget';
 import { Badge, Banner, Button, Card, DateText, LoadError, Loading, PageHeader, StatusPill, Tabs } from '@/components/ui';
 import type { StochosModel } from '@/lib/engine/schema';
+import { editorFieldErrors } from '@/lib/models/field-errors';
 import { TEMPLATE_LABELS } from '@/lib/models/templates';
 import { DEFAULT_PANELS, defaultHeadline } from '@/lib/models/widget-options';
 import { CheckStatePill } from './check-state-pill';
@@ -34,16 +35,6 @@ interface Working {
   valid: boolean;
   /** The last model that passed every check: the preview keeps running it while the editor shows problems. */
   lastValid: StochosModel | null;
-}
-
-/** Field messages of a 422 arrive as "model.items.0.low"; the editor names fields from the model's root. */
-export function editorFieldErrors(fields: Record<string, string[]>): Record<string, string[]> {
-  const out: Record<string, string[]> = {};
-  for (const [k, v] of Object.entries(fields)) {
-    if (k === 'model') (out._ ??= []).push(...v);
-    else if (k.startsWith('model.')) out[k.slice('model.'.length)] = v;
-  }
-  return out;
 }
 
 /** The studio: the editor beside a live preview, saving versions, the version history and publishing. */

@@ -149,3 +149,18 @@ export function summarise(entries: readonly DiffEntry[]): Record<DiffKind, numbe
 export function pathWithin(path: string, prefix: string): boolean {
   return prefix === '' || path === prefix || path.startsWith(`${prefix}.`);
 }
+
+/** A cell value as a short, exact text: numbers in full, lists inline, records as compact JSON. */
+export function formatDiffValue(v: unknown): string {
+  if (v === undefined) return '—';
+  if (v === null) return 'null';
+  if (typeof v === 'number') return String(v);
+  if (typeof v === 'string') return `“${v}”`;
+  if (typeof v === 'boolean') return v ? 'yes' : 'no';
+  if (Array.isArray(v) && v.every((x) => typeof x === 'number' || typeof x === 'string')) {
+    const s = v.join(', ');
+    return s.length > 160 ? `${v.length} values: ${s.slice(0, 150)}…` : `[${s}]`;
+  }
+  const s = JSON.stringify(v);
+  return s.length > 200 ? `${s.slice(0, 190)}…` : s;
+}

@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { diffModels, summarise, humanKey, pathWithin } from '@/lib/models/diff';
+import { diffModels, formatDiffValue, summarise, humanKey, pathWithin } from '@/lib/models/diff';
+import { editorFieldErrors } from '@/lib/models/field-errors';
 
 const base = {
   schema: 'stochos.model/1',
@@ -109,3 +110,31 @@ describe('helpers', () => {
     expect(pathWithin('anything', '')).toBe(true);
   });
 });
+
+describe('formatDiffValue', () => {
+  it('shows each kind of value exactly and briefly', () => {
+    expect(formatDiffValue(undefined)).toBe('—');
+    expect(formatDiffValue(null)).toBe('null');
+    expect(formatDiffValue(0.1 + 0.2)).toBe('0.30000000000000004');
+    expect(formatDiffValue('pert')).toBe('“pert”');
+    expect(formatDiffValue(true)).toBe('yes');
+    expect(formatDiffValue([1, 2, 3])).toBe('[1, 2, 3]');
+    expect(formatDiffValue({ type: 'normal', k: 3 })).toBe('{"type":"normal","k":3}');
+  });
+  it('shortens long lists and records', () => {
+    const data = Array.from({ length: 100 }, (_, i) => 16.9 + i / 1000);
+    expect(formatDiffValue(data)).toMatch(/^100 values: 16\.9, 16\.901, .*…$/);
+    expect(formatDiffValue({ data }).length).toBe(191);
+  });
+});
+
+describe('editorFieldErrors', () => {
+  it('strips the request’s "model." prefix and sends whole-model messages to "_"', () => {
+    expect(editorFieldErrors({ 'model.items.0.low': ['a'], model: ['b'], baseVersion: ['c'], 'model.settings.trials': ['d'] })).toEqual({
+      'items.0.low': ['a'],
+      _: ['b'],
+      'settings.trials': ['d'],
+    });
+  });
+});
+
