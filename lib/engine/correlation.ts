@@ -75,7 +75,7 @@ export class CopulaGroupSampler {
 
   /** Fill each member's column over [start, start + count). */
   fill(columns: Float64Array[], start: number, count: number): void {
-    const acc = this.acc;
+    const accBuf = this.acc;
     const qb = this.q;
     const Z = this.z;
     for (let s = 0; s < count; s += BLOCK) {
@@ -85,6 +85,10 @@ export class CopulaGroupSampler {
       for (let i = 0; i < this.rows.length; i++) {
         const row = this.rows[i];
         const { js, cs } = row;
+        // Normal members accumulate straight into their column; the others into a buffer.
+        const out = columns[i];
+        const direct = row.mode === 'normal';
+        const acc = direct ? out.subarray(base, base + c) : accBuf;
         acc.fill(row.a, 0, c);
         // Sum of coefficient * score, four scores per pass, in a fixed order.
         let g = 0;
@@ -104,9 +108,8 @@ export class CopulaGroupSampler {
           const c0 = cs[g];
           for (let t = 0; t < c; t++) acc[t] += c0 * z0[t];
         }
-        const out = columns[i];
-        if (row.mode === 'normal') {
-          out.set(acc.subarray(0, c), base);
+        if (direct) {
+          // Already in place.
         } else if (row.mode === 'lognormal') {
           for (let t = 0; t < c; t++) out[base + t] = exp(acc[t]);
         } else {

@@ -638,10 +638,32 @@ function compileCall(fn: FormulaFunction, args: Compiled[]): Compiled {
     case 'max':
       return fold(Math.max);
     case 'sum':
-      return fold((x, y) => x + y);
     case 'mean': {
       const n = args.length;
-      return fold((x, y) => x + y, (x) => x / n);
+      if (args.every((a) => a.scalar)) {
+        let v = 0;
+        for (const a of args) v += (a as { value: number }).value;
+        return { scalar: true, value: fn === 'mean' ? v / n : v };
+      }
+      // Left-to-right sum with plain additions (the commonest formula: worth its own loop).
+      const buf = new Float64Array(FORMULA_BLOCK);
+      return vec((s, c) => {
+        const first = args[0];
+        if (first.scalar) buf.fill(first.value, 0, c);
+        else buf.set(first.run(s, c).subarray(0, c));
+        for (let i = 1; i < args.length; i++) {
+          const a = args[i];
+          if (a.scalar) {
+            const v = a.value;
+            for (let k = 0; k < c; k++) buf[k] += v;
+          } else {
+            const x = a.run(s, c);
+            for (let k = 0; k < c; k++) buf[k] += x[k];
+          }
+        }
+        if (fn === 'mean') for (let k = 0; k < c; k++) buf[k] /= n;
+        return buf;
+      });
     }
     case 'hypot': {
       if (args.length === 1) return compileCall('abs', args);

@@ -124,32 +124,32 @@ export class ZigguratGenerator implements NormalGenerator {
   fill(out: Float64Array, start: number, count: number): void {
     const s = this.stream;
     const end = start + count;
-    let buf = s.buf;
-    let pos = s.pos;
-    const len = buf.length;
-    for (let k = start; k < end; k++) {
-      if (pos === len) {
-        s.pos = pos;
-        s.refill();
-        buf = s.buf;
-        pos = s.pos;
+    let k = start;
+    while (k < end) {
+      if (s.pos === s.buf.length) s.refill();
+      const buf = s.buf;
+      let pos = s.pos;
+      // A run over the buffered integers without per-draw bounds checks on the buffer.
+      const stop = Math.min(end, k + (buf.length - pos));
+      for (; k < stop; k++) {
+        const u = buf[pos++];
+        const i = u & 255;
+        const j = u >>> 9;
+        const xv = j * ZW[i];
+        const x = u & 256 ? -xv : xv;
+        if (j < ZK[i]) {
+          out[k] = x;
+        } else {
+          // The slow path draws from the same stream, in order; then start a new run.
+          s.pos = pos;
+          out[k] = this.slow(i, x);
+          k++;
+          pos = s.pos;
+          break;
+        }
       }
-      const u = buf[pos++];
-      const i = u & 255;
-      const j = u >>> 9;
-      const xv = j * ZW[i];
-      const x = u & 256 ? -xv : xv;
-      if (j < ZK[i]) {
-        out[k] = x;
-      } else {
-        // The slow path draws from the same stream, in order.
-        s.pos = pos;
-        out[k] = this.slow(i, x);
-        buf = s.buf;
-        pos = s.pos;
-      }
+      s.pos = pos;
     }
-    s.pos = pos;
   }
 }
 
