@@ -14,6 +14,7 @@ import { empiricalChoice, fittedChoice } from '@/lib/datasets/use';
 import type { DatasetDetail } from '@/lib/datasets/service';
 import { FitPlots } from './fit-plots';
 import { CapabilityPanel } from './capability-panel';
+import { UseInStack } from './use-in-stack';
 
 const num = (v: number) => (Number.isFinite(v) ? +v.toPrecision(6) + '' : '—');
 
@@ -146,6 +147,12 @@ export function DatasetDetailView({ detail, canEdit }: { detail: DatasetDetail; 
       <Card title="Process capability of the measured parts" description="For a linear stack contributor fed by these measurements: Pp/Ppk of the data against the contributor’s tolerance.">
         <CapabilityPanel values={ds.values} unit={ds.unit} initialNominal={+s.mean.toPrecision(4)} />
       </Card>
+
+      {canEdit && (
+        <Card title="Use in a stack" description="Feed a linear-stack contributor from these measurements and save it as a new version: see the parts’ Ppk against the contributor’s tolerance and how the gap’s Ppk changes.">
+          <UseInStack dataset={{ id: ds.id, name: ds.name, hash: ds.hash, unit: ds.unit, values: ds.values }} />
+        </Card>
+      )}
 
       {canEdit && (
         <Card title="Delete dataset">

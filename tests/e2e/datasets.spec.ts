@@ -23,11 +23,11 @@ async function newPage(browser: Browser, email: string): Promise<Page> {
   return page;
 }
 
-// 60 invented lengths (mm) from a fixed stream.
+// 60 invented cover spigot heights (mm, nominal 4.00 ± 0.03 in the example stack) from a fixed stream.
 function lengths(): number[] {
   let s = 99;
   const u = () => ((s = (s * 1103515245 + 12345) % 2147483648) + 0.5) / 2147483648;
-  return Array.from({ length: 60 }, () => +(12.004 + 0.009 * Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u())).toFixed(4));
+  return Array.from({ length: 60 }, () => +(4.004 + 0.009 * Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u())).toFixed(4));
 }
 
 test('an author uploads 60 measured lengths, picks the best law and sees the parts’ Ppk', async ({ browser }) => {
@@ -64,17 +64,31 @@ test('an author uploads 60 measured lengths, picks the best law and sees the par
   await expect(page.getByRole('button', { name: new RegExp(`Use this law \\(${LAW_LABELS[best.law]}\\)`) })).toBeVisible();
 
   // Capability of the parts against the contributor's tolerance, then a tighter one: Ppk moves as computed.
-  await page.getByRole('spinbutton', { name: 'Contributor nominal' }).fill('12');
+  await page.getByRole('spinbutton', { name: 'Contributor nominal' }).fill('4');
   await page.getByRole('spinbutton', { name: 'Plus tolerance' }).fill('0.03');
   await page.getByRole('spinbutton', { name: 'Minus tolerance' }).fill('0.03');
-  await expect(page.getByTestId('data-ppk')).toHaveText(dataCapability(values, 12, 0.03, 0.03).ppk!.toFixed(2));
+  await expect(page.getByTestId('data-ppk')).toHaveText(dataCapability(values, 4, 0.03, 0.03).ppk!.toFixed(2));
   await page.getByRole('spinbutton', { name: 'Plus tolerance' }).fill('0.02');
-  await expect(page.getByTestId('data-ppk')).toHaveText(dataCapability(values, 12, 0.02, 0.03).ppk!.toFixed(2));
+  await expect(page.getByTestId('data-ppk')).toHaveText(dataCapability(values, 4, 0.02, 0.03).ppk!.toFixed(2));
   await page.screenshot({ path: `${SHOTS}/detail.png`, fullPage: true });
 
-  // The library lists it.
+  // Use it in a stack: the contributor's Ppk from the data, and the gap's Ppk before and after.
+  const created = await page.request.post('/api/models', { data: { title: 'E2E spigot stack', template: 'linear-stack', start: 'example' } });
+  expect(created.status()).toBe(201);
+  await page.reload();
+  await page.getByRole('combobox', { name: 'Stack model' }).selectOption({ label: 'E2E spigot stack' });
+  await page.getByRole('combobox', { name: 'Contributor' }).selectOption({ label: 'Cover spigot height (4 +0.03/−0.03)' });
+  await expect(page.getByTestId('contributor-ppk')).toHaveText(dataCapability(values, 4, 0.03, 0.03).ppk!.toFixed(2));
+  const before = await page.getByTestId('stack-ppk-before').textContent();
+  await expect(page.getByTestId('stack-ppk-after')).not.toHaveText(before!);
+  await page.getByRole('button', { name: 'Save as a new version' }).click();
+  await expect(page.getByText(/Saved as version 1; its note records the dataset and its sha256/)).toBeVisible();
+  await page.screenshot({ path: `${SHOTS}/use-in-stack.png`, fullPage: true });
+
+  // The library lists it with its use.
   await page.goto('/app/datasets');
-  await expect(page.getByRole('link', { name: 'Spacer lengths, e2e' })).toBeVisible();
+  const row = page.getByRole('row', { name: /Spacer lengths, e2e/ });
+  await expect(row).toContainText('1 model');
 });
 
 test('the owner uploads a logo; an SVG is refused', async ({ browser }) => {

@@ -1,0 +1,158 @@
+'use client';
+
+import { useEffect, useMemo, useState } from 'react';
+import Link from 'next/link';
+import { Button } from '@/components/ui/button';
+import { Select } from '@/components/ui/field';
+import { Banner } from '@/components/ui/banner';
+import { Term } from '@/components/ui/term';
+import { evaluateStack } from '@/lib/engine/analytic';
+import { linearStackSchema, type LinearStackModel } from '@/lib/engine/schema';
+import { dataCapability } from '@/lib/datasets/summary';
+
+interface ModelRow {
+  id: string;
+  title: string;
+  template: string;
+  archivedAt: string | null;
+}
+
+type Method = 'normal-fit' | 'empirical';
+
+const fmt = (v: number | null) => (v === null || !Number.isFinite(v) ? '—' : v.toFixed(2));
+
+/**
+ * Feed a linear-stack contributor from this dataset and save it as a new version of the model. The version note
+ * names the dataset and its sha256, so the saved version records exactly which data it copied.
+ */
+export function UseInStack({ dataset }: { dataset: { id: string; name: string; hash: string; unit: string; values: number[] } }) {
+  const [models, setModels] = useState<ModelRow[] | null>(null);
+  const [modelId, setModelId] = useState('');
+  const [base, setBase] = useState<{ model: LinearStackModel; version: number } | null>(null);
+  const [contributorId, setContributorId] = useState('');
+  const [method, setMethod] = useState<Method>('normal-fit');
+  const [pending, setPending] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  const [saved, setSaved] = useState<number | null>(null);
+
+  useEffect(() => {
+    fetch('/api/models')
+      .then((r) => (r.ok ? r.json() : Promise.reject(new Error())))
+      .then((b: { models: ModelRow[] }) => setModels(b.models.filter((m) => m.template === 'linear-stack' && !m.archivedAt)))
+      .catch(() => setError('The models could not be loaded.'));
+  }, []);
+
+  useEffect(() => {
+    if (!modelId) return;
+    let live = true;
+    fetch(`/api/models/${modelId}`)
+      .then((r) => (r.ok ? r.json() : Promise.reject(new Error())))
+      .then((d: { model: { draft: unknown }; latest: { number: number; model: unknown } | null }) => {
+        const parsed = linearStackSchema.safeParse(d.latest?.model ?? d.model.draft);
+        if (!live) return;
+        if (!parsed.success) return setError('This model does not open as a linear stack; fix it in the editor first.');
+        setBase({ model: parsed.data, version: d.latest?.number ?? 0 });
+        setContributorId(parsed.data.contributors[0]?.id ?? '');
+      })
+      .catch(() => setError('The model could not be loaded.'));
+    return () => {
+      live = false;
+    };
+  }, [modelId]);
+
+  const contributor = base?.model.contributors.find((c) => c.id === contributorId) ?? null;
+  const next = useMemo(() => {
+    if (!base || !contributor) return null;
+    const model: LinearStackModel = {
+      ...base.model,
+      contributors: base.model.contributors.map((c) => (c.id === contributor.id ? { ...c, distribution: { type: method, data: [...dataset.values] } } : c)),
+    };
+    return model;
+  }, [base, contributor, method, dataset.values]);
+  const before = useMemo(() => (base ? evaluateStack(base.model).statistical : null), [base]);
+  const after = useMemo(() => (next ? evaluateStack(next).statistical : null), [next]);
+  const partCap = contributor ? dataCapability(dataset.values, contributor.nominal, contributor.plusTol, contributor.minusTol) : null;
+
+  async function save() {
+    if (!base || !next || !contributor) return;
+    setPending(true);
+    setError(null);
+    try {
+      const note = `Contributor "${contributor.name}" now ${method === 'empirical' ? 'samples the measured values' : 'uses a normal fitted to the measured values'} of dataset "${dataset.name}" (sha256 ${dataset.hash}).`;
+      const res = await fetch(`/api/models/${modelId}/versions`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ baseVersion: base.version, note, model: next }) });
+      const body = await res.json();
+      if (!res.ok) throw new Error(body.error?.message ?? 'The version could not be saved.');
+      const use = await fetch(`/api/datasets/${dataset.id}/uses`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ modelId, method: method === 'normal-fit' ? 'normal' : 'empirical' }) });
+      if (!use.ok) throw new Error((await use.json()).error?.message ?? 'The use could not be recorded.');
+      setSaved(body.version.number);
+      setBase({ model: next, version: body.version.number });
+    } catch (err) {
+      setError((err as Error).message);
+    } finally {
+      setPending(false);
+    }
+  }
+
+  if (models && models.length === 0) return <p className="text-sm text-ink-600">No linear-stack models yet. Create one under Models, then come back to feed a contributor from this dataset.</p>;
+  return (
+    <div className="space-y-3">
+      <div className="grid gap-3 md:grid-cols-3">
+        <Select label="Stack model" value={modelId} onChange={(e) => {
+            setSaved(null);
+            setModelId(e.target.value);
+          }} options={[{ value: '', label: models ? 'Choose a model…' : 'Loading…' }, ...(models ?? []).map((m) => ({ value: m.id, label: m.title }))]} />
+        {base && (
+          <Select label="Contributor" value={contributorId} onChange={(e) => setContributorId(e.target.value)} options={base.model.contributors.map((c) => ({ value: c.id, label: `${c.name} (${c.nominal} +${c.plusTol}/−${c.minusTol})` }))} />
+        )}
+        {base && (
+          <Select
+            label="Distribution from the data"
+            value={method}
+            onChange={(e) => setMethod(e.target.value as Method)}
+            options={[
+              { value: 'normal-fit', label: 'Normal fitted to the data' },
+              { value: 'empirical', label: 'Empirical (the measured values)' },
+            ]}
+          />
+        )}
+      </div>
+      {contributor && partCap && before && after && (
+        <dl className="grid grid-cols-2 gap-3 font-mono text-sm md:grid-cols-4" aria-live="polite">
+          <div>
+            <dt className="font-sans text-ink-600">
+              Parts’ <Term term="Ppk">Ppk</Term> vs this tolerance
+            </dt>
+            <dd data-testid="contributor-ppk">{fmt(partCap.ppk)}</dd>
+          </div>
+          <div>
+            <dt className="font-sans text-ink-600">Parts’ Pp</dt>
+            <dd>{fmt(partCap.pp)}</dd>
+          </div>
+          <div>
+            <dt className="font-sans text-ink-600">Gap Ppk now</dt>
+            <dd data-testid="stack-ppk-before">{fmt(before.ppk)}</dd>
+          </div>
+          <div>
+            <dt className="font-sans text-ink-600">Gap Ppk with the data</dt>
+            <dd data-testid="stack-ppk-after">{fmt(after.ppk)}</dd>
+          </div>
+        </dl>
+      )}
+      {contributor && <p className="text-xs text-ink-600">Gap Ppk here is the statistical (normal approximation) figure; the model’s Monte Carlo result is shown in the model itself.</p>}
+      {error && <Banner tone="danger">{error}</Banner>}
+      {saved !== null && (
+        <Banner tone="success">
+          Saved as version {saved}; its note records the dataset and its sha256.{' '}
+          <Link className="underline" href={`/app/models/${modelId}`}>
+            Open the model
+          </Link>
+        </Banner>
+      )}
+      {contributor && (
+        <Button onClick={save} pending={pending} pendingLabel="Saving…">
+          Save as a new version
+        </Button>
+      )}
+    </div>
+  );
+}
