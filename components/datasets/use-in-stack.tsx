@@ -2,6 +2,7 @@
 
 import { useEffect, useMemo, useState } from 'react';
 import Link from 'next/link';
+import { useRouter } from 'next/navigation';
 import { Button } from '@/components/ui/button';
 import { Select } from '@/components/ui/field';
 import { Banner } from '@/components/ui/banner';
@@ -26,6 +27,7 @@ const fmt = (v: number | null) => (v === null || !Number.isFinite(v) ? '—' : v
  * names the dataset and its sha256, so the saved version records exactly which data it copied.
  */
 export function UseInStack({ dataset }: { dataset: { id: string; name: string; hash: string; unit: string; values: number[] } }) {
+  const router = useRouter();
   const [models, setModels] = useState<ModelRow[] | null>(null);
   const [modelId, setModelId] = useState('');
   const [base, setBase] = useState<{ model: LinearStackModel; version: number } | null>(null);
@@ -86,6 +88,8 @@ export function UseInStack({ dataset }: { dataset: { id: string; name: string; h
       if (!use.ok) throw new Error((await use.json()).error?.message ?? 'The use could not be recorded.');
       setSaved(body.version.number);
       setBase({ model: next, version: body.version.number });
+      // The delete warning and use counts on this page come from the server.
+      router.refresh();
     } catch (err) {
       setError((err as Error).message);
     } finally {
