@@ -43,7 +43,7 @@ const COLUMNS = [
   'u.name as uploaded_by_name',
 ];
 
-const useCount = (k: Db) =>
+const countOfUses = (k: Db) =>
   k('dataset_uses as du')
     .join('models as m', 'm.id', 'du.model_id')
     .whereRaw('du.dataset_id = d.id')
@@ -75,7 +75,7 @@ export async function listDatasets(firmId: string): Promise<DatasetRow[]> {
     .leftJoin('users as u', 'u.id', 'd.uploaded_by')
     .where('d.firm_id', firmId)
     .whereNull('d.archived_at')
-    .select([...COLUMNS, useCount(k)])
+    .select([...COLUMNS, countOfUses(k)])
     .orderBy('d.created_at', 'desc');
   return rows.map(toRow);
 }
@@ -86,7 +86,7 @@ export async function getDataset(firmId: string, id: string, trx?: Knex.Transact
     .leftJoin('users as u', 'u.id', 'd.uploaded_by')
     .where({ 'd.firm_id': firmId, 'd.id': id })
     .whereNull('d.archived_at')
-    .first([...COLUMNS, 'd.values_json', useCount(k)]);
+    .first([...COLUMNS, 'd.values_json', countOfUses(k)]);
   if (!r) return null;
   return { ...toRow(r), values: JSON.parse(r.values_json as string) as number[] };
 }
