@@ -1,7 +1,7 @@
 'use client';
 
 import Link from 'next/link';
-import { useCallback, useEffect, useMemo, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { ModelEditor } from '@/components/editor';
 import { ResultsPreview } from '@/components/results';
 import { WidgetView } from '@/components/widget';
@@ -65,7 +65,30 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
     return () => window.removeEventListener('beforeunload', warn);
   }, [dirty, canEdit]);
 
+  // The editor reports a change once typing pauses. A save clicked within that pause must wait for it, or it
+  // would store the model as it was before the last keystrokes.
+  const current = useRef<{ model: StochosModel; valid: boolean } | null>(null);
+  const lastInputAt = useRef(0);
+  const lastEmitAt = useRef(0);
+  const waiters = useRef<(() => void)[]>([]);
+  const markInput = useCallback(() => {
+    lastInputAt.current = performance.now();
+  }, []);
+  const editorSettled = useCallback(
+    () =>
+      lastInputAt.current <= lastEmitAt.current
+        ? Promise.resolve()
+        : new Promise<void>((resolve) => {
+            waiters.current.push(resolve);
+            setTimeout(resolve, 2000);
+          }),
+    [],
+  );
+
   const onEditorChange = useCallback((model: StochosModel, valid: boolean) => {
+    current.current = { model, valid };
+    lastEmitAt.current = performance.now();
+    for (const w of waiters.current.splice(0)) w();
     setWork((w) => (w ? { ...w, current: model, valid, lastValid: valid ? model : w.lastValid } : w));
   }, []);
 
@@ -74,6 +97,7 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
     if (!fresh) return;
     const start = (fresh.latest?.model ?? fresh.model.draft) as StochosModel;
     setServerErrors(undefined);
+    current.current = null;
     setWork({ loaded: start, base: fresh.latest?.number ?? 0, baseJson: JSON.stringify(start), current: start, valid: true, lastValid: start });
   }, [mutate]);
 
@@ -233,7 +257,10 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
                   onFieldErrors={(f) => setServerErrors(editorFieldErrors(f))}
                   onReload={() => void reloadLatest()}
                   onSave={async (note) => {
-                    const v = await saveVersion({ baseVersion: work.base, note, model: work.current });
+                    await editorSettled();
+                    const latest = current.current ?? { model: work.current, valid: work.valid };
+                    if (!latest.valid) throw new Error('The model was not saved: fix the problems listed in the editor first.');
+                    const v = await saveVersion({ baseVersion: work.base, note, model: latest.model });
                     setServerErrors(undefined);
                     setWork((w) => (w ? { ...w, base: v.number, baseJson: JSON.stringify(v.model) } : w));
                     return v.number;
@@ -245,7 +272,9 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
                 {abilities.check ? 'Checkers read models here and sign off versions from the version history.' : 'Authors edit models; you can read this one and run its preview.'}
               </Banner>
             )}
-            {editor}
+            <div onInputCapture={markInput} onChangeCapture={markInput}>
+              {editor}
+            </div>
           </section>
           <section aria-label="Live preview" className="min-w-0 xl:sticky xl:top-4 xl:self-start">
             {/* The editor already waits for typing to pause, so the preview starts almost at once. */}

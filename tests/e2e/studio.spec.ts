@@ -236,3 +236,46 @@ test('a member of another firm cannot open the model', async ({ browser }) => {
   await expect(page.getByText('E2E spindle cartridge')).toHaveCount(0);
   await ctx.close();
 });
+
+test('a cost range from the worked example is saved, signed off as a first version and published', async ({ browser }) => {
+  const author = await newPage(browser, 'author2@orrinvale.example');
+  await author.goto('/app/models');
+  await author.getByRole('button', { name: 'New model' }).click();
+  await author.getByRole('radio', { name: /^Cost range/ }).check();
+  await author.getByRole('radio', { name: /^Worked example/ }).check();
+  await author.getByRole('textbox', { name: 'Title', exact: true }).fill('E2E depot roof renewal');
+  await author.getByRole('button', { name: 'Create and open' }).click();
+  await expect(author).toHaveURL(/\/app\/models\/[0-9a-f-]{36}$/);
+  const id = author.url().split('/').pop()!;
+  await expect(author.getByText('No problems found.')).toBeVisible();
+  await author.getByRole('button', { name: 'Save version 1' }).click();
+  await expect(author.getByText('Version 1 saved')).toBeVisible();
+  const v1 = (await (await author.request.get(`/api/models/${id}/versions/1`)).json()).version;
+  const cost = runModelSync(v1.model).cost!;
+  // The S-curve's P80 marker carries the engine's figure.
+  await expect(author.getByRole('figure', { name: /Cumulative/ }).first()).toContainText('P80', { timeout: 30_000 });
+  await author.screenshot({ path: `${SHOTS}/studio-cost-range.png`, fullPage: true });
+  const figures = author.getByRole('figure');
+  for (let i = 0; i < (await figures.count()); i++) await figures.nth(i).screenshot({ path: `${SHOTS}/cost-chart-${i}.png` });
+  expect(cost.p80).toBeGreaterThan(cost.p50);
+
+  const checker = await newPage(browser, 'checker@orrinvale.example');
+  await checker.goto(`/app/models/${id}/versions/1/check`);
+  await expect(checker.getByRole('heading', { name: 'Check version 1' })).toBeVisible();
+  await checker.getByLabel('Note').fill('Rates checked against the framework schedule.');
+  await checker.getByRole('button', { name: 'Sign off version 1' }).click();
+  await expect(checker.getByText('Signed off by Jonah Beck')).toBeVisible();
+  await checker.context().close();
+
+  await author.reload();
+  await author.getByRole('tab', { name: 'Publish' }).click();
+  await author.getByRole('combobox', { name: 'Headline figure' }).selectOption({ label: 'Chance of exceeding the budget' });
+  await author.getByRole('button', { name: 'Publish version 1' }).click();
+  await expect(author.getByText(/Published as “E2E depot roof renewal”, showing version 1/)).toBeVisible();
+  const widgets = (await (await author.request.get('/api/widgets')).json()).widgets as { modelId: string; headline: string; dialIds: string[] }[];
+  const w = widgets.find((x) => x.modelId === id)!;
+  expect(w.headline).toBe('exceed-budget');
+  expect(w.dialIds).toEqual(v1.model.dials.map((d: { id: string }) => d.id));
+  await author.context().close();
+});
+
