@@ -33,10 +33,37 @@ export function streamKey(seed: string | number, id: string, purpose = ''): stri
   return `stochos/1|${String(seed)}|${id}|${purpose}`;
 }
 
+/**
+ * Fill out with the next xor4096 outputs (seedrandom's next(), step for step). A plain
+ * function over locals: as a method the same loop ran at half the speed.
+ */
+function xorgenFill(X: Int32Array, out: Int32Array, st: { i: number; w: number }): void {
+  let i = st.i;
+  let w = st.w;
+  const n = out.length;
+  for (let k = 0; k < n; k++) {
+    w = (w + 0x61c88647) | 0;
+    const i1 = (i + 1) & 127;
+    let v = X[(i + 34) & 127] | 0;
+    let t = X[i1] | 0;
+    v ^= v << 13;
+    t ^= t << 17;
+    v ^= v >>> 15;
+    t ^= t >>> 12;
+    v ^= t;
+    X[i1] = v;
+    out[k] = (v + (w ^ (w >>> 16))) | 0;
+    i = i1;
+  }
+  st.i = i;
+  st.w = w;
+}
+
 export class Stream {
   private readonly X: Int32Array;
-  private i: number;
-  private w: number;
+  /** Generator position and Weyl state (read and written by xorgenFill). */
+  i: number;
+  w: number;
   /**
    * Buffered integers. Read directly only by inner loops that keep the order of the draws
    * (the ziggurat): read buf[pos], advance pos, call refill() when pos reaches buf.length.
@@ -59,24 +86,7 @@ export class Stream {
 
   /** Refill the buffer: the xor4096 recurrence, exactly as seedrandom's next(). */
   refill(): void {
-    const X = this.X;
-    const out = this.buf;
-    let i = this.i;
-    let w = this.w;
-    for (let k = 0; k < out.length; k++) {
-      w = (w + 0x61c88647) | 0;
-      let v = X[(i + 34) & 127];
-      i = (i + 1) & 127;
-      let t = X[i];
-      v ^= v << 13;
-      t ^= t << 17;
-      v ^= v >>> 15;
-      t ^= t >>> 12;
-      v = X[i] = v ^ t;
-      out[k] = (v + (w ^ (w >>> 16))) | 0;
-    }
-    this.i = i;
-    this.w = w;
+    xorgenFill(this.X, this.buf, this);
     this.pos = 0;
   }
 
