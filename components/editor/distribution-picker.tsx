@@ -2,6 +2,7 @@
 
 import type { ReactNode } from 'react';
 import { useFormContext, useWatch } from 'react-hook-form';
+import { MeasuredDataButton } from './measured-data';
 import { controlClasses } from '@/components/ui/field';
 import { cx } from '@/components/ui/cx';
 import { FieldShell, GroupMessages, NumberInput, NumberListInput } from './fields';
@@ -268,6 +269,7 @@ export function DistributionPicker({ path, what, unit }: { path: string; what: s
         {params}
       </div>
       <GroupMessages path={path} className="mt-1" />
+      <MeasuredDataButton path={path} target="input" />
     </div>
   );
 }

@@ -5,6 +5,7 @@ import { Term } from '@/components/ui/term';
 import { AddButton, EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
 import { GroupMessages, KeyInput, InlineMessages, NumberInput, NumberListInput, RowMessages, SelectInput, TextInput, type Choice } from './fields';
 import { allIds, makeId } from './model-helpers';
+import { MeasuredDataButton } from './measured-data';
 
 type StackKind = 'normal' | 'uniform' | 'triangular' | 'normal-fit' | 'empirical';
 
@@ -164,6 +165,7 @@ export function LinearStackForm() {
                           hint={type === 'normal-fit' ? 'A normal distribution is fitted to these values (their mean and standard deviation).' : 'Trials draw from these values, interpolating between them.'}
                         />
                         <GroupMessages path={`${p}.distribution`} />
+                        <MeasuredDataButton path={`${p}.distribution`} target="stack" />
                       </Td>
                     </tr>
                   ) : null,
