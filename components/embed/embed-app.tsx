@@ -79,7 +79,7 @@ export function EmbedApp({ passId, origin, title, firmName, brandColor }: { pass
     <WidgetView
       model={p.model}
       widget={p.widget}
-      branding={{ firmName: p.branding.firmName, brandColor: p.branding.brandColor }}
+      branding={{ firmName: p.branding.firmName, brandColor: p.branding.brandColor, logoUrl: p.branding.logoUrl }}
       versionInfo={{ number: p.versionInfo.number, signedOffAt }}
       onDialChange={onDialChange}
       actions={<SnapshotRequestForm send={client.sendSnapshot} dialValues={dialValues} version={p.versionInfo.number} />}

@@ -14,7 +14,8 @@ export interface EmbedWidgetPayload {
     showLogo: boolean;
   };
   model: unknown;
-  branding: { firmName: string; brandColor: string; showLogo: boolean };
+  /** logoUrl: the firm's uploaded logo when the widget shows the logo slot and a logo exists. */
+  branding: { firmName: string; brandColor: string; showLogo: boolean; logoUrl: string | null };
   versionInfo: {
     number: number;
     createdAt: string;
