@@ -191,7 +191,7 @@ export interface SnapshotContext {
   checkedAt: string | null;
   checkerName: string | null;
   authorName: string | null;
-  widget: { title: string; panels: string[]; headline: string; dialIds: string[]; brandColor: string };
+  widget: { title: string; panels: string[]; headline: string; dialIds: string[]; brandColor: string; showLogo: boolean };
   firm: { name: string; brandColor: string; paperSize: 'A4' | 'Letter' };
   clientName: string;
 }
@@ -219,6 +219,7 @@ export async function getSnapshotContext(jobId: string): Promise<SnapshotContext
       'w.headline',
       'w.dial_ids',
       'w.brand_color',
+      'w.show_logo',
       'f.name as firm_name',
       'f.brand_color as firm_brand_color',
       'f.paper_size',
@@ -235,7 +236,7 @@ export async function getSnapshotContext(jobId: string): Promise<SnapshotContext
     checkedAt: r.checked_at ?? null,
     checkerName: r.checker_name ?? null,
     authorName: r.author_name ?? null,
-    widget: { title: r.title, panels: JSON.parse(r.panels), headline: r.headline, dialIds: JSON.parse(r.dial_ids), brandColor: r.brand_color },
+    widget: { title: r.title, panels: JSON.parse(r.panels), headline: r.headline, dialIds: JSON.parse(r.dial_ids), brandColor: r.brand_color, showLogo: Boolean(r.show_logo) },
     firm: { name: r.firm_name, brandColor: r.firm_brand_color, paperSize: r.paper_size === 'Letter' ? 'Letter' : 'A4' },
     clientName: r.client_name,
   };

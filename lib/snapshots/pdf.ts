@@ -31,7 +31,8 @@ export interface RenderedPdf {
   pages: number;
 }
 
-export async function renderSnapshotPdf(c: SnapshotContent, result: RunResult): Promise<RenderedPdf> {
+/** `logo`: the firm's re-encoded PNG, drawn in the header when the widget keeps the logo slot. */
+export async function renderSnapshotPdf(c: SnapshotContent, result: RunResult, logo: Buffer | null = null): Promise<RenderedPdf> {
   const doc = new PDFDocument({
     size: c.paperSize === 'Letter' ? 'LETTER' : 'A4',
     margins: { top: MARGIN, bottom: MARGIN + FOOTER, left: MARGIN, right: MARGIN },
@@ -58,7 +59,16 @@ export async function renderSnapshotPdf(c: SnapshotContent, result: RunResult): 
 
   // Brand band and header.
   doc.rect(0, 0, doc.page.width, 6).fill(brand.accent);
-  doc.font(F['sans-bold']).fontSize(10).fillColor(brand.accentText).text(c.firmName, MARGIN, MARGIN - 14, { width: W * 0.6 });
+  let nameX = MARGIN;
+  if (logo) {
+    try {
+      doc.image(logo, MARGIN, MARGIN - 22, { fit: [72, 22] });
+      nameX = MARGIN + 80;
+    } catch {
+      // An unreadable logo leaves the firm's name alone in the header.
+    }
+  }
+  doc.font(F['sans-bold']).fontSize(10).fillColor(brand.accentText).text(c.firmName, nameX, MARGIN - 14, { width: W * 0.6 });
   doc.font(F.sans).fontSize(8.5).fillColor(INK[600]).text('Snapshot of an interactive model', MARGIN, MARGIN - 13, { width: W, align: 'right' });
   doc.moveDown(0.9);
   doc.font(F['sans-bold']).fontSize(19).fillColor(INK[900]).text(c.title, MARGIN, doc.y, { width: W });

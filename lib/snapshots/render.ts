@@ -3,6 +3,7 @@ import { runModelSync, type RunResult } from '@/lib/engine';
 import type { SnapshotContext } from '@/db/snapshots';
 import { snapshotContent, type SnapshotContent } from './content';
 import { renderSnapshotPdf } from './pdf';
+import { getLogo } from '@/db/logos';
 
 // The re-run: the pinned version's model with the viewer's dial values, through the same engine (and so the same
 // seed, trial count and sampling design) as the widget in the browser. No options beyond the dial values: the
@@ -35,6 +36,7 @@ export async function renderSnapshot(ctx: SnapshotContext): Promise<RenderedSnap
     headline: ctx.widget.headline,
     dialIds: ctx.widget.dialIds,
   });
-  const pdf = await renderSnapshotPdf(content, result);
+  const logo = ctx.widget.showLogo ? await getLogo(ctx.job.firmId) : null;
+  const pdf = await renderSnapshotPdf(content, result, logo?.bytes ?? null);
   return { content, result, pdf: pdf.bytes, pages: pdf.pages, renderMs: Math.round(performance.now() - start) };
 }
