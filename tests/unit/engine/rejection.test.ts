@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { createMarginal, type RejectionEnvelope } from '@/lib/engine/distributions';
+import { createMarginal, type DistributionSpec, type RejectionEnvelope } from '@/lib/engine/distributions';
 import { SamplingError } from '@/lib/engine/errors';
 import { Stream } from '@/lib/engine/rng';
 import { MIN_ACCEPTANCE, RejectionSampler } from '@/lib/engine/samplers';
@@ -36,11 +36,12 @@ describe('rejection sampling under a box (von Neumann 1951)', () => {
   });
 
   it('the squeeze table only skips density evaluations: samples and counts are unchanged', () => {
-    for (const spec of [
-      { type: 'pert', min: 90, mode: 100, max: 130 } as const,
-      { type: 'pert', min: 0, mode: 1, max: 10 } as const,
-      { type: 'drawn', points: [{ x: 0, y: 0 }, { x: 1, y: 2 }, { x: 3, y: 1 }, { x: 4, y: 0 }] } as const,
-    ]) {
+    const specs: DistributionSpec[] = [
+      { type: 'pert', min: 90, mode: 100, max: 130 },
+      { type: 'pert', min: 0, mode: 1, max: 10 },
+      { type: 'drawn', points: [{ x: 0, y: 0 }, { x: 1, y: 2 }, { x: 3, y: 1 }, { x: 4, y: 0 }] },
+    ];
+    for (const spec of specs) {
       const env = createMarginal(spec).envelope as RejectionEnvelope;
       expect(env.turningPoints?.length).toBeGreaterThan(0);
       const plain: RejectionEnvelope = { ...env, turningPoints: undefined };
