@@ -14,6 +14,10 @@ function getTransport(): Transporter {
     auth: e.SMTP_USER ? { user: e.SMTP_USER, pass: e.SMTP_PASS ?? '' } : undefined,
     // The local fake speaks plain SMTP; a real relay negotiates TLS as usual.
     ignoreTLS: !e.realSmtp,
+    // Fail fast when the server is down: callers (the snapshot queue) retry with backoff.
+    connectionTimeout: 10_000,
+    greetingTimeout: 10_000,
+    socketTimeout: 60_000,
   });
   return transport;
 }
@@ -24,6 +28,8 @@ export interface Mail {
   text: string;
   html?: string;
   attachments?: { filename: string; content: Buffer; contentType: string }[];
+  /** A fixed Message-ID lets a receiving system recognise a resend as the same message. */
+  messageId?: string;
 }
 
 export async function sendMail(mail: Mail): Promise<void> {
@@ -34,7 +40,7 @@ export function resetMailTransport(): void {
   transport = null;
 }
 
-const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+export const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 /** A plain, readable message with one call-to-action link, as text and HTML. */
 export function linkMail(to: string, subject: string, lines: string[], action: { label: string; url: string }): Mail {

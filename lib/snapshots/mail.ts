@@ -1,6 +1,5 @@
 import 'server-only';
-import nodemailer, { type Transporter } from 'nodemailer';
-import { env } from '@/lib/env';
+import { escapeHtml, sendMail } from '@/lib/mail/send';
 import type { SnapshotContent } from './content';
 
 // The snapshot e-mail: the headline figures in a short text and HTML body, the PDF attached, and the job's own
@@ -14,7 +13,6 @@ export interface SnapshotMail {
   filename: string;
 }
 
-const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 export function snapshotFilename(title: string, iso: string): string {
   const slug = title
@@ -55,32 +53,8 @@ export function composeSnapshotMail(to: string, c: SnapshotContent, requestedAt:
   return { to, subject, text, html, filename: snapshotFilename(c.title, requestedAt) };
 }
 
-let transport: Transporter | null = null;
-
-function getTransport(): Transporter {
-  if (transport) return transport;
-  const e = env();
-  transport = nodemailer.createTransport({
-    host: e.SMTP_HOST,
-    port: e.SMTP_PORT,
-    secure: e.SMTP_SECURE,
-    auth: e.SMTP_USER ? { user: e.SMTP_USER, pass: e.SMTP_PASS ?? '' } : undefined,
-    ignoreTLS: !e.realSmtp,
-    // Fail fast when the server is down: the job is retried with backoff.
-    connectionTimeout: 10_000,
-    greetingTimeout: 10_000,
-    socketTimeout: 60_000,
-  });
-  return transport;
-}
-
-export function resetSnapshotTransport(): void {
-  transport = null;
-}
-
 export async function deliverSnapshotMail(m: SnapshotMail, pdf: Buffer, messageId: string): Promise<void> {
-  await getTransport().sendMail({
-    from: env().MAIL_FROM,
+  await sendMail({
     to: m.to,
     subject: m.subject,
     text: m.text,

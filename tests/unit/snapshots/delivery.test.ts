@@ -15,7 +15,7 @@ import { runModelSync } from '@/lib/engine';
 import { headlineFigure } from '@/lib/results/headline';
 import { getSnapshotJob } from '@/db/snapshots';
 import { requestSnapshot } from '@/lib/snapshots/request';
-import { resetSnapshotTransport } from '@/lib/snapshots/mail';
+import { resetMailTransport } from '@/lib/mail/send';
 import { startSnapshotWorker, UNCERTAIN_MESSAGE } from '@/lib/snapshots/worker';
 import { seedWidget, STACK_MODEL, viewerFor } from './fixture';
 
@@ -46,7 +46,7 @@ beforeAll(async () => {
   process.env.APP_URL = 'http://localhost:3999';
   dbFile = await useFreshDb();
   resetEnvCache();
-  resetSnapshotTransport();
+  resetMailTransport();
 });
 
 afterAll(async () => {
