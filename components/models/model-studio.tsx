@@ -222,6 +222,21 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
         </Banner>
       ) : null}
 
+      {latest?.checkState === 'sent_back' && !newer ? (
+        <Banner tone="warn" title={`Version ${latest.number} was sent back by ${latest.checkerName ?? 'its checker'}`} className="mb-4">
+          {latest.checkNote ? <p className="italic">“{latest.checkNote}”</p> : null}
+          {latest.comments.length ? (
+            <ul className="mt-1 list-disc pl-5">
+              {latest.comments.map((c) => (
+                <li key={`${c.path}-${c.text}`}>
+                  <code className="text-xs">{c.path || 'model'}</code>: {c.text}
+                </li>
+              ))}
+            </ul>
+          ) : null}
+          <p className="mt-1">Make the changes and save a new version; it goes to a checker again.</p>
+        </Banner>
+      ) : null}
       {clientPreview ? (
         <Card
           title="Preview as client"
