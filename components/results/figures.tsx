@@ -46,7 +46,7 @@ export function Figure({ label, value, sub, lead, className }: FigureProps) {
   return (
     <div className={cx('min-w-0 rounded-md border px-3 py-2.5', lead ? 'border-accent-200 bg-accent-50' : 'border-ink-200 bg-white', className)}>
       <dt className="text-[0.8125rem] leading-snug text-ink-700">{label}</dt>
-      <dd className={cx('num mt-0.5 font-semibold whitespace-nowrap text-ink-900', lead ? 'text-2xl' : 'text-xl')}>{value}</dd>
+      <dd className={cx('num mt-0.5 font-semibold [overflow-wrap:anywhere] text-ink-900', lead ? 'text-2xl' : 'text-xl')}>{value}</dd>
       {sub ? <dd className="mt-0.5 text-xs leading-snug text-ink-600">{sub}</dd> : null}
     </div>
   );
@@ -55,8 +55,11 @@ export function Figure({ label, value, sub, lead, className }: FigureProps) {
 /** A row of headline figures (a description list, two columns on phones). */
 export function Figures({ label, children, className }: { label: string; children: ReactNode; className?: string }) {
   return (
-    <dl aria-label={label} className={cx('grid grid-cols-1 gap-2 min-[420px]:grid-cols-2 lg:grid-cols-4', className)}>
-      {children}
-    </dl>
+    // Columns follow the width of the results column, not the window: the studio shows results beside the editor.
+    <div className="@container">
+      <dl aria-label={label} className={cx('grid grid-cols-1 gap-2 @xs:grid-cols-2 @3xl:grid-cols-4', className)}>
+        {children}
+      </dl>
+    </div>
   );
 }
