@@ -46,7 +46,7 @@ export function Figure({ label, value, sub, lead, className }: FigureProps) {
   return (
     <div className={cx('min-w-0 rounded-md border px-3 py-2.5', lead ? 'border-accent-200 bg-accent-50' : 'border-ink-200 bg-white', className)}>
       <dt className="text-[0.8125rem] leading-snug text-ink-700">{label}</dt>
-      <dd className={cx('num mt-0.5 font-semibold [overflow-wrap:anywhere] text-ink-900', lead ? 'text-2xl' : 'text-xl')}>{value}</dd>
+      <dd className={cx('num mt-0.5 font-semibold break-words text-ink-900', lead ? 'text-2xl' : 'text-xl')}>{value}</dd>
       {sub ? <dd className="mt-0.5 text-xs leading-snug text-ink-600">{sub}</dd> : null}
     </div>
   );

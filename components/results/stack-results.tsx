@@ -18,7 +18,7 @@ function MethodCard({ title, range, within, note }: { title: React.ReactNode; ra
   return (
     <div className="min-w-0 rounded-md border border-ink-200 bg-white px-3 py-2.5">
       <h4 className="text-[0.8125rem] font-semibold text-ink-900">{title}</h4>
-      <p className="num mt-0.5 text-[0.9375rem] font-medium whitespace-nowrap text-ink-900">{range}</p>
+      <p className="num mt-0.5 text-[0.9375rem] font-medium break-words text-ink-900">{range}</p>
       <p className="mt-0.5 text-xs">
         <StatusMark tone={within ? 'good' : 'bad'}>{within ? 'Within the limits' : 'Beyond a limit'}</StatusMark>
       </p>
