@@ -1,7 +1,7 @@
 import 'server-only';
 import { createHash } from 'node:crypto';
 import { writeTransaction } from '@/db/knex';
-import { insertDataset } from '@/db/datasets';
+import { insertDataset, recordDatasetUse } from '@/db/datasets';
 import { recordAudit } from '@/db/audit';
 
 // Two invented datasets for the demo firm: 60 measured spigot lengths of the pump bearing housing (nominal
@@ -47,13 +47,19 @@ export async function seedDatasets(firmId: string): Promise<{ datasets: number }
     ];
     for (const s of sets) {
       const bytes = Buffer.from(s.text);
+      const hash = createHash('sha256').update(bytes).digest('hex');
       const id = await insertDataset(
         firmId,
         userId,
-        { name: s.name, unit: s.unit, columnName: s.columnName, fileName: s.fileName, values: s.values, hash: createHash('sha256').update(bytes).digest('hex'), sizeBytes: bytes.length, rowCount: s.values.length, droppedRows: [] },
+        { name: s.name, unit: s.unit, columnName: s.columnName, fileName: s.fileName, values: s.values, hash, sizeBytes: bytes.length, rowCount: s.values.length, droppedRows: [] },
         trx,
       );
       await recordAudit({ firmId, actorUserId: userId, action: 'dataset.uploaded', targetType: 'dataset', targetId: id, detail: { name: s.name, seeded: true } }, trx);
+      // The pump stack's version 2 takes its spigot length from a normal law fitted to these parts.
+      if (s.values === DEMO_SPIGOT_LENGTHS) {
+        const pump = await trx('models').where({ firm_id: firmId, title: 'QP-80 pump: impeller front clearance' }).first('id');
+        if (pump) await recordDatasetUse(firmId, { datasetId: id, modelId: pump.id as string, hash, method: 'normal', userId }, trx);
+      }
     }
     return { datasets: sets.length };
   });

@@ -1,4 +1,5 @@
 import 'server-only';
+import { DEMO_SPIGOT_LENGTHS } from '@/db/seed/datasets';
 import type { Knex } from 'knex';
 import { writeTransaction } from '@/db/knex';
 import { newId } from '@/db/ids';
@@ -43,7 +44,12 @@ export const pumpClearanceV1 = {
 export const pumpClearanceV2 = {
   ...pumpClearanceV1,
   contributors: pumpClearanceV1.contributors.map((c) =>
-    c.id === 'shroud' ? { ...c, name: 'Impeller shroud thickness (faced after casting)', plusTol: 0.08, minusTol: 0.08, distribution: { type: 'normal' as const, k: 3 } } : c,
+    c.id === 'shroud'
+      ? { ...c, name: 'Impeller shroud thickness (faced after casting)', plusTol: 0.08, minusTol: 0.08, distribution: { type: 'normal' as const, k: 3 } }
+      : c.id === 'housing_spigot'
+        ? // Normal law fitted to the 60 measured parts of the seeded dataset, not the ±3σ assumption.
+          { ...c, name: 'Bearing housing spigot length (measured, batch 14)', distribution: { type: 'normal-fit' as const, data: DEMO_SPIGOT_LENGTHS } }
+        : c,
   ),
 } satisfies StochosModelInput;
 
@@ -207,7 +213,7 @@ export async function seedModels(firmId: string): Promise<{ models: number; widg
           note: 'Stack from Quillbrook drawings QP80-100 rev D and QP80-214 rev B; shroud taken as cast.',
           check: { checkerId: checker, at: t0 + DAY, note: 'Loop and directions checked against the assembly section; tolerances match the drawings.' },
         },
-        { model: pumpV2, authorId: author2, at: t0 + 9 * DAY, note: 'Shroud face machined after casting (Quillbrook proposal 14), so ±0.08 mm, normal.' },
+        { model: pumpV2, authorId: author2, at: t0 + 9 * DAY, note: 'Shroud face machined after casting (Quillbrook proposal 14), so ±0.08 mm, normal; spigot length fitted to the 60 measured parts of batch 14 (dataset library).' },
       ],
       publish: { version: 1, headline: 'ppm', by: author, at: t0 + DAY + 3_600_000, brandColor },
     });
