@@ -1,28 +1,13 @@
 // Reads the fields Stochos keeps from Stripe objects of the pinned API version: billing periods live on the
 // subscription item, an invoice names its subscription under parent.subscription_details.
 import type Stripe from 'stripe';
+import type { InvoiceRow, SubscriptionRow } from '@/db/billing';
 
 const iso = (seconds: number | null | undefined): string | null => (seconds == null ? null : new Date(seconds * 1000).toISOString());
 const idOf = (v: string | { id: string } | null | undefined): string | null => (v == null ? null : typeof v === 'string' ? v : v.id);
 
-export interface SubscriptionFields {
-  id: string;
-  customerId: string;
-  status: string;
-  itemId: string | null;
-  priceId: string | null;
-  unitAmount: number | null;
-  currency: string | null;
-  interval: string | null;
-  quantity: number;
-  currentPeriodStart: string | null;
-  currentPeriodEnd: string | null;
-  cancelAtPeriodEnd: boolean;
-  canceledAt: string | null;
-  endedAt: string | null;
-  stripeCreatedAt: string;
-  firmIdInMetadata: string | null;
-}
+/** A subscription as Stripe sends it, in the shape of the stored row (less what only the app tracks). */
+export type SubscriptionFields = Omit<SubscriptionRow, 'firmId' | 'pastDueSince' | 'lastEventCreated' | 'lastEventType'> & { firmIdInMetadata: string | null };
 
 export function subscriptionFields(sub: Stripe.Subscription): SubscriptionFields {
   const item = sub.items.data[0];
@@ -46,24 +31,8 @@ export function subscriptionFields(sub: Stripe.Subscription): SubscriptionFields
   };
 }
 
-export interface InvoiceFields {
-  id: string;
-  customerId: string;
-  subscriptionId: string | null;
-  number: string | null;
-  status: string;
-  billingReason: string | null;
-  total: number;
-  amountDue: number;
-  amountPaid: number;
-  currency: string;
-  seats: number | null;
-  periodStart: string | null;
-  periodEnd: string | null;
-  hostedInvoiceUrl: string | null;
-  attemptCount: number;
-  stripeCreatedAt: string;
-}
+/** An invoice as Stripe sends it, in the shape of the stored row (less what only the app tracks). */
+export type InvoiceFields = Omit<InvoiceRow, 'firmId' | 'lastEventCreated'> & { customerId: string };
 
 /**
  * Seats and period an invoice bills: the regular (non-proration) line if there is one, else the proration line
