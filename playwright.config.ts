@@ -11,7 +11,7 @@ export default defineConfig({
   reporter: [['list']],
   globalSetup: './tests/e2e/support/global-setup.ts',
   use: {
-    baseURL: 'http://localhost:3200',
+    baseURL: `http://localhost:${3200 + Number(process.env.TEST_PORT_OFFSET ?? 0)}`,
     browserName: 'chromium',
     launchOptions: {
       executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',

@@ -4,13 +4,14 @@ import path from 'node:path';
 import { test, expect, type Frame } from '@playwright/test';
 import type Database from 'better-sqlite3';
 import { openTestDb, firmIdOf } from '../support/db-direct';
+import { E2E_APP, E2E_HOST } from './support/ports';
 
 // Measurement, not a timed assertion: through the demo host page in Chromium, (1) the time from a dial change
 // to the updated headline for the demo stack-up at 50,000 trials, median of 20 moves, and (2) the JavaScript
 // the embed page transfers (compressed, as sent). Figures go to the console and to test-results/embed-perf.json.
 
-const APP = 'http://localhost:3200';
-const HOST = 'http://localhost:4300';
+const APP = E2E_APP;
+const HOST = E2E_HOST;
 const MOVES = 20;
 // The headline figure's live region in the widget.
 const HEADLINE = '[aria-live="polite"][aria-atomic="true"]';

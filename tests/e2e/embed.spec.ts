@@ -7,13 +7,14 @@ import { Client } from '../support/http-client';
 import { openTestDb, firmIdOf } from '../support/db-direct';
 import { insertEmbedWidget } from '../integration/api/matrix/embed.rows';
 import { mintPassToken } from '@/lib/embed/tokens';
+import { E2E, E2E_APP, E2E_HOST } from './support/ports';
 
 // Embeds in Chromium: the demo host page on a second origin (http://localhost:4300) frames widgets through the
 // integrator's snippet; other origins get a blank frame; bad passes get a friendly message in the frame.
 
-const APP = 'http://localhost:3200';
-const HOST = 'http://localhost:4300';
-const OTHER_HOST = 'http://127.0.0.1:4300'; // same server, another origin: not allowed
+const APP = E2E_APP;
+const HOST = E2E_HOST;
+const OTHER_HOST = `http://127.0.0.1:${E2E.hostPagePort}`; // same server, another origin: not allowed
 
 let db: Database.Database;
 let firmId: string;

@@ -3,11 +3,12 @@ import type Database from 'better-sqlite3';
 import { PDFParse } from 'pdf-parse';
 import { openTestDb, firmIdOf } from '../support/db-direct';
 import { waitForMessage } from '../support/mailbox';
+import { E2E_HOST } from './support/ports';
 
 // "E-mail this view" in Chromium from the demo host page on the second origin: the viewer moves two dials,
 // asks for the PDF, and the PDF that reaches the SMTP fake shows the same headline figure and dial values.
 
-const HOST = 'http://localhost:4300';
+const HOST = E2E_HOST;
 
 let db: Database.Database;
 let firmId: string;

@@ -14,12 +14,14 @@ declare module 'vitest' {
 }
 
 let stack: Stack | null = null;
+// TEST_PORT_OFFSET lets two checkouts run their stacks side by side on one machine.
+const OFF = Number(process.env.TEST_PORT_OFFSET ?? 0);
 
 // Starts the production build with fresh data and the local fakes once for all API tests.
 export async function setup(project: TestProject): Promise<void> {
   if (!fs.existsSync('.next/BUILD_ID')) throw new Error('No production build: run `npm run build` before the API tests.');
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'stochos-api-'));
-  stack = await startStack({ dataDir, appPort: 3100, smtpPort: 2625, mailboxPort: 2626, stripePort: 12211, hostPagePort: 4200, seed: true, quiet: true });
+  stack = await startStack({ dataDir, appPort: 3100 + OFF, smtpPort: 2625 + OFF, mailboxPort: 2626 + OFF, stripePort: 12211 + OFF, hostPagePort: 4200 + OFF, seed: true, quiet: true });
   project.provide('appUrl', stack.appUrl);
   project.provide('mailboxUrl', stack.mailboxUrl);
   project.provide('stripeUrl', stack.stripeUrl);

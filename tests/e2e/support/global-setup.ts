@@ -2,10 +2,9 @@ import os from 'node:os';
 import path from 'node:path';
 import fs from 'node:fs';
 import { startStack } from '../../../lib/dev/stack';
+import { E2E } from './ports';
 
 // One stack for the whole e2e run: fresh data, seeded demo firm, local fakes, the production build on :3200.
-export const E2E = { appPort: 3200, smtpPort: 2725, mailboxPort: 2726, stripePort: 12311, hostPagePort: 4300 };
-
 export default async function globalSetup(): Promise<() => Promise<void>> {
   if (!fs.existsSync('.next/BUILD_ID')) throw new Error('No production build: run `npm run build` first.');
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'stochos-e2e-'));
