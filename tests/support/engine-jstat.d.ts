@@ -27,6 +27,7 @@ declare module 'jstat' {
     uniform: Dist2;
     beta: Dist2;
     weibull: Dist2;
+    gamma: Dist2;
     exponential: Dist1;
     triangular: Dist3;
     ibeta(x: number, a: number, b: number): number;
