@@ -22,8 +22,7 @@ import path from 'node:path';
 import fs from 'node:fs';
 import autocannon from 'autocannon';
 import { startStack, type Stack } from '@/lib/dev/stack';
-import { DEMO_PASSWORD, DEMO_PEOPLE } from '@/db/seed/demo';
-import { Client } from '../support/http-client';
+import { demoPass } from '../support/demo-pass';
 import { startThrowawayPostgres, type ThrowawayPostgres } from './pg-cluster';
 import { summariseCpuProfile } from './cpu-profile';
 
@@ -111,19 +110,6 @@ function figuresOf(s: Scenario, r: autocannon.Result): Omit<Figures, 'ratioToIco
     timeouts: r.timeouts,
     unexpectedStatus: total - expected,
   };
-}
-
-/** Signs in as the demo owner and reads a live pass and its signed token from the dashboard API, as a user would. */
-async function demoPass(appUrl: string): Promise<{ passId: string; token: string }> {
-  const owner = new Client(appUrl);
-  const who = DEMO_PEOPLE.find((p) => p.role === 'owner')!;
-  const signed = await owner.signIn(who.email, DEMO_PASSWORD);
-  if (!signed.ok) throw new Error(`Could not sign in as the demo owner: ${signed.error}`);
-  const r = await owner.json<{ passes: { id: string; status: string; snippet: string | null }[] }>('GET', '/api/passes');
-  const live = r.body.passes.find((p) => p.snippet);
-  if (!live) throw new Error('The demo data has no live pass with a snippet.');
-  const token = /data-stochos-token="([^"]+)"/.exec(live.snippet!)![1]!;
-  return { passId: live.id, token };
 }
 
 function table(rows: Figures[]): string {
