@@ -19,6 +19,8 @@ export interface StackOptions {
   seed: boolean;
   extraEnv?: Record<string, string>;
   quiet?: boolean;
+  /** Extra Node.js flags for the `next start` process (e.g. --cpu-prof for a load benchmark). */
+  nodeArgs?: string[];
 }
 
 export interface Stack {
@@ -65,7 +67,7 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     publicUrl: `http://localhost:${o.stripePort}`,
   });
 
-  const next = spawn(process.execPath, [path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
+  const next = spawn(process.execPath, [...(o.nodeArgs ?? []), path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
     env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
     stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });
