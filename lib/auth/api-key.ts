@@ -11,6 +11,8 @@ export interface ApiCaller {
   firmId: string;
   /** The member's user id, or null for an API key. */
   userId: string | null;
+  /** The API key's id, or null for a signed-in member. */
+  keyId: string | null;
   via: 'session' | 'api-key';
 }
 
@@ -23,8 +25,8 @@ export async function requireMemberOrApiKey(permission: Permission): Promise<Api
     if (!found) throw new AppError('unauthorized', 'The API key is not valid or was revoked. The firm owner creates keys in Settings.');
     // Last use is written in a batch after the response, not under the write lock of this read.
     afterResponse(writeBehind().touchApiKey(found.keyId, new Date().toISOString()), "an API key's last use");
-    return { firmId: found.firmId, userId: null, via: 'api-key' };
+    return { firmId: found.firmId, userId: null, keyId: found.keyId, via: 'api-key' };
   }
   const m = await requireMember(permission);
-  return { firmId: m.firmId, userId: m.userId, via: 'session' };
+  return { firmId: m.firmId, userId: m.userId, keyId: null, via: 'session' };
 }
