@@ -145,6 +145,8 @@ const exponentialDist = z.object({ type: z.literal('exponential'), rate: positiv
 
 const weibullDist = z.object({ type: z.literal('weibull'), shape: positive('The shape'), scale: positive('The scale') });
 
+const gammaDist = z.object({ type: z.literal('gamma'), shape: positive('The shape'), scale: positive('The scale') });
+
 const discreteDist = z
   .object({
     type: z.literal('discrete'),
@@ -188,8 +190,8 @@ const drawnDist = z
 
 export const distributionSchema = z.discriminatedUnion(
   'type',
-  [constantDist, uniformDist, triangularDist, pertDist, normalDist, lognormalDist, exponentialDist, weibullDist, discreteDist, bernoulliDist, empiricalDist, drawnDist],
-  { error: 'Choose a distribution type: constant, uniform, triangular, pert, normal, lognormal, exponential, weibull, discrete, bernoulli, empirical or drawn.' },
+  [constantDist, uniformDist, triangularDist, pertDist, normalDist, lognormalDist, exponentialDist, weibullDist, gammaDist, discreteDist, bernoulliDist, empiricalDist, drawnDist],
+  { error: 'Choose a distribution type: constant, uniform, triangular, pert, normal, lognormal, exponential, weibull, gamma, discrete, bernoulli, empirical or drawn.' },
 );
 
 /** Numeric parameters a dial may move, per distribution type. */
@@ -202,6 +204,7 @@ export const DISTRIBUTION_PARAMS: Record<string, string[]> = {
   lognormal: ['mu', 'sigma', 'min', 'max'],
   exponential: ['rate'],
   weibull: ['shape', 'scale'],
+  gamma: ['shape', 'scale'],
   discrete: [],
   bernoulli: ['p'],
   empirical: [],
