@@ -229,6 +229,9 @@ export function dialTargetOptions(model: StochosModel): DialTargetOption[] {
     }
     add('Gap', 'lower limit', { kind: 'limit', which: 'lower' });
     add('Gap', 'upper limit', { kind: 'limit', which: 'upper' });
+    const cids = model.correlation?.inputs ?? [];
+    for (let i = 0; i < cids.length; i++)
+      for (let j = i + 1; j < cids.length; j++) add('Correlations', `${cids[i]} with ${cids[j]}`, { kind: 'correlation', a: cids[i], b: cids[j] }, [-1, 1]);
   } else if (model.template === 'cost-range') {
     add('Estimate', 'budget', { kind: 'budget' });
     add('Estimate', 'confidence level (P-level)', { kind: 'confidence' }, [0, 1]);
