@@ -6,6 +6,7 @@ import { AddButton, EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from '
 import { GroupMessages, KeyInput, InlineMessages, NumberInput, NumberListInput, RowMessages, SelectInput, TextInput, type Choice } from './fields';
 import { allIds, makeId, removeReferences } from './model-helpers';
 import { CorrelationEditor } from './correlation-editor';
+import { AllocationPanel } from './allocation-panel';
 import { MeasuredDataButton } from './measured-data';
 
 type StackKind = 'normal' | 'uniform' | 'triangular' | 'normal-fit' | 'empirical';
@@ -198,6 +199,8 @@ export function LinearStackForm() {
           <NumberInput path="limits.upper" label="Upper limit" unit={unit || undefined} dense={false} placeholder="none" />
         </div>
       </Section>
+
+      <AllocationPanel />
     </>
   );
 }
