@@ -128,14 +128,7 @@ export function DatasetDetailView({ detail, canEdit }: { detail: DatasetDetail; 
         <Card title={`${LAW_LABELS[chosen.law]} fit`} as="h2">
           <FitPlots law={chosen.law} params={chosen.params} bins={s.histogram} sorted={sorted} unit={ds.unit} />
           <div className="mt-4 flex flex-wrap gap-2">
-            {(() => {
-              const c = fittedChoice(ds, chosen.law, chosen.params);
-              return c ? (
-                <CopyButton value={choiceJson(c.distribution)} label={`Use this law (${LAW_LABELS[chosen.law]})`} what="distribution" />
-              ) : (
-                <span className="text-sm text-ink-600">The engine has no gamma law; use the empirical distribution or another fit.</span>
-              );
-            })()}
+            <CopyButton value={choiceJson(fittedChoice(ds, chosen.law, chosen.params).distribution)} label={`Use this law (${LAW_LABELS[chosen.law]})`} what="distribution" />
             <CopyButton value={choiceJson(empiricalChoice(ds).distribution)} label="Use empirical" what="distribution" variant="secondary" />
           </div>
           <p className="mt-2 text-xs text-ink-600">
