@@ -31,6 +31,7 @@ import { compilePlan, type Plan } from './compile';
 import { symmetricSqrt } from './linalg';
 import { createColumnSampler, type SamplerContext } from './samplers';
 import { validateModel, type StochosModel } from './schema';
+import { DRIVER_TRIAL_LIMIT, RANK_TRIAL_LIMIT } from './summary';
 
 /** Trials per chunk: fixed, so the split never depends on the number of threads. */
 export const CHUNK_SIZE = 16_384;
@@ -206,7 +207,8 @@ export function prepareRun(model: unknown, dialValues?: Record<string, number>, 
       if (rej.length) warnings.push(`Correlated input${rej.length > 1 ? 's' : ''} ${rej.join(', ')} ${rej.length > 1 ? 'are' : 'is'} sampled through the inverse CDF (Gaussian copula), not by rejection.`);
     } else {
       const all = JSON.stringify([...base, 'iman-conover', streamIds, g.matrix, g.ids.map(specOf)]);
-      sigs = g.ids.map(() => all);
+      // Members are reordered together: each depends on the whole group (the index tells them apart).
+      sigs = g.ids.map((_, i) => `${all}#${i}`);
     }
     g.ids.forEach((id, i) => (signatures[id] = sigs[i]));
     units.push({ kind: method, ids: g.ids, streamIds, marginals: ms, matrix: g.matrix, root: method === 'copula' ? symmetricSqrt(g.matrix) : null, signatures: sigs });
@@ -252,7 +254,10 @@ export interface ChunkPart {
 }
 
 export interface ChunkOptions {
-  /** Return input and derived columns of the chunks that start before this trial (default: none). */
+  /**
+   * Return input and derived columns of the chunks that start before this trial: at least
+   * inputWindow(prep, samples) for the merge (runChunks defaults to that for no samples).
+   */
   inputWindow?: number;
 }
 
@@ -278,10 +283,11 @@ export class ChunkRunner {
   private generation = 0;
   constructor(private readonly options: { cache?: boolean } = {}) {}
 
-  /** Start a new run: columns unused in the previous run are dropped. */
+  /** Start a new run: columns unused in the last three runs are dropped. */
   beginRun(): void {
     this.generation++;
-    for (const [k, e] of this.cache) if (e.used < this.generation - 1) this.cache.delete(k);
+    // Keep a few runs back: a quick drag cancels runs before they reach every chunk.
+    for (const [k, e] of this.cache) if (e.used < this.generation - 3) this.cache.delete(k);
   }
 
   clear(): void {
@@ -421,6 +427,15 @@ function finiteMoments(col: Float64Array): OutputChunkStats {
 }
 
 /**
+ * Trials of input columns a merge needs: the drivers' window, the achieved correlations'
+ * window, or every trial when the input samples are asked for.
+ */
+export function inputWindow(prep: PreparedRun, samples: 'none' | 'outputs' | 'all' = 'none'): number {
+  if (samples === 'all') return prep.settings.trials;
+  return Math.min(prep.settings.trials, prep.plan.groups.length ? Math.max(DRIVER_TRIAL_LIMIT, RANK_TRIAL_LIMIT) : DRIVER_TRIAL_LIMIT);
+}
+
+/**
  * Run the given chunks of a run (any subset, any order; the parts come back in the order
  * asked). `seed` and `trials` default to the model's settings. A pool thread calls this;
  * the gathering thread passes every part to mergeChunks.
@@ -434,5 +449,5 @@ export function runChunks(
   options: ChunkOptions = {},
 ): ChunkPart[] {
   const prep = prepareRun(model, dialValues, seed, trials);
-  return new ChunkRunner().run(prep, chunkIndices, options);
+  return new ChunkRunner().run(prep, chunkIndices, { inputWindow: options.inputWindow ?? inputWindow(prep) });
 }

@@ -6,7 +6,7 @@
  * bit-identical results.
  */
 import { evaluateCost, evaluateStack, type CostAnalysis, type StackAnalysis } from './analytic';
-import { CHUNK_SIZE, ChunkRunner, EMPTY_MOMENTS, mergeMoments, prepareRun, type ChunkPart, type Moments, type PreparedRun } from './chunks';
+import { CHUNK_SIZE, ChunkRunner, EMPTY_MOMENTS, inputWindow, mergeMoments, prepareRun, type ChunkPart, type Moments, type PreparedRun } from './chunks';
 import { achievedCorrelation, type AchievedCorrelation } from './correlation';
 import type { DistributionType, Marginal } from './distributions';
 import { RunCancelledError } from './errors';
@@ -19,7 +19,6 @@ import {
   DEFAULT_ECDF_POINTS,
   DEFAULT_HISTOGRAM_BINS,
   DEFAULT_PERCENTILES,
-  DRIVER_TRIAL_LIMIT,
   RANK_TRIAL_LIMIT,
   summarizeOutput,
   type DriverItem,
@@ -30,6 +29,7 @@ import {
 export const ENGINE_VERSION = 'stochos-engine/2';
 
 export type SampleSelection = 'none' | 'outputs' | 'all';
+export { inputWindow };
 
 export interface RunOptions {
   /** Dial values by dial id; missing dials take their default. */
@@ -142,12 +142,6 @@ export interface RunResult {
 }
 
 const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
-
-/** Trials of input columns a merge needs: the drivers' window, the achieved correlations' window, or all. */
-export function inputWindow(prep: PreparedRun, samples: SampleSelection = 'none'): number {
-  if (samples === 'all') return prep.settings.trials;
-  return Math.min(prep.settings.trials, prep.plan.groups.length ? Math.max(DRIVER_TRIAL_LIMIT, RANK_TRIAL_LIMIT) : DRIVER_TRIAL_LIMIT);
-}
 
 /** Caches a thread keeps between runs so a dial move redoes only what changed. */
 export interface MergeCaches {
@@ -459,7 +453,7 @@ export function runModelSync(model: unknown, options: RunOptions = {}): RunResul
 }
 
 /** Let queued messages (cancel, a newer run) through between steps. */
-function yieldToEventLoop(): Promise<void> {
+export function yieldToEventLoop(): Promise<void> {
   if (typeof MessageChannel !== 'undefined') {
     return new Promise((resolve) => {
       const ch = new MessageChannel();
