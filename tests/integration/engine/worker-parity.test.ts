@@ -96,7 +96,7 @@ describe('engine worker pool in Chromium', () => {
     await page.waitForFunction(() => 'engineParity' in window);
     const inBrowser = (await page.evaluate(([models, w]) => window.engineParity.run(models, w), [MODELS, workers] as const)) as Record<string, Fingerprint>;
     expect(errors).toEqual([]);
-    for (const [name, model] of Object.entries(MODELS)) {
+    for (const name of Object.keys(MODELS)) {
       const node = nodeRuns[name];
       expect(inBrowser[name].sampleKinds.every((k) => k === '[object Float64Array]')).toBe(true);
       expect({ model: name, columns: inBrowser[name].columns }).toEqual({ model: name, columns: node.columns });
