@@ -68,7 +68,7 @@ export function DatasetDetailView({ detail, canEdit }: { detail: DatasetDetail; 
       </p>
 
       <div className="grid gap-6 lg:grid-cols-2">
-        <SpreadChart name={ds.name} unit={ds.unit} bins={s.histogram} total={s.count} title="Histogram" headingLevel="h3" />
+        <SpreadChart name={ds.name} unit={ds.unit} bins={s.histogram} total={s.count} noun="measurements" title="Histogram" headingLevel="h3" />
         <CumulativeChart name={ds.name} unit={ds.unit} ecdf={s.ecdf} percentiles={s.percentiles.filter((p) => [0.1, 0.5, 0.9].includes(p.p))} tablePercentiles={s.percentiles} title="Empirical CDF" headingLevel="h3" />
       </div>
 

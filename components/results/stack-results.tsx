@@ -12,6 +12,7 @@ import { Term } from '@/components/ui/term';
 import { Figure, Figures, StatusMark } from './figures';
 import { AchievedCorrelations, StackCorrelationTerms } from './correlation-report';
 import { fv, limitsOf, outLabelsOf, outputFormat, ScatterPanel, outShareOf } from './shared';
+import { normalEstimateNote } from '@/lib/results/headline';
 
 const PPK_MIN = 1.33; // common practice, no source: the usual minimum for an established process
 
@@ -73,7 +74,7 @@ export function StackResults({ result }: { result: RunResult }) {
           value={mc.ppmObserved !== null ? formatPpm(mc.ppmObserved) : '—'}
           sub={mc.ppmObservedCi ? `95 % interval ${formatPpm(mc.ppmObservedCi.low)} to ${formatPpm(mc.ppmObservedCi.high)}` : undefined}
         />
-        <Figure label="Out of specification, normal estimate" value={mc.ppmNormal !== null ? formatPpm(mc.ppmNormal) : '—'} sub="From the mean and standard deviation, assuming a normal gap" />
+        <Figure label="Out of specification, normal estimate" value={mc.ppmNormal !== null ? formatPpm(mc.ppmNormal) : '—'} sub={normalEstimateNote(mc.ppmObserved, mc.ppmNormal) ?? 'Needs a limit and a spread'} />
         <Figure
           label={
             <>
