@@ -14,6 +14,8 @@ async function main(): Promise<void> {
     stripePort: port('DEMO_STRIPE_PORT', 12111),
     hostPagePort: port('DEMO_HOST_PORT', 4100),
     seed: true,
+    // One JSON line per request would bury the sign-in table below; LOG_LEVEL=info shows them.
+    extraEnv: { LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn' },
   });
   const lines = [
     '',

@@ -25,6 +25,8 @@ export interface StackOptions {
 
 export interface Stack {
   appUrl: string;
+  /** The `next start` process (a load benchmark reads its CPU time). */
+  appPid: number | undefined;
   /** The demo host page (an invented client portal on a second origin), when hostPagePort was given. */
   hostPageUrl: string | null;
   mailboxUrl: string;
@@ -85,6 +87,7 @@ export async function startStack(o: StackOptions): Promise<Stack> {
 
   return {
     appUrl,
+    appPid: next.pid,
     hostPageUrl: hostPage?.url ?? null,
     mailboxUrl: `http://127.0.0.1:${o.mailboxPort}`,
     stripeUrl: `http://127.0.0.1:${o.stripePort}`,
