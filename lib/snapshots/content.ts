@@ -79,6 +79,32 @@ function distributionText(d: Distribution, unit: string): [string, string] {
   return [d.type.charAt(0).toUpperCase() + d.type.slice(1), parts.join(', ')];
 }
 
+/** Correlated stack contributors, pair by pair (nonzero only). */
+function stackCorrelationTable(m: Extract<StochosModel, { template: 'linear-stack' }>): Table[] {
+  const c = m.correlation;
+  if (!c) return [];
+  const names = new Map(m.contributors.map((x) => [x.id, x.name]));
+  const rows: string[][] = [];
+  for (let i = 0; i < c.inputs.length; i++)
+    for (let j = i + 1; j < c.inputs.length; j++) {
+      const rho = c.matrix[i]?.[j] ?? 0;
+      if (rho !== 0) rows.push([names.get(c.inputs[i]!) ?? c.inputs[i]!, names.get(c.inputs[j]!) ?? c.inputs[j]!, formatFixed(rho, 2)]);
+    }
+  if (!rows.length) return [];
+  return [
+    {
+      title: 'Correlated contributors',
+      columns: [
+        { header: 'Contributor', weight: 3 },
+        { header: 'With', weight: 3 },
+        { header: 'Correlation', align: 'right', weight: 1.4 },
+      ],
+      rows,
+      note: 'Drawn through a Gaussian copula; RSS and the normal estimate include the correlation terms.',
+    },
+  ];
+}
+
 function assumptionTables(m: StochosModel): Table[] {
   if (m.template === 'linear-stack') {
     const u = m.unit;
@@ -108,6 +134,7 @@ function assumptionTables(m: StochosModel): Table[] {
         ]),
         note: `Gap limits: ${limits}.`,
       },
+      ...stackCorrelationTable(m),
     ];
   }
   if (m.template === 'cost-range') {

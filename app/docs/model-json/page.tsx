@@ -10,8 +10,9 @@ const TEMPLATE_NOTES: Record<string, { name: string; fields: [string, string][] 
     name: 'Linear stack (tolerance stack-up)',
     fields: [
       ['unit', 'length unit of every dimension, e.g. "mm"'],
-      ['contributors[]', 'id, name, nominal, plusTol, minusTol (both ≥ 0), direction (1 or −1 in the loop), distribution { type: normal (with k: tolerance = ±kσ, default 3) | uniform | triangular | empirical (data) }, meanShift'],
+      ['contributors[]', 'id, name, nominal, plusTol, minusTol (both ≥ 0), direction (1 or −1 in the loop), distribution { type: normal (with k: tolerance = ±kσ, default 3) | uniform | triangular | empirical (data) | normal-fit (data) }, meanShift'],
       ['limits', 'lower and/or upper limit on the gap'],
+      ['correlation', 'optional { inputs: [contributor ids], matrix: symmetric, unit diagonal, positive semi-definite }: contributors from one machine or batch, drawn through a Gaussian copula; RSS is reported with and without the correlation terms'],
     ],
   },
   'cost-range': {
