@@ -104,16 +104,15 @@ export function DialsEditor({ model }: { model: StochosModel }) {
       {fields.length === 0 ? (
         <EmptyRows>No dials: viewers see the model exactly as set here. Add a dial for each question a client is likely to ask.</EmptyRows>
       ) : (
-        <ScrollTable caption="Dials" minWidth={1060}>
+        <ScrollTable caption="Dials" minWidth={640}>
           <thead>
             <tr>
-              <Th className="min-w-48">Label and key</Th>
-              <Th className="min-w-60">Moves</Th>
+              <Th className="min-w-56">Label, key and what it moves</Th>
               <Th className="w-20">Unit</Th>
-              <Th className="w-24">Minimum</Th>
-              <Th className="w-24">Maximum</Th>
-              <Th className="w-24">Step</Th>
-              <Th className="w-24">Default</Th>
+              <Th className="w-20">Minimum</Th>
+              <Th className="w-20">Maximum</Th>
+              <Th className="w-20">Step</Th>
+              <Th className="w-20">Default</Th>
               <Th className="w-24">
                 <span className="sr-only">Row actions</span>
               </Th>
@@ -127,11 +126,12 @@ export function DialsEditor({ model }: { model: StochosModel }) {
                 <InlineMessages.Provider key={f._key} value={false}>
                 <tr>
                   <Td>
-                    <TextInput path={`${p}.label`} label={`Label of dial ${i + 1}`} hideLabel />
+                    {/* Label, key and target share one cell so a dial row fits a narrow editor column. */}
+                    <TextInput path={`${p}.label`} label={`Label of dial ${i + 1}`} hideLabel wrap />
                     <KeyInput path={`${p}.id`} label={`Key of dial ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
-                  </Td>
-                  <Td>
-                    <TargetSelect index={i} options={options} what={what} />
+                    <div className="mt-1">
+                      <TargetSelect index={i} options={options} what={what} />
+                    </div>
                   </Td>
                   <Td>
                     <TextInput path={`${p}.unit`} label={`Unit of ${what}`} hideLabel mono maxLength={24} />
@@ -153,7 +153,7 @@ export function DialsEditor({ model }: { model: StochosModel }) {
                   </Td>
                 </tr>
                 </InlineMessages.Provider>,
-                <RowMessages key={`${f._key}-msg`} prefix={p} labels={DIAL_LABELS} colSpan={8} />,
+                <RowMessages key={`${f._key}-msg`} prefix={p} labels={DIAL_LABELS} colSpan={7} />,
               ];
             })}
           </tbody>
