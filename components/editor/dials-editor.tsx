@@ -104,18 +104,15 @@ export function DialsEditor({ model }: { model: StochosModel }) {
       {fields.length === 0 ? (
         <EmptyRows>No dials: viewers see the model exactly as set here. Add a dial for each question a client is likely to ask.</EmptyRows>
       ) : (
-        <ScrollTable caption="Dials" minWidth={640}>
+        <ScrollTable caption="Dials" minWidth={600}>
           <thead>
             <tr>
-              <Th className="min-w-56">Label, key and what it moves</Th>
-              <Th className="w-20">Unit</Th>
-              <Th className="w-20">Minimum</Th>
-              <Th className="w-20">Maximum</Th>
-              <Th className="w-20">Step</Th>
-              <Th className="w-20">Default</Th>
-              <Th className="w-24">
-                <span className="sr-only">Row actions</span>
-              </Th>
+              <Th className="min-w-48">Label, key and what it moves</Th>
+              <Th className="w-14">Unit</Th>
+              <Th className="w-22">Minimum</Th>
+              <Th className="w-22">Maximum</Th>
+              <Th className="w-22">Step</Th>
+              <Th className="w-22">Default</Th>
             </tr>
           </thead>
           <tbody>
@@ -128,7 +125,10 @@ export function DialsEditor({ model }: { model: StochosModel }) {
                   <Td>
                     {/* Label, key and target share one cell so a dial row fits a narrow editor column. */}
                     <TextInput path={`${p}.label`} label={`Label of dial ${i + 1}`} hideLabel wrap />
-                    <KeyInput path={`${p}.id`} label={`Key of dial ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
+                    <div className="mt-1 flex items-start gap-1">
+                      <KeyInput path={`${p}.id`} label={`Key of dial ${i + 1}`} hideLabel className="min-w-0 flex-1" inputClassName="h-6! text-xs! text-ink-600" />
+                      <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} />
+                    </div>
                     <div className="mt-1">
                       <TargetSelect index={i} options={options} what={what} />
                     </div>
@@ -148,12 +148,9 @@ export function DialsEditor({ model }: { model: StochosModel }) {
                   <Td>
                     <NumberInput path={`${p}.default`} label={`Default of ${what}`} hideLabel />
                   </Td>
-                  <Td>
-                    <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} />
-                  </Td>
                 </tr>
                 </InlineMessages.Provider>,
-                <RowMessages key={`${f._key}-msg`} prefix={p} labels={DIAL_LABELS} colSpan={7} />,
+                <RowMessages key={`${f._key}-msg`} prefix={p} labels={DIAL_LABELS} colSpan={6} />,
               ];
             })}
           </tbody>
