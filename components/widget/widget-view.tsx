@@ -16,6 +16,9 @@ import { brandColors } from './brand';
 import { DialControl } from './dial-control';
 import { atDefaults, initialDialValues, type DialSpec } from './dial-values';
 import { WidgetChart, type ChartPanel } from './widget-panels';
+import { CompareView } from './compare-view';
+import { PinnedViewContext } from './pin-context';
+import type { RunResult } from '@/lib/engine';
 
 export type WidgetPanel = 'spread' | 'cumulative' | 'drivers' | 'headline';
 
@@ -81,6 +84,8 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   const [values, setValues] = useState<Record<string, number>>(() => initialDialValues(dials, given));
   // Bumped by a reset so each dial's half-typed text and message are cleared too.
   const [resets, setResets] = useState(0);
+  // A view the viewer pinned to compare with: its result as computed on screen (the dial values are in it).
+  const [pin, setPin] = useState<RunResult | null>(null);
   // Dials can change with a new model; keep only theirs, with defaults for new ones.
   const current = useMemo(() => {
     const out: Record<string, number> = {};
@@ -104,13 +109,18 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
     const next = initialDialValues(dials);
     setValues(next);
     setResets((n) => n + 1);
+    setPin(null);
     onDialChange?.(next, null);
   }, [dials, onDialChange]);
 
   const result = sim.result;
   const panels = widget.panels.filter((p) => p === 'headline' || CHART_PANELS.has(p));
   const chartPanels = panels.filter((p): p is ChartPanel => CHART_PANELS.has(p));
-  const titleId = `${useId().replace(/[^a-zA-Z0-9_-]/g, '')}-title`;
+  const uid = useId().replace(/[^a-zA-Z0-9_-]/g, '');
+  const titleId = `${uid}-title`;
+  // Only a settled result can be pinned: its figures belong to the dial values on screen.
+  const canPin = Boolean(result) && !sim.stale && sim.status !== 'running' && sim.status !== 'waiting' && !sim.error;
+  const pinnedValues = useMemo(() => (pin ? { ...pin.run.dialValues } : null), [pin]);
   const headline = result && panels.includes('headline') ? headlineFigure(result, widget.headline) : null;
   const cautions = useMemo(() => {
     const template = checked.ok ? checked.model.template : 'formula';
@@ -181,6 +191,28 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
                   </svg>
                   Reset to the author’s values
                 </button>
+                <div className="flex flex-wrap items-center gap-2 border-t border-ink-200 pt-2">
+                  <button
+                    type="button"
+                    onClick={() => result && setPin(result)}
+                    disabled={!canPin}
+                    className="inline-flex h-8 items-center gap-1.5 rounded-md border border-ink-300 bg-white px-3 text-[0.8125rem] font-medium shadow-sm hover:bg-ink-50 disabled:cursor-not-allowed disabled:opacity-60"
+                    style={{ color: 'var(--st-brand-text)' }}
+                  >
+                    <svg aria-hidden="true" viewBox="0 0 16 16" className="h-3.5 w-3.5" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" strokeLinejoin="round">
+                      <path d="M6 2h4l-.5 4 2.5 2.5H4L6.5 6zM8 8.5V14" />
+                    </svg>
+                    {pin ? 'Pin this view instead' : 'Pin this view'}
+                  </button>
+                  {pin ? (
+                    <button type="button" onClick={() => setPin(null)} className="inline-flex h-8 items-center rounded-md px-2 text-[0.8125rem] font-medium text-ink-700 underline underline-offset-2 hover:text-ink-900">
+                      Clear the pin
+                    </button>
+                  ) : null}
+                  <p role="status" className="w-full text-xs text-ink-600">
+                    {pin ? 'A view is pinned: move the dials to see it beside the current view.' : 'Pin a view, then move the dials to compare the two.'}
+                  </p>
+                </div>
               </fieldset>
             ) : null}
 
@@ -231,6 +263,8 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
             </div>
           ) : null}
 
+          {pin && result ? <CompareView pinned={pin} current={result} headline={widget.headline} dials={dials} titleId={`${uid}-compare`} /> : null}
+
           <CautionsList cautions={cautions} />
 
           <footer className="flex flex-wrap items-center justify-between gap-2 border-t border-ink-100 pt-2">
@@ -250,7 +284,11 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
                 'Computed in your browser'
               )}
             </p>
-            {actions ? <div className="flex flex-wrap gap-2">{actions}</div> : null}
+            {actions ? (
+              <PinnedViewContext.Provider value={pinnedValues}>
+                <div className="flex flex-wrap gap-2">{actions}</div>
+              </PinnedViewContext.Provider>
+            ) : null}
           </footer>
         </div>
       </div>

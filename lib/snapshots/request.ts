@@ -52,6 +52,19 @@ export function checkDialValues(model: unknown, dialIds: readonly string[], give
   return out;
 }
 
+/** Field paths of the pinned view's dial values say so (pinnedDialValues.<id>). */
+function prefixed<T>(fn: () => T): T {
+  try {
+    return fn();
+  } catch (err) {
+    if (err instanceof AppError && err.fields) {
+      const fields = Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [k.replace(/^dialValues\./, 'pinnedDialValues.'), v]));
+      throw new AppError('validation_failed', 'Some dial values of the pinned view cannot be used for this widget.', { fields });
+    }
+    throw err;
+  }
+}
+
 export async function requestSnapshot(v: Viewer, input: SnapshotRequestInput, requester: string): Promise<SnapshotAccepted> {
   const email = normaliseEmail(input.email);
   if (!email.ok) throw fieldError('email', email.message);
@@ -65,6 +78,7 @@ export async function requestSnapshot(v: Viewer, input: SnapshotRequestInput, re
     throw new AppError('conflict', `This widget was updated to version ${v.widget.versionNumber} while you were viewing it. Reload the page, then ask for the snapshot again.`);
   }
   const dialValues = checkDialValues(v.widget.model, v.widget.dialIds, input.dialValues);
+  const pinnedDialValues = input.pinnedDialValues ? prefixed(() => checkDialValues(v.widget.model, v.widget.dialIds, input.pinnedDialValues!)) : null;
 
   return writeTransaction(async (trx) => {
     const now = Date.now();
@@ -93,6 +107,7 @@ export async function requestSnapshot(v: Viewer, input: SnapshotRequestInput, re
         recipient: email.address.toLowerCase(),
         requesterHash: requester,
         dialValues,
+        pinnedDialValues,
         messageId: snapshotMessageId(id),
         createdAt: nowIso(),
       },

@@ -87,7 +87,8 @@ export default function ModelJsonDocs() {
             ))}
           </dl>
           <h3 className="mt-4 font-medium text-ink-900">Complete example (invented scenario)</h3>
-          <pre className="num mt-2 max-h-[28rem] overflow-auto rounded-md bg-ink-900 p-4 text-xs text-ink-50">{JSON.stringify(EXAMPLE_MODELS[template as keyof typeof EXAMPLE_MODELS], null, 2)}</pre>
+          {/* The block scrolls, so it takes keyboard focus (arrow keys scroll it) and is named for screen readers. */}
+          <pre tabIndex={0} role="region" aria-label={`${note.name}: complete example model JSON`} className="num mt-2 max-h-[28rem] overflow-auto rounded-md bg-ink-900 p-4 text-xs text-ink-50">{JSON.stringify(EXAMPLE_MODELS[template as keyof typeof EXAMPLE_MODELS], null, 2)}</pre>
         </section>
       ))}
 
