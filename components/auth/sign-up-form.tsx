@@ -7,7 +7,7 @@ import { signIn } from 'next-auth/react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { signUpSchema } from '@/lib/auth/schemas';
+import { PASSWORD_RULE, signUpSchema } from '@/lib/auth/schemas';
 import { api, applyServerErrors } from '@/lib/client/api';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
@@ -61,7 +61,7 @@ export function SignUpForm() {
       <TextField label="Firm name" autoComplete="organization" hint="Your consultancy, as clients know it." error={errors.firmName?.message} {...register('firmName')} />
       <TextField label="Your name" autoComplete="name" error={errors.name?.message} {...register('name')} />
       <TextField label="E-mail" type="email" autoComplete="email" hint="Your work address. You sign in with it." error={errors.email?.message} {...register('email')} />
-      <TextField label="Password" type="password" autoComplete="new-password" hint="At least 10 characters. A short sentence is easy to remember and hard to guess." error={errors.password?.message} {...register('password')} />
+      <TextField label="Password" type="password" autoComplete="new-password" hint={`${PASSWORD_RULE} A short sentence is easy to remember and hard to guess.`} error={errors.password?.message} {...register('password')} />
       <Button type="submit" className="w-full" pending={isSubmitting || leaving} pendingLabel="Creating the account…">
         Create account
       </Button>

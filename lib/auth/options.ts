@@ -13,6 +13,7 @@ import { assertSignInAllowed, noteSignInFailure, noteSignInSuccess } from '@/lib
 import { linkMail, sendMail } from '@/lib/mail/send';
 import { AppError } from '@/lib/http/errors';
 import { recordAudit } from '@/db/audit';
+import { safeNext } from '@/lib/auth/next-path';
 
 const credentialsSchema = z.object({ email: z.email().max(254), password: z.string().min(1).max(200) });
 
@@ -119,6 +120,8 @@ export function authOptions(): NextAuthOptions {
       }),
     ],
     callbacks: {
+      // Every callback URL (sign-in links, sign-out) is parsed against our own origin; anything else lands on the dashboard.
+      redirect: ({ url, baseUrl }) => new URL(safeNext(url, baseUrl), baseUrl).toString(),
       async signIn({ user, email }) {
         if (email?.verificationRequest) return true;
         const u = user.email ? await getUserCredentials(user.email) : null;

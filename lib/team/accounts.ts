@@ -20,7 +20,7 @@ import { AppError, conflict, fieldError, notFound } from '@/lib/http/errors';
 import { linkMail, sendMail } from '@/lib/mail/send';
 import { env } from '@/lib/env';
 import type { Member } from '@/lib/auth/guard';
-import type { signUpSchema, inviteSchema, acceptInvitationSchema } from '@/lib/auth/schemas';
+import { passwordField, type signUpSchema, type inviteSchema, type acceptInvitationSchema } from '@/lib/auth/schemas';
 import { assertSeatAvailable } from '@/lib/team/seats';
 
 export const INVITATION_DAYS = 7;
@@ -134,7 +134,8 @@ export async function acceptInvitation(input: z.infer<typeof acceptInvitationSch
     if (!creds.passwordHash || !(await verifyPassword(input.password, creds.passwordHash))) throw fieldError('password', 'That is not the password of this account.');
   } else {
     if (!input.name) throw fieldError('name', 'Enter your name.');
-    if (input.password.length < 10) throw fieldError('password', 'Use at least 10 characters.');
+    const pw = passwordField.safeParse(input.password);
+    if (!pw.success) throw fieldError('password', pw.error.issues[0]!.message);
   }
   const passwordHash = creds ? null : await hashPassword(input.password);
   await writeTransaction(async (trx) => {
