@@ -19,6 +19,19 @@ export const signUpSchema = z.object({
   password: passwordField,
 });
 
+const tokenField = z.string().min(20, 'This link is incomplete: open the whole link from the e-mail.').max(200, 'This link is not one of ours.');
+
+export const confirmSignUpSchema = z.object({ token: tokenField, password: z.string().min(1, 'Enter the password you chose when signing up.').max(200) });
+
+export const passwordResetRequestSchema = z.object({ email: emailField });
+
+export const resetPasswordSchema = z.object({ token: tokenField, password: passwordField });
+
+export const changePasswordSchema = z.object({
+  currentPassword: z.string().min(1, 'Enter your current password.').max(200),
+  newPassword: passwordField,
+});
+
 export const inviteSchema = z.object({
   email: emailField,
   role: z.enum(['author', 'checker'], { message: 'Choose author or checker.' }),

@@ -5,6 +5,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { SettingsForm } from '@/components/settings/settings-form';
 import { ApiKeysPanel } from '@/components/api-keys/api-keys-panel';
 import { LogoUpload } from '@/components/datasets/logo-upload';
+import { ChangePassword } from '@/components/settings/change-password';
 
 export const metadata: Metadata = { title: 'Settings' };
 
@@ -12,10 +13,13 @@ export default async function SettingsPage() {
   const member = await requirePageMember('firm.read', '/app/settings');
   return (
     <>
-      <PageHeader title="Settings" description="Your firm’s name, defaults for new models, branding of widgets and snapshots, and the publishing rule." />
+      <PageHeader title="Settings" description="Your firm’s name, defaults for new models, branding of widgets and snapshots, the publishing rule, and your own password." />
       <SettingsForm canEdit={can(member.role, 'settings.manage')} />
       <div className="mt-8">
         <LogoUpload firmId={member.firmId} canEdit={can(member.role, 'settings.manage')} />
+      </div>
+      <div className="mt-8">
+        <ChangePassword email={member.email} />
       </div>
       {can(member.role, 'apikeys.manage') && (
         <div className="mt-8">
