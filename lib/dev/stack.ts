@@ -1,6 +1,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import fs from 'node:fs';
+import { randomBytes } from 'node:crypto';
 import { startFakeSmtp } from '@/lib/fakes/smtp/server';
 import { startFakeStripe } from '@/lib/fakes/stripe/server';
 import { startHostPage } from '@/lib/dev/host-page';
@@ -45,6 +46,7 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     DATABASE_FILE: path.join(o.dataDir, 'stochos.sqlite'),
     APP_URL: appUrl,
     NEXTAUTH_URL: appUrl,
+    AUTH_SECRET: dataFolderSecret(o.dataDir),
     STOCHOS_DEMO: '1',
     SMTP_HOST: '127.0.0.1',
     SMTP_PORT: String(o.smtpPort),
@@ -69,7 +71,8 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     publicUrl: `http://localhost:${o.stripePort}`,
   });
 
-  const next = spawn(process.execPath, [...(o.nodeArgs ?? []), path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
+  // Loopback only: the demo's mailbox and fakes are for the person at this machine.
+  const next = spawn(process.execPath, [...(o.nodeArgs ?? []), path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(o.appPort)], {
     env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
     stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });
@@ -102,6 +105,20 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     },
     seedMessage,
   };
+}
+
+/** The demo's own AUTH_SECRET: random, made once per data folder and kept there (readable by its owner only). */
+export function dataFolderSecret(dataDir: string): string {
+  const file = path.join(dataDir, 'auth-secret');
+  try {
+    const existing = fs.readFileSync(file, 'utf8').trim();
+    if (existing.length >= 32) return existing;
+  } catch {
+    // first start of this data folder
+  }
+  const secret = randomBytes(32).toString('base64url');
+  fs.writeFileSync(file, `${secret}\n`, { mode: 0o600 });
+  return secret;
 }
 
 function runCli(args: string[], childEnv: NodeJS.ProcessEnv): Promise<string> {

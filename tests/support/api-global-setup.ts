@@ -13,6 +13,7 @@ declare module 'vitest' {
   }
 }
 
+// Every test request comes from this machine: the per-client e-mail limit is lifted (tests/unit/auth/mail-limits.test.ts checks it).
 let stack: Stack | null = null;
 // TEST_PORT_OFFSET lets two checkouts run their stacks side by side on one machine.
 const OFF = Number(process.env.TEST_PORT_OFFSET ?? 0);
@@ -21,7 +22,7 @@ const OFF = Number(process.env.TEST_PORT_OFFSET ?? 0);
 export async function setup(project: TestProject): Promise<void> {
   if (!fs.existsSync('.next/BUILD_ID')) throw new Error('No production build: run `npm run build` before the API tests.');
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'stochos-api-'));
-  stack = await startStack({ dataDir, appPort: 3100 + OFF, smtpPort: 2625 + OFF, mailboxPort: 2626 + OFF, stripePort: 12211 + OFF, hostPagePort: 4200 + OFF, seed: true, quiet: true });
+  stack = await startStack({ dataDir, appPort: 3100 + OFF, smtpPort: 2625 + OFF, mailboxPort: 2626 + OFF, stripePort: 12211 + OFF, hostPagePort: 4200 + OFF, seed: true, quiet: true, extraEnv: { MAIL_LIMIT_PER_CLIENT_HOUR: '1000000' } });
   project.provide('appUrl', stack.appUrl);
   project.provide('mailboxUrl', stack.mailboxUrl);
   project.provide('stripeUrl', stack.stripeUrl);
