@@ -33,7 +33,7 @@ function RunLimitsTable() {
         {rows.map(([name, value, envName, answer]) => (
           <tr key={name} className="border-b border-ink-100 align-top">
             <td className="py-1 pr-3">{name}</td>
-            <td className="num py-1 pr-3">{value}</td>
+            <td className="py-1 pr-3">{value}</td>
             <td className="py-1 pr-3"><code className="text-xs">{envName}</code></td>
             <td className="py-1">{answer}</td>
           </tr>
