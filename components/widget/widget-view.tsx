@@ -1,7 +1,6 @@
 'use client';
 
 import { useCallback, useId, useMemo, useState, type CSSProperties, type ReactNode } from 'react';
-import { validateModel } from '@/lib/engine/schema';
 import { cautionsFor, lowTrialCaution } from '@/lib/cautions';
 import { formatCount, formatDuration } from '@/lib/charts/format';
 import { headlineFigure } from '@/lib/results/headline';
@@ -15,6 +14,7 @@ import { useSimulation } from '@/components/results/use-simulation';
 import { brandColors } from './brand';
 import { DialControl } from './dial-control';
 import { atDefaults, initialDialValues, type DialSpec } from './dial-values';
+import { modelOutline } from './model-outline';
 import { WidgetChart, type ChartPanel } from './widget-panels';
 import { CompareView } from './compare-view';
 import { PinnedViewContext } from './pin-context';
@@ -71,15 +71,16 @@ const CHART_PANELS = new Set<string>(['spread', 'cumulative', 'drivers']);
  * changes. No dashboard or sign-in code: the embed page uses this as it is.
  */
 export function WidgetView({ model, widget, branding, versionInfo, onDialChange, initialDialValues: given, actions, headingLevel: H = 'h2', className }: WidgetViewProps) {
-  const checked = useMemo(() => validateModel(model), [model]);
+  // Read, not validated, here: the engine validates where it runs (modelOutline says why).
+  const outline = useMemo(() => modelOutline(model), [model]);
   const dials = useMemo<DialSpec[]>(() => {
-    if (!checked.ok) return [];
-    const byId = new Map(checked.model.dials.map((d) => [d.id, d]));
+    if (!outline.ok) return [];
+    const byId = new Map(outline.dials.map((d) => [d.id, d]));
     return widget.dialIds.flatMap((id) => {
       const d = byId.get(id);
-      return d ? [{ id: d.id, label: d.label, unit: d.unit, min: d.min, max: d.max, step: d.step, default: d.default }] : [];
+      return d ? [d] : [];
     });
-  }, [checked, widget.dialIds]);
+  }, [outline, widget.dialIds]);
 
   const [values, setValues] = useState<Record<string, number>>(() => initialDialValues(dials, given));
   // Bumped by a reset so each dial's half-typed text and message are cleared too.
@@ -94,7 +95,9 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   }, [dials, values]);
 
   // A dial move is one discrete step: a short wait is enough to merge a burst of key presses.
-  const sim = useSimulation(checked.ok ? model : null, current, { samples: 'none', debounceMs: 30 });
+  const sim = useSimulation(outline.ok ? model : null, current, { samples: 'none', debounceMs: 30 });
+  // A model the engine refuses at the author's own values cannot be shown at all (not just these settings).
+  const broken = !outline.ok ? outline.problem : sim.error && !sim.result && atDefaults(dials, current) ? (sim.error.issues[0]?.message ?? sim.error.message) : null;
   const colors = useMemo(() => brandColors(branding.brandColor), [branding.brandColor]);
 
   const setDial = useCallback(
@@ -123,10 +126,10 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   const pinnedValues = useMemo(() => (pin ? { ...pin.run.dialValues } : null), [pin]);
   const headline = result && panels.includes('headline') ? headlineFigure(result, widget.headline) : null;
   const cautions = useMemo(() => {
-    const template = checked.ok ? checked.model.template : 'formula';
+    const template = outline.ok ? outline.template : 'formula';
     const low = result ? lowTrialCaution(result.outputs) : null;
     return [...(low ? [low] : []), ...cautionsFor(template)];
-  }, [checked, result]);
+  }, [outline, result]);
   const invalid = result ? result.outputs.reduce((s, o) => s + o.invalid.total, 0) : 0;
 
   const style = {
@@ -166,14 +169,14 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
             {widget.title}
           </H>
 
-          {!checked.ok ? (
+          {broken ? (
             <Banner tone="danger" title="This model cannot be shown">
-              <p>The published model did not pass its checks ({checked.issues[0]?.message ?? 'unknown problem'}). Ask the firm that shared it to publish it again.</p>
+              <p>The published model did not pass its checks ({broken}). Ask the firm that shared it to publish it again.</p>
             </Banner>
           ) : null}
 
           <div className={cx('grid grid-cols-1 gap-4', dials.length > 0 && panels.includes('headline') && '@3xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]')}>
-            {dials.length ? (
+            {dials.length && !broken ? (
               <fieldset className="min-w-0 space-y-3 rounded-lg border border-ink-200 bg-ink-50 px-3 pt-2 pb-3">
                 <legend className="px-1 text-sm font-semibold text-ink-900">Try other values</legend>
                 {dials.map((d) => (
@@ -236,7 +239,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
 
           {!panels.includes('headline') ? <WidgetProgress sim={sim} /> : null}
 
-          {sim.error ? (
+          {sim.error && !broken ? (
             <Banner
               tone="danger"
               title="These settings cannot be computed"

@@ -2,8 +2,46 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { EXAMPLE_MODELS, DISTRIBUTION_PARAMS, FORMULA_FUNCTIONS, FORMULA_CONSTANTS, MIN_TRIALS, MAX_TRIALS, PERCENTILE_DEFINITION, SCHEMA_ID } from '@/lib/engine';
 import { Logo } from '@/components/ui/logo';
+import { runLimits } from '@/lib/simulate/limits';
 
 export const metadata: Metadata = { title: 'Model JSON and the simulate API' };
+// The limits shown are the ones this server runs with (set by environment variables at start-up).
+export const dynamic = 'force-dynamic';
+
+function RunLimitsTable() {
+  const l = runLimits();
+  const n = (x: number) => x.toLocaleString('en');
+  const rows: [string, string, string, string][] = [
+    ['Work budget', `${n(l.maxWork)} draws (trials × sampled columns)`, 'SIMULATE_MAX_WORK', '422 naming model.settings.trials and the most trials the model may have'],
+    ['Time limit', `${n(l.timeLimitMs / 1000)} s per run, waiting time included`, 'SIMULATE_TIME_LIMIT_MS', '503: the run is stopped and its thread freed'],
+    ['Runs in progress', `${n(l.concurrentPerKey)} per API key or member, ${n(l.concurrentPerFirm)} per firm`, 'SIMULATE_MAX_CONCURRENT_PER_KEY, _PER_FIRM', '429 with Retry-After'],
+    ['Runs started', `${n(l.ratePerKey)} per minute per API key or member, ${n(l.ratePerFirm)} per firm`, 'SIMULATE_RATE_PER_KEY, _PER_FIRM', '429 with Retry-After (seconds to the next minute)'],
+    ['Samples returned', `${n(l.maxSampleValues)} values (samples.limit × columns), at most ${n(100_000)} per column`, 'SIMULATE_MAX_SAMPLE_VALUES', '422 naming samples.limit'],
+    ['Server queue', `${n(l.maxQueue)} runs waiting for ${n(l.threads)} thread${l.threads === 1 ? '' : 's'}`, 'SIMULATE_MAX_QUEUE, SIMULATE_THREADS', '503 with Retry-After'],
+  ];
+  return (
+    <table className="mt-3 w-full border-collapse text-left text-sm">
+      <thead>
+        <tr className="border-b border-ink-200">
+          <th className="py-1 pr-3 font-medium">Limit</th>
+          <th className="py-1 pr-3 font-medium">On this server</th>
+          <th className="py-1 pr-3 font-medium">Set by</th>
+          <th className="py-1 font-medium">Answer when passed</th>
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map(([name, value, envName, answer]) => (
+          <tr key={name} className="border-b border-ink-100 align-top">
+            <td className="py-1 pr-3">{name}</td>
+            <td className="py-1 pr-3">{value}</td>
+            <td className="py-1 pr-3"><code className="text-xs">{envName}</code></td>
+            <td className="py-1">{answer}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
 
 const TEMPLATE_NOTES: Record<string, { name: string; fields: [string, string][] }> = {
   'linear-stack': {
@@ -99,6 +137,16 @@ export default function ModelJsonDocs() {
         samples per column. A bad model gets <code>422</code> with <code>error.fields</code> keyed by the path of every bad field, e.g. <code>model.contributors.1.minusTol</code>.
       </p>
       <pre className="num mt-3 overflow-auto rounded-md bg-ink-900 p-4 text-xs text-ink-50">{curl}</pre>
+
+      <h3 className="mt-6 font-medium text-ink-900">Limits of server runs</h3>
+      <p className="mt-2">
+        Runs happen on a pool of worker threads, never on the thread that answers requests, so one large run does not slow anyone else down. Each run is measured in draws:
+        <code> settings.trials</code> × the sampled columns (one per contributor of a stack, per line item of a cost range plus two per risk event, per input of a formula model). A
+        model over the budget is refused before it runs. The counts of runs are kept in the database, so they hold across every server instance. Every refusal is a JSON error
+        <code> {'{ error: { code, message, fields?, retryAfter? } }'}</code> whose message says what to change; <code>GET /api/v1/simulate</code> returns the limits in force and your
+        firm&apos;s runs in progress.
+      </p>
+      <RunLimitsTable />
     </main>
   );
 }
