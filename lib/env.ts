@@ -26,6 +26,9 @@ const schema = z.object({
   STRIPE_PRICE_ID: z.string().optional(),
   FAKE_STRIPE_URL: z.url().default('http://127.0.0.1:12111'),
   EMBED_SIGNING_SECRET: z.string().min(32).optional(),
+  // Reverse proxies whose forwarded header is believed (IPs or CIDRs, comma-separated); empty: the socket peer only.
+  TRUSTED_PROXIES: z.string().default(''),
+  TRUSTED_PROXY_HEADER: z.enum(['x-forwarded-for', 'forwarded']).default('x-forwarded-for'),
 });
 
 export type Env = z.infer<typeof schema> & { authSecret: string; realSmtp: boolean; embedSecret: string };

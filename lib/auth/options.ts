@@ -12,6 +12,7 @@ import { burnPasswordCheck, verifyPassword } from '@/lib/auth/password';
 import { assertSignInAllowed, noteSignInFailure, noteSignInSuccess } from '@/lib/auth/rate-limit';
 import { linkMail, sendMail } from '@/lib/mail/send';
 import { AppError } from '@/lib/http/errors';
+import { clientAddressOfHeaders } from '@/lib/http/client-address';
 import { recordAudit } from '@/db/audit';
 
 const credentialsSchema = z.object({ email: z.email().max(254), password: z.string().min(1).max(200) });
@@ -55,12 +56,6 @@ const adapter: Adapter = {
   },
 };
 
-function clientAddress(headers: Record<string, unknown> | undefined): string {
-  const fwd = headers?.['x-forwarded-for'];
-  const first = typeof fwd === 'string' ? fwd.split(',')[0]?.trim() : undefined;
-  return first || (typeof headers?.['x-real-ip'] === 'string' ? (headers['x-real-ip'] as string) : 'local');
-}
-
 export function authOptions(): NextAuthOptions {
   const e = env();
   return {
@@ -78,7 +73,7 @@ export function authOptions(): NextAuthOptions {
           const parsed = credentialsSchema.safeParse(raw);
           if (!parsed.success) return null;
           const { email, password } = parsed.data;
-          const address = clientAddress(req?.headers);
+          const address = clientAddressOfHeaders(req?.headers);
           try {
             await assertSignInAllowed(email, address);
           } catch (err) {

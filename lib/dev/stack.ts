@@ -1,5 +1,6 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
+import { pathToFileURL } from 'node:url';
 import fs from 'node:fs';
 import { startFakeSmtp } from '@/lib/fakes/smtp/server';
 import { startFakeStripe } from '@/lib/fakes/stripe/server';
@@ -65,7 +66,8 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     publicUrl: `http://localhost:${o.stripePort}`,
   });
 
-  const next = spawn(process.execPath, [path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
+  // The preload stamps each request's socket address (lib/http/socket-peer.mjs), as `npm start` does.
+  const next = spawn(process.execPath, ['--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
     env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
     stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });
