@@ -12,6 +12,8 @@ export interface ClientRecord {
   note: string | null;
   allowedOrigins: string[];
   allowedEmailDomains: string[];
+  /** Snapshots may go to any address (an explicit, warned choice); otherwise only to allowedEmailDomains. */
+  snapshotAnyAddress: boolean;
   keyVersion: number;
   notBefore: string;
   createdAt: string;
@@ -32,6 +34,7 @@ const COLUMNS = [
   'c.note',
   'c.allowed_origins',
   'c.allowed_email_domains',
+  'c.snapshot_any_address',
   'c.key_version',
   'c.not_before',
   'c.created_at',
@@ -47,6 +50,7 @@ export function toClient(r: Record<string, unknown>): ClientRecord {
     note: (r.note as string | null) ?? null,
     allowedOrigins: JSON.parse(r.allowed_origins as string) as string[],
     allowedEmailDomains: JSON.parse(r.allowed_email_domains as string) as string[],
+    snapshotAnyAddress: Boolean(r.snapshot_any_address),
     keyVersion: Number(r.key_version),
     notBefore: r.not_before as string,
     createdAt: r.created_at as string,
@@ -102,6 +106,7 @@ export interface ClientFields {
   note?: string | null;
   allowedOrigins: string[];
   allowedEmailDomains: string[];
+  snapshotAnyAddress?: boolean;
 }
 
 export async function insertClient(firmId: string, userId: string, f: ClientFields, trx: Knex.Transaction): Promise<string> {
@@ -114,6 +119,7 @@ export async function insertClient(firmId: string, userId: string, f: ClientFiel
     note: f.note ?? null,
     allowed_origins: JSON.stringify(f.allowedOrigins),
     allowed_email_domains: JSON.stringify(f.allowedEmailDomains),
+    snapshot_any_address: f.snapshotAnyAddress ?? false,
     key_version: 1,
     not_before: now,
     created_by: userId,
@@ -137,6 +143,7 @@ export async function updateClient(
   if (patch.note !== undefined) row.note = patch.note || null;
   if (patch.allowedOrigins !== undefined) row.allowed_origins = JSON.stringify(patch.allowedOrigins);
   if (patch.allowedEmailDomains !== undefined) row.allowed_email_domains = JSON.stringify(patch.allowedEmailDomains);
+  if (patch.snapshotAnyAddress !== undefined) row.snapshot_any_address = patch.snapshotAnyAddress;
   if (patch.archived !== undefined) row.archived_at = patch.archived ? now : null;
   await trx('clients').where({ firm_id: firmId, id }).update(row);
 }

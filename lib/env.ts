@@ -35,6 +35,9 @@ const schema = z.object({
   EVENT_FLUSH_MS: z.coerce.number().int().min(10).max(60_000).default(250),
   // E-mails one client address may trigger per hour (sign-in links, password resets, sign-ups together).
   MAIL_LIMIT_PER_CLIENT_HOUR: z.coerce.number().int().min(1).max(1_000_000).default(30),
+  // Reverse proxies whose forwarded header is believed (IPs or CIDRs, comma-separated); empty: the socket peer only.
+  TRUSTED_PROXIES: z.string().default(''),
+  TRUSTED_PROXY_HEADER: z.enum(['x-forwarded-for', 'forwarded']).default('x-forwarded-for'),
 });
 
 export type Env = Omit<z.infer<typeof schema>, 'STRIPE_WEBHOOK_SECRET'> & { STRIPE_WEBHOOK_SECRET: string; authSecret: string; realSmtp: boolean; embedSecret: string };

@@ -206,7 +206,15 @@ export function ClientDetail({ id, canManage, widgets }: { id: string; canManage
             </div>
             <div>
               <dt className="text-xs font-semibold tracking-wide text-ink-600 uppercase">Allowed e-mail domains</dt>
-              <dd className="mt-1 text-sm text-ink-800">{client.allowedEmailDomains.length ? client.allowedEmailDomains.join(', ') : 'None: snapshots cannot be sent to this client.'}</dd>
+              <dd className="mt-1 text-sm text-ink-800">
+                {client.snapshotAnyAddress ? (
+                  <span className="font-medium text-warn-700">Any address: snapshots go wherever a viewer asks (not recommended).</span>
+                ) : client.allowedEmailDomains.length ? (
+                  client.allowedEmailDomains.join(', ')
+                ) : (
+                  'None: snapshots cannot be sent to this client.'
+                )}
+              </dd>
             </div>
             <div>
               <dt className="text-xs font-semibold tracking-wide text-ink-600 uppercase">Signing key</dt>

@@ -1,13 +1,13 @@
 'use client';
 
 import { useId, useState, forwardRef, type ComponentProps } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { ApiError, errorMessage } from '@/lib/client/api';
 import { clientCreateSchema, domainsField, originsField, splitLines } from '@/lib/embed/schemas';
 import { Button } from '@/components/ui/button';
-import { TextField, FieldError, controlClasses } from '@/components/ui/field';
+import { TextField, FieldError, Checkbox, controlClasses } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';
 import type { ClientBody } from './use-clients';
 
@@ -27,12 +27,13 @@ const formSchema = z.object({
   name: clientCreateSchema.shape.name,
   origins: lines(originsField),
   domains: lines(domainsField),
+  anyAddress: z.boolean(),
   note: z.string().trim().max(500, 'Use at most 500 characters.'),
 });
 
 type In = z.input<typeof formSchema>;
 type Out = z.output<typeof formSchema>;
-const FIELD_OF: Record<string, keyof In> = { name: 'name', allowedOrigins: 'origins', allowedEmailDomains: 'domains', note: 'note' };
+const FIELD_OF: Record<string, keyof In> = { name: 'name', allowedOrigins: 'origins', allowedEmailDomains: 'domains', snapshotAnyAddress: 'anyAddress', note: 'note' };
 
 type TextAreaProps = ComponentProps<'textarea'> & { label: string; hint?: string; error?: string };
 
@@ -57,7 +58,7 @@ const TextArea = forwardRef<HTMLTextAreaElement, TextAreaProps>(function TextAre
 });
 
 export interface ClientFormProps {
-  initial?: { name: string; allowedOrigins: string[]; allowedEmailDomains: string[]; note: string | null };
+  initial?: { name: string; allowedOrigins: string[]; allowedEmailDomains: string[]; snapshotAnyAddress: boolean; note: string | null };
   submitLabel: string;
   onSubmit: (body: ClientBody) => Promise<unknown>;
   onCancel?: () => void;
@@ -68,6 +69,7 @@ export function ClientForm({ initial, submitLabel, onSubmit, onCancel }: ClientF
   const {
     register,
     handleSubmit,
+    control,
     setError,
     reset,
     formState: { errors, isSubmitting },
@@ -77,14 +79,17 @@ export function ClientForm({ initial, submitLabel, onSubmit, onCancel }: ClientF
       name: initial?.name ?? '',
       origins: initial?.allowedOrigins.join('\n') ?? '',
       domains: initial?.allowedEmailDomains.join('\n') ?? '',
+      anyAddress: initial?.snapshotAnyAddress ?? false,
       note: initial?.note ?? '',
     },
   });
 
+  const anyAddress = useWatch({ control, name: 'anyAddress' });
+
   const submit = handleSubmit(async (v) => {
     setFormMessages([]);
     try {
-      await onSubmit({ name: v.name, allowedOrigins: v.origins, allowedEmailDomains: v.domains, note: v.note });
+      await onSubmit({ name: v.name, allowedOrigins: v.origins, allowedEmailDomains: v.domains, snapshotAnyAddress: v.anyAddress, note: v.note });
       if (!initial) reset();
     } catch (err) {
       // Server paths such as "allowedOrigins.1" belong to the textarea of the whole list.
@@ -118,6 +123,17 @@ export function ClientForm({ initial, submitLabel, onSubmit, onCancel }: ClientF
         error={errors.domains?.message}
         {...register('domains')}
       />
+      <Checkbox
+        label="Send snapshots to any e-mail address"
+        hint="Not recommended: anyone who can see the widget could have its figures e-mailed anywhere, and the widget becomes a way to send mail in your firm’s name. The domains above are ignored while this is on."
+        error={errors.anyAddress?.message}
+        {...register('anyAddress')}
+      />
+      {anyAddress ? (
+        <p role="alert" className="rounded-md border border-warn-600/30 border-l-4 border-l-warn-600 bg-warn-50 px-3 py-2 text-[0.8125rem] text-ink-800">
+          Warning: snapshots of this client’s widgets will go to any address a viewer types.
+        </p>
+      ) : null}
       <TextField label="Note (optional)" placeholder="Contact, contract reference…" error={errors.note?.message} {...register('note')} />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" pending={isSubmitting} pendingLabel="Saving…">

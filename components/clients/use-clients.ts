@@ -14,6 +14,7 @@ export interface ClientBody {
   name: string;
   allowedOrigins: string[];
   allowedEmailDomains: string[];
+  snapshotAnyAddress: boolean;
   note?: string;
 }
 

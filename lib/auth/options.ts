@@ -12,6 +12,7 @@ import { burnPasswordCheck, verifyPassword } from '@/lib/auth/password';
 import { assertSignInAllowed, noteSignInFailure, noteSignInSuccess } from '@/lib/auth/rate-limit';
 import { linkMail, sendMail } from '@/lib/mail/send';
 import { AppError } from '@/lib/http/errors';
+import { clientAddressOfHeaders } from '@/lib/http/client-address';
 import { recordAudit } from '@/db/audit';
 import { safeNext } from '@/lib/auth/next-path';
 import { clientAddress } from '@/lib/auth/client-address';
@@ -77,7 +78,7 @@ export function authOptions(): NextAuthOptions {
           const parsed = credentialsSchema.safeParse(raw);
           if (!parsed.success) return null;
           const { email, password } = parsed.data;
-          const address = clientAddress(req?.headers);
+          const address = clientAddressOfHeaders(req?.headers);
           try {
             await assertSignInAllowed(email, address);
           } catch (err) {

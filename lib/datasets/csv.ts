@@ -147,7 +147,18 @@ export function readColumn(table: CsvTable, column: number, drop: readonly numbe
   }
   const mixed = pointRow && commaRow ? { pointRow, commaRow } : null;
   const decimalComma = !mixed && commaRow > 0;
-  const values = mixed ? [] : cells.map((c) => Number(decimalComma ? c.text.replace(',', '.') : c.text));
+  const values: number[] = [];
+  if (!mixed) {
+    for (const c of cells) {
+      const v = Number(decimalComma ? c.text.replace(',', '.') : c.text);
+      // "1e309" reads as a number but is Infinity in a double: refused by row like any other bad cell.
+      if (Number.isFinite(v)) values.push(v);
+      else if (dropSet.has(c.row)) dropped.push(c.row);
+      else problems.push({ row: c.row, text: c.text.slice(0, 60), reason: 'too large: beyond ±1.8e308, the range of a double' });
+    }
+    problems.sort((a, b) => a.row - b.row);
+    dropped.sort((a, b) => a - b);
+  }
   return { values, problems, dropped, mixedSeparators: mixed, decimalComma };
 }
 

@@ -2,6 +2,7 @@ import 'server-only';
 import { createHash } from 'node:crypto';
 import { z } from 'zod';
 import { AppError, notFound } from '@/lib/http/errors';
+import { readForm } from '@/lib/http/handler';
 import { writeTransaction } from '@/db/knex';
 import { recordAudit } from '@/db/audit';
 import { archiveDataset, getDataset, insertDataset, modelsUsingDataset, recordDatasetUse, type DatasetRecord } from '@/db/datasets';
@@ -27,11 +28,10 @@ const fail = (field: string, message: string) => new AppError('validation_failed
 
 /** Reads a multipart upload (a file, or a pasted column as `text`), checks it all, and stores it; nothing is stored on any failure. */
 export async function uploadDataset(m: Member, req: Request): Promise<{ id: string }> {
-  const declared = Number(req.headers.get('content-length') ?? 0);
-  if (declared > MAX_UPLOAD_BYTES + 64 * 1024) throw fail('file', `The upload is ${(declared / 1024 / 1024).toFixed(1)} MB; the limit is 5 MB.`);
   const type = req.headers.get('content-type') ?? '';
   if (!type.startsWith('multipart/form-data')) throw new AppError('unsupported_media_type', 'Send the upload as multipart/form-data (a file or a pasted column).');
-  const form = await req.formData();
+  // The file may be 5 MB; the form around it gets 64 KiB more. Bytes are counted as they arrive (413 beyond).
+  const form = await readForm(req, MAX_UPLOAD_BYTES + 64 * 1024);
   const fields = uploadFieldsSchema.parse({
     name: form.get('name') ?? '',
     unit: form.get('unit') ?? '',

@@ -1,5 +1,6 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
+import { pathToFileURL } from 'node:url';
 import fs from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import { startFakeSmtp } from '@/lib/fakes/smtp/server';
@@ -71,8 +72,9 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     publicUrl: `http://localhost:${o.stripePort}`,
   });
 
-  // Loopback only: the demo's mailbox and fakes are for the person at this machine.
-  const next = spawn(process.execPath, [...(o.nodeArgs ?? []), path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(o.appPort)], {
+  // Loopback only: the demo's mailbox and fakes are for the person at this machine. The preload stamps each
+  // request's socket address (lib/http/socket-peer.mjs), as `npm start` does.
+  const next = spawn(process.execPath, [...(o.nodeArgs ?? []), '--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(o.appPort)], {
     env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
     stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });

@@ -79,6 +79,8 @@ export const clientCreateSchema = z
     name: clientName,
     allowedOrigins: originsField,
     allowedEmailDomains: domainsField.default([]),
+    // An empty domain list means no snapshot recipients; any address must be chosen explicitly.
+    snapshotAnyAddress: z.boolean({ message: 'Send true or false.' }).default(false),
     note: clientNote.optional(),
   })
   .strict();
@@ -88,6 +90,7 @@ export const clientPatchSchema = z
     name: clientName,
     allowedOrigins: originsField,
     allowedEmailDomains: domainsField,
+    snapshotAnyAddress: z.boolean({ message: 'Send true or false.' }),
     note: clientNote,
     archived: z.boolean(),
   })

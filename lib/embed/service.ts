@@ -23,6 +23,7 @@ export function clientView(c: ClientRecord): ClientView {
     note: c.note,
     allowedOrigins: c.allowedOrigins,
     allowedEmailDomains: c.allowedEmailDomains,
+    snapshotAnyAddress: c.snapshotAnyAddress,
     keyVersion: c.keyVersion,
     keyRotatedAt: c.notBefore,
     createdAt: c.createdAt,
@@ -70,12 +71,12 @@ const nameConflict = () =>
     fields: { name: ['A client with this name already exists (it may be archived: restore it instead).'] },
   });
 
-export async function createClient(m: Member, input: z.infer<typeof clientCreateSchema>): Promise<ClientRecord> {
+export async function createClient(m: Member, input: Omit<z.infer<typeof clientCreateSchema>, 'snapshotAnyAddress'> & { snapshotAnyAddress?: boolean }): Promise<ClientRecord> {
   return writeTransaction(async (trx) => {
     if (await clientNameTaken(m.firmId, input.name, null, trx)) throw nameConflict();
     const id = await insertClient(m.firmId, m.userId, input, trx);
     await recordAudit(
-      { firmId: m.firmId, actorUserId: m.userId, action: 'client.created', targetType: 'client', targetId: id, detail: { name: input.name, allowedOrigins: input.allowedOrigins, allowedEmailDomains: input.allowedEmailDomains } },
+      { firmId: m.firmId, actorUserId: m.userId, action: 'client.created', targetType: 'client', targetId: id, detail: { name: input.name, allowedOrigins: input.allowedOrigins, allowedEmailDomains: input.allowedEmailDomains, snapshotAnyAddress: input.snapshotAnyAddress } },
       trx,
     );
     return (await getClient(m.firmId, id, trx))!;

@@ -7,6 +7,7 @@ export interface ClientView {
   note: string | null;
   allowedOrigins: string[];
   allowedEmailDomains: string[];
+  snapshotAnyAddress: boolean;
   keyVersion: number;
   keyRotatedAt: string;
   createdAt: string;

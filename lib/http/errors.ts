@@ -7,6 +7,7 @@ export type ErrorCode =
   | 'not_found'
   | 'conflict'
   | 'gone'
+  | 'payload_too_large'
   | 'unsupported_media_type'
   | 'validation_failed'
   | 'rate_limited'
@@ -20,6 +21,7 @@ const STATUS: Record<ErrorCode, number> = {
   not_found: 404,
   conflict: 409,
   gone: 410,
+  payload_too_large: 413,
   unsupported_media_type: 415,
   validation_failed: 422,
   rate_limited: 429,

@@ -6,6 +6,7 @@ import { recordPassEvent } from '@/db/passes';
 import { countRequestsSince, insertSnapshotJob, type RateKey } from '@/db/snapshots';
 import { env } from '@/lib/env';
 import { AppError, fieldError } from '@/lib/http/errors';
+import { clientAddress } from '@/lib/http/client-address';
 import type { Viewer } from '@/lib/embed/access';
 import { viewerDials } from '@/lib/embed/payload';
 import { validateModel } from '@/lib/engine/schema';
@@ -16,8 +17,7 @@ import { domainAllowed, normaliseEmail, type SnapshotAccepted, type SnapshotRequ
 
 /** The requesting network address, keyed with the app secret (rate limiting needs equality, not the address). */
 export function requesterHash(req: Request): string {
-  const fwd = req.headers.get('x-forwarded-for')?.split(',')[0]?.trim();
-  const ip = fwd || req.headers.get('x-real-ip') || 'unknown';
+  const ip = clientAddress(req);
   return createHmac('sha256', env().authSecret).update(`snapshot-requester:${ip}`).digest('hex');
 }
 
@@ -68,7 +68,12 @@ function prefixed<T>(fn: () => T): T {
 export async function requestSnapshot(v: Viewer, input: SnapshotRequestInput, requester: string): Promise<SnapshotAccepted> {
   const email = normaliseEmail(input.email);
   if (!email.ok) throw fieldError('email', email.message);
-  if (!domainAllowed(email.domain, v.client.allowedEmailDomains)) {
+  if (!v.client.snapshotAnyAddress && v.client.allowedEmailDomains.length === 0) {
+    throw new AppError('forbidden', `Snapshots of this widget cannot be e-mailed: ${v.widget.firmName} has not named any e-mail domain of your organisation for them. Ask them to add one.`, {
+      fields: { email: ['No e-mail domain is allowed for snapshots of this widget.'] },
+    });
+  }
+  if (!domainAllowed(email.domain, v.client)) {
     const list = v.client.allowedEmailDomains.map((d) => `@${d}`).join(', ');
     throw new AppError('forbidden', `Snapshots of this widget can only be sent to addresses at ${list}. ${email.domain} is not one of them.`, {
       fields: { email: [`Use an address at ${list}.`] },

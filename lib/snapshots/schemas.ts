@@ -15,9 +15,12 @@ export function normaliseEmail(raw: string): { ok: true; address: string; domain
   return { ok: true, address: `${m[1]}@${domain}`, domain };
 }
 
-/** Whether an address's domain is one of the client's allowed domains (none listed: any domain). */
-export function domainAllowed(domain: string, allowed: readonly string[]): boolean {
-  return allowed.length === 0 || allowed.includes(domain.toLowerCase());
+/**
+ * Whether a snapshot may go to an address at `domain`: one of the client's domains, or any address when the
+ * firm chose that explicitly. No domains and no such choice means nobody.
+ */
+export function domainAllowed(domain: string, client: { allowedEmailDomains: readonly string[]; snapshotAnyAddress: boolean }): boolean {
+  return client.snapshotAnyAddress || client.allowedEmailDomains.includes(domain.toLowerCase());
 }
 
 export const snapshotRequestSchema = z

@@ -22,7 +22,11 @@ const OFF = Number(process.env.TEST_PORT_OFFSET ?? 0);
 export async function setup(project: TestProject): Promise<void> {
   if (!fs.existsSync('.next/BUILD_ID')) throw new Error('No production build: run `npm run build` before the API tests.');
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'stochos-api-'));
-  stack = await startStack({ dataDir, appPort: 3100 + OFF, smtpPort: 2625 + OFF, mailboxPort: 2626 + OFF, stripePort: 12211 + OFF, hostPagePort: 4200 + OFF, seed: true, quiet: true, extraEnv: { MAIL_LIMIT_PER_CLIENT_HOUR: '1000000' } });
+  stack = await startStack({ dataDir, appPort: 3100 + OFF, smtpPort: 2625 + OFF, mailboxPort: 2626 + OFF, stripePort: 12211 + OFF, hostPagePort: 4200 + OFF, seed: true, quiet: true,
+    // Loopback stands for a reverse proxy here, so tests can give each simulated client its own address in
+    // X-Forwarded-For (tests/integration/api/hardening.test.ts also runs an app that trusts nobody).
+    extraEnv: { TRUSTED_PROXIES: '127.0.0.1, ::1', MAIL_LIMIT_PER_CLIENT_HOUR: '1000000' },
+  });
   project.provide('appUrl', stack.appUrl);
   project.provide('mailboxUrl', stack.mailboxUrl);
   project.provide('stripeUrl', stack.stripeUrl);

@@ -62,6 +62,11 @@ export class Client {
     return c;
   }
 
+  /** The Cookie header this client sends (for requests made with fetch directly, e.g. streamed bodies). */
+  cookie(): string {
+    return this.cookieHeader();
+  }
+
   hasSession(): boolean {
     return this.cookies.has('next-auth.session-token');
   }

@@ -56,7 +56,7 @@ describe('allowed e-mail domains', () => {
 describe('client form schema', () => {
   it('normalises and de-duplicates lists', () => {
     const r = clientCreateSchema.parse({ name: ' Northfield ', allowedOrigins: ['https://a.example/', 'https://A.example'], allowedEmailDomains: ['X.example', 'x.example'] });
-    expect(r).toEqual({ name: 'Northfield', allowedOrigins: ['https://a.example'], allowedEmailDomains: ['x.example'] });
+    expect(r).toEqual({ name: 'Northfield', allowedOrigins: ['https://a.example'], allowedEmailDomains: ['x.example'], snapshotAnyAddress: false });
   });
   it('points at the bad list item and needs one origin', () => {
     const r = clientCreateSchema.safeParse({ name: 'N', allowedOrigins: ['https://ok.example', 'https://ok.example/path'], allowedEmailDomains: ['a@b.example'] });

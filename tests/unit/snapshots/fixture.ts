@@ -14,7 +14,7 @@ export const STACK_MODEL = (() => {
   return r.model;
 })();
 
-export async function seedWidget(opts: { domains?: string[]; paper?: 'A4' | 'Letter' } = {}): Promise<{ firmId: string; clientId: string; passId: string; widgetId: string }> {
+export async function seedWidget(opts: { domains?: string[]; anyAddress?: boolean; paper?: 'A4' | 'Letter' } = {}): Promise<{ firmId: string; clientId: string; passId: string; widgetId: string }> {
   const db = getDb();
   const now = new Date().toISOString();
   const firmId = randomUUID();
@@ -46,6 +46,7 @@ export async function seedWidget(opts: { domains?: string[]; paper?: 'A4' | 'Let
     name: 'Harbour Pumps Ltd',
     allowed_origins: '["http://localhost:4200"]',
     allowed_email_domains: JSON.stringify(opts.domains ?? ['client.example']),
+    snapshot_any_address: opts.anyAddress ?? false,
     key_version: 1,
     not_before: now,
     created_at: now,

@@ -34,9 +34,17 @@ describe('snapshot request', () => {
     expect(await jobs(s.passId)).toBe(0);
   });
 
-  it('accepts any domain when the client lists none', async () => {
+  it('refuses every address when the client lists no domains, naming the reason, and queues nothing', async () => {
     const s = await seedWidget({ domains: [] });
-    const r = await requestSnapshot(await viewerFor(s), { email: 'a@anywhere.example', dialValues: {} }, 'r2');
+    const e = await refusal(requestSnapshot(await viewerFor(s), { email: 'a@anywhere.example', dialValues: {} }, 'r2'));
+    expect(e.status).toBe(403);
+    expect(e.message).toMatch(/cannot be e-mailed: .* has not named any e-mail domain of your organisation/);
+    expect(await jobs(s.passId)).toBe(0);
+  });
+
+  it('accepts any domain only when the firm chose "any address" for the client', async () => {
+    const s = await seedWidget({ domains: [], anyAddress: true });
+    const r = await requestSnapshot(await viewerFor(s), { email: 'a@anywhere.example', dialValues: {} }, 'r2b');
     expect(r.state).toBe('queued');
     expect(await jobs(s.passId)).toBe(1);
   });

@@ -1,4 +1,4 @@
-import { route, json, noContent } from '@/lib/http/handler';
+import { route, json, noContent, readForm } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
 import { AppError, notFound } from '@/lib/http/errors';
 import { deleteLogo, getLogo, putLogo } from '@/db/logos';
@@ -19,9 +19,9 @@ export const GET = route(async (req) => {
 /** Multipart `file`: PNG, JPEG or WebP by magic bytes, ≤ 512 KB and 2000 × 2000 px; stored re-encoded as PNG. */
 export const PUT = route(async (req) => {
   const m = await requireMember('settings.manage');
-  if (Number(req.headers.get('content-length') ?? 0) > MAX_LOGO_BYTES + 64 * 1024) throw fail('The upload is over 512 KB; a logo may be at most 512 KB.');
   if (!(req.headers.get('content-type') ?? '').startsWith('multipart/form-data')) throw new AppError('unsupported_media_type', 'Send the logo as multipart/form-data with a "file" field.');
-  const file = (await req.formData()).get('file');
+  // A logo of 512 KB plus 64 KiB for the form around it; bytes are counted as they arrive (413 beyond).
+  const file = (await readForm(req, MAX_LOGO_BYTES + 64 * 1024, 'logo upload')).get('file');
   if (!file || typeof file === 'string') throw fail('Choose a PNG, JPEG or WebP file.');
   const r = await processLogo(new Uint8Array(await file.arrayBuffer()), file.name || 'logo');
   if (!r.ok) throw fail(r.message);

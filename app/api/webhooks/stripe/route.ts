@@ -1,7 +1,7 @@
 import { after } from 'next/server';
 import Stripe from 'stripe';
 import { z } from 'zod';
-import { route, json } from '@/lib/http/handler';
+import { route, json, readText } from '@/lib/http/handler';
 import { AppError } from '@/lib/http/errors';
 import { verifyWebhook, stripe } from '@/lib/billing/stripe';
 import { processStripeEvent } from '@/lib/billing/webhooks';
@@ -27,7 +27,8 @@ const deps = {
 
 // Stripe calls this without cookies or an Origin header; the signature over the raw body is the credential.
 export const POST = route(async (req) => {
-  const raw = await req.text();
+  // Stripe's events are a few KiB; the usual 1 MiB cap applies.
+  const raw = await readText(req);
   let event;
   try {
     event = verifyWebhook(raw, req.headers.get('stripe-signature'));
