@@ -87,6 +87,44 @@ export function forUpdate<Q extends Knex.QueryBuilder>(trx: Knex.Transaction, q:
   return (isPostgres(trx) ? q.forUpdate() : q) as Q;
 }
 
+/**
+ * A job queue's claim: on PostgreSQL, locks the rows read and skips rows another transaction holds, so any number of
+ * workers take different jobs at once (FOR UPDATE SKIP LOCKED). SQLite serialises claims with its write lock instead.
+ */
+export function forUpdateSkipLocked<Q extends Knex.QueryBuilder>(trx: Knex.Transaction, q: Q): Q {
+  return (isPostgres(trx) ? q.forUpdate().skipLocked() : q) as Q;
+}
+
+/**
+ * Adds `by` to the counter row named by `key` (creating it at `by`) in one statement, and returns the new value.
+ * `key` must be the table's primary key or a unique index. Safe under concurrency on both databases: ON CONFLICT …
+ * DO UPDATE … RETURNING is the same SQL in SQLite (3.35+) and PostgreSQL. For counters shared by every instance.
+ */
+export async function bumpCounter(
+  db: Knex | Knex.Transaction,
+  table: string,
+  key: Record<string, string | number>,
+  o: { column?: string; by?: number; set?: Record<string, unknown> } = {},
+): Promise<number> {
+  const column = o.column ?? 'n';
+  const by = o.by ?? 1;
+  const rows = (await db(table)
+    .insert({ ...key, ...o.set, [column]: by })
+    .onConflict(Object.keys(key))
+    .merge({ ...o.set, [column]: db.raw('??.?? + ?', [table, column, by]) })
+    .returning(column)) as Record<string, unknown>[];
+  return Number(rows[0]?.[column]);
+}
+
+/**
+ * PostgreSQL: takes a transaction-scoped advisory lock per name (in sorted order, so two transactions naming the
+ * same locks cannot deadlock); released at COMMIT or ROLLBACK. SQLite: nothing (its write lock covers everything).
+ */
+export async function advisoryLocks(trx: Knex.Transaction, names: string[]): Promise<void> {
+  if (!isPostgres(trx)) return;
+  for (const name of [...new Set(names)].sort()) await trx.raw('SELECT pg_advisory_xact_lock(hashtextextended(?, 0))', [name]);
+}
+
 /** A count or sum as a number: PostgreSQL returns bigint and numeric aggregates as strings. */
 export const toCount = (v: unknown): number => (v == null ? 0 : Number(v));
 

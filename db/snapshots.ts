@@ -2,6 +2,7 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { getDb, writeTransaction } from '@/db/knex';
 import { nowIso } from '@/db/ids';
+import { forUpdateSkipLocked, isPostgres } from '@/db/dialect';
 
 // Snapshot jobs (migrations/20261201000600_snapshots.ts). The worker's state changes are conditional on the
 // job's current state and lease holder, so two workers can never both move the same job forward.
@@ -136,8 +137,8 @@ export async function getSnapshotJob(id: string, trx?: Knex.Transaction): Promis
  * state 'sending' with `orphaned: true`, for the caller to settle without sending it again.
  */
 export async function claimNextJob(workerId: string, leaseUntil: string, now = nowIso()): Promise<{ job: SnapshotJob; orphaned: boolean } | null> {
-  return writeTransaction(async (trx) => {
-    const r = await trx('snapshot_jobs as j')
+  const claim = async (trx: Knex.Transaction): Promise<{ job: SnapshotJob; orphaned: boolean } | null> => {
+    const due = trx('snapshot_jobs as j')
       .where((w) =>
         w
           .where((a) => a.where('j.state', 'queued').where('j.next_attempt_at', '<=', now))
@@ -145,8 +146,8 @@ export async function claimNextJob(workerId: string, leaseUntil: string, now = n
       )
       .orderBy('j.next_attempt_at')
       .orderBy('j.created_at')
-      .select(COLUMNS)
-      .first();
+      .select(COLUMNS);
+    const r = await forUpdateSkipLocked(trx, due).first();
     if (!r) return null;
     const job = toJob(r);
     if (job.state === 'sending') {
@@ -157,7 +158,11 @@ export async function claimNextJob(workerId: string, leaseUntil: string, now = n
       .where({ id: job.id, state: job.state })
       .update({ state: 'rendering', attempts: job.attempts + 1, locked_by: workerId, locked_until: leaseUntil, updated_at: now });
     return { job: { ...job, state: 'rendering', attempts: job.attempts + 1, lockedBy: workerId, lockedUntil: leaseUntil }, orphaned: false };
-  });
+  };
+  // SQLite: the write lock makes the read and the claim one step. PostgreSQL: any number of workers claim at once,
+  // each skipping the rows another has locked, in an ordinary transaction.
+  const db = getDb();
+  return isPostgres(db) ? db.transaction(claim) : writeTransaction(claim);
 }
 
 /** Moves a job this worker holds from one state to another; false when it no longer holds it. */

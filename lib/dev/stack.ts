@@ -7,7 +7,8 @@ import { startHostPage } from '@/lib/dev/host-page';
 
 /**
  * Starts everything the product needs on one machine: the local SMTP fake, the local Stripe fake,
- * a migrated (and optionally seeded) SQLite database and `next start`. Used by `npm run demo` and the tests.
+ * a migrated (and optionally seeded) database and `next start`. Used by `npm run demo` and the tests.
+ * The database is a SQLite file in `dataDir`, or the PostgreSQL database named by `databaseUrl`.
  */
 export interface StackOptions {
   dataDir: string;
@@ -17,6 +18,8 @@ export interface StackOptions {
   stripePort: number;
   hostPagePort?: number;
   seed: boolean;
+  /** postgres://… to run on PostgreSQL instead of SQLite (an empty database gets migrated). */
+  databaseUrl?: string;
   extraEnv?: Record<string, string>;
   quiet?: boolean;
 }
@@ -39,6 +42,8 @@ export async function startStack(o: StackOptions): Promise<Stack> {
   const appUrl = `http://localhost:${o.appPort}`;
   const env: Record<string, string> = {
     DATABASE_FILE: path.join(o.dataDir, 'stochos.sqlite'),
+    // Always set, so a DATABASE_URL in the caller's environment never leaks into a SQLite stack.
+    DATABASE_URL: o.databaseUrl ?? '',
     APP_URL: appUrl,
     NEXTAUTH_URL: appUrl,
     STOCHOS_DEMO: '1',
@@ -65,15 +70,11 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     publicUrl: `http://localhost:${o.stripePort}`,
   });
 
-  const next = spawn(process.execPath, [path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
-    env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
-    stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
-  });
+  let next: ChildProcess;
   try {
-    await waitForHttp(`${appUrl}/`, next);
+    next = await startAppProcess({ ...process.env, ...env }, o.appPort, o.quiet);
   } catch (err) {
     // Leave nothing behind holding the ports when start-up fails.
-    next.kill('SIGTERM');
     await Promise.allSettled([smtp.close(), stripe.close()]);
     throw err;
   }
@@ -112,6 +113,24 @@ function runCli(args: string[], childEnv: NodeJS.ProcessEnv): Promise<string> {
   });
 }
 
+/**
+ * One `next start` of the production build on `port`, answered once it serves. Several of them over one PostgreSQL
+ * database are the scale-out setup (tests/postgres/two-instances.test.ts starts a second one this way).
+ */
+export async function startAppProcess(childEnv: NodeJS.ProcessEnv, port: number, quiet?: boolean): Promise<ChildProcess> {
+  const child = spawn(process.execPath, [path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(port)], {
+    env: { ...childEnv, NODE_ENV: 'production', NODE_OPTIONS: '' },
+    stdio: quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
+  });
+  try {
+    await waitForHttp(`http://localhost:${port}/`, child);
+  } catch (err) {
+    child.kill('SIGTERM');
+    throw err;
+  }
+  return child;
+}
+
 async function waitForHttp(url: string, child: ChildProcess, timeoutMs = 60_000): Promise<void> {
   const start = Date.now();
   while (Date.now() - start < timeoutMs) {
@@ -135,7 +154,7 @@ export function startSnapshotWorkerProcess(childEnv: NodeJS.ProcessEnv, quiet?: 
   });
 }
 
-async function stopChild(child: ChildProcess): Promise<void> {
+export async function stopChild(child: ChildProcess): Promise<void> {
   if (child.exitCode !== null || child.signalCode !== null) return;
   const exited = new Promise<void>((r) => child.once('exit', () => r()));
   child.kill('SIGTERM');
