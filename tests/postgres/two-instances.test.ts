@@ -6,9 +6,9 @@ import os from 'node:os';
 import path from 'node:path';
 import fs from 'node:fs';
 import { randomUUID } from 'node:crypto';
-import type { ChildProcess } from 'node:child_process';
+import { spawn, type ChildProcess } from 'node:child_process';
 import type Database from 'better-sqlite3';
-import { startAppProcess, startSnapshotWorkerProcess, startStack, stopChild, type Stack } from '@/lib/dev/stack';
+import { startAppProcess, startStack, stopChild, type Stack } from '@/lib/dev/stack';
 import { createTestDatabase, testPgAdminUrl } from '../support/pg-databases';
 import { openTestDb, firmIdOf } from '../support/db-direct';
 import { Client } from '../support/http-client';
@@ -22,6 +22,7 @@ const HOST = 'http://localhost:4200';
 let stack: Stack;
 let appB: ChildProcess;
 let workerB: ChildProcess;
+let workerBLog = '';
 let urlA = '';
 let urlB = '';
 let db: Database.Database;
@@ -40,7 +41,12 @@ beforeAll(async () => {
   const envB = { ...process.env, ...stack.env };
   appB = await startAppProcess(envB, 3301 + OFF, true);
   urlB = `http://localhost:${3301 + OFF}`;
-  workerB = startSnapshotWorkerProcess(envB, true);
+  // Worker 2's log tells which jobs it sent, to show both workers shared the queue.
+  workerB = spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'lib/snapshots/worker-main.ts'], {
+    env: { ...envB, NODE_OPTIONS: '' },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  workerB.stdout!.on('data', (d: Buffer) => (workerBLog += d.toString()));
   db = openTestDb(dataDir);
 }, 240_000);
 
@@ -153,5 +159,9 @@ describe('two app instances over one PostgreSQL database', () => {
     }
     expect(received).toHaveLength(50);
     expect([...received].sort()).toEqual(jobs.map((j) => j.message_id).sort());
+    // Both workers took jobs: worker 2 sent some of them, not all (worker 1 runs beside instance A).
+    const byB = jobs.filter((j) => workerBLog.includes(`job ${j.id} sent`)).length;
+    expect(byB).toBeGreaterThan(0);
+    expect(byB).toBeLessThan(50);
   });
 });
