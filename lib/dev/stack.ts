@@ -9,7 +9,8 @@ import { startHostPage } from '@/lib/dev/host-page';
 
 /**
  * Starts everything the product needs on one machine: the local SMTP fake, the local Stripe fake,
- * a migrated (and optionally seeded) SQLite database and `next start`. Used by `npm run demo` and the tests.
+ * a migrated (and optionally seeded) database and `next start`. Used by `npm run demo` and the tests.
+ * The database is a SQLite file in `dataDir`, or the PostgreSQL database named by `databaseUrl`.
  */
 export interface StackOptions {
   dataDir: string;
@@ -19,6 +20,8 @@ export interface StackOptions {
   stripePort: number;
   hostPagePort?: number;
   seed: boolean;
+  /** postgres://… to run on PostgreSQL instead of SQLite (an empty database gets migrated). */
+  databaseUrl?: string;
   extraEnv?: Record<string, string>;
   quiet?: boolean;
   /** Extra Node.js flags for the `next start` process (e.g. --cpu-prof for a load benchmark). */
@@ -45,6 +48,8 @@ export async function startStack(o: StackOptions): Promise<Stack> {
   const appUrl = `http://localhost:${o.appPort}`;
   const env: Record<string, string> = {
     DATABASE_FILE: path.join(o.dataDir, 'stochos.sqlite'),
+    // Always set, so a DATABASE_URL in the caller's environment never leaks into a SQLite stack.
+    DATABASE_URL: o.databaseUrl ?? '',
     APP_URL: appUrl,
     NEXTAUTH_URL: appUrl,
     AUTH_SECRET: dataFolderSecret(o.dataDir),
@@ -72,17 +77,11 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     publicUrl: `http://localhost:${o.stripePort}`,
   });
 
-  // Loopback only: the demo's mailbox and fakes are for the person at this machine. The preload stamps each
-  // request's socket address (lib/http/socket-peer.mjs), as `npm start` does.
-  const next = spawn(process.execPath, [...(o.nodeArgs ?? []), '--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(o.appPort)], {
-    env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
-    stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
-  });
+  let next: ChildProcess;
   try {
-    await waitForHttp(`${appUrl}/`, next);
+    next = await startAppProcess({ ...process.env, ...env }, o.appPort, o.quiet, o.nodeArgs);
   } catch (err) {
     // Leave nothing behind holding the ports when start-up fails.
-    next.kill('SIGTERM');
     await Promise.allSettled([smtp.close(), stripe.close()]);
     throw err;
   }
@@ -136,6 +135,26 @@ function runCli(args: string[], childEnv: NodeJS.ProcessEnv): Promise<string> {
   });
 }
 
+/**
+ * One `next start` of the production build on `port`, answered once it serves. Several of them over one PostgreSQL
+ * database are the scale-out setup (tests/postgres/two-instances.test.ts starts a second one this way).
+ */
+export async function startAppProcess(childEnv: NodeJS.ProcessEnv, port: number, quiet?: boolean, nodeArgs: string[] = []): Promise<ChildProcess> {
+  // Loopback only: the demo's mailbox and fakes are for the person at this machine. The preload stamps each
+  // request's socket address (lib/http/socket-peer.mjs), as `npm start` does.
+  const child = spawn(process.execPath, [...nodeArgs, '--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(port)], {
+    env: { ...childEnv, NODE_ENV: 'production', NODE_OPTIONS: '' },
+    stdio: quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
+  });
+  try {
+    await waitForHttp(`http://localhost:${port}/`, child);
+  } catch (err) {
+    child.kill('SIGTERM');
+    throw err;
+  }
+  return child;
+}
+
 async function waitForHttp(url: string, child: ChildProcess, timeoutMs = 60_000): Promise<void> {
   const start = Date.now();
   while (Date.now() - start < timeoutMs) {
@@ -159,7 +178,7 @@ export function startSnapshotWorkerProcess(childEnv: NodeJS.ProcessEnv, quiet?: 
   });
 }
 
-async function stopChild(child: ChildProcess): Promise<void> {
+export async function stopChild(child: ChildProcess): Promise<void> {
   if (child.exitCode !== null || child.signalCode !== null) return;
   const exited = new Promise<void>((r) => child.once('exit', () => r()));
   child.kill('SIGTERM');

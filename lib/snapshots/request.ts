@@ -85,14 +85,16 @@ export async function requestSnapshot(v: Viewer, input: SnapshotRequestInput, re
   const dialValues = checkDialValues(v.widget.model, v.widget.dialIds, input.dialValues);
   const pinnedDialValues = input.pinnedDialValues ? prefixed(() => checkDialValues(v.widget.model, v.widget.dialIds, input.pinnedDialValues!)) : null;
 
+  const keys: [LimitKind, RateKey][] = [
+    ['recipient', { recipient: email.address.toLowerCase() }],
+    ['requester', { requesterHash: requester }],
+    ['pass', { passId: v.pass.id }],
+  ];
+  // The three limits are checked and the job inserted under a lock per limit key, held by every instance alike.
+  const locks = keys.map(([kind, key]) => `snapshot-limit:${kind}:${Object.values(key)[0]}`);
   return writeTransaction(async (trx) => {
     const now = Date.now();
     const since = new Date(now - SNAPSHOT_WINDOW_MS).toISOString();
-    const keys: [LimitKind, RateKey][] = [
-      ['recipient', { recipient: email.address.toLowerCase() }],
-      ['requester', { requesterHash: requester }],
-      ['pass', { passId: v.pass.id }],
-    ];
     for (const [kind, key] of keys) {
       const c = await countRequestsSince(key, since, trx);
       if (c.count >= SNAPSHOT_LIMITS[kind]) {
@@ -120,5 +122,5 @@ export async function requestSnapshot(v: Viewer, input: SnapshotRequestInput, re
     );
     await recordPassEvent({ passId: v.pass.id, firmId: v.pass.firmId, kind: 'snapshot' }, trx);
     return { id, state: 'queued', recipient: email.address.toLowerCase(), message: `On its way to ${email.address.toLowerCase()}. It usually arrives within a minute.` };
-  });
+  }, { locks });
 }

@@ -1,9 +1,15 @@
 import Database from 'better-sqlite3';
 import path from 'node:path';
+import fs from 'node:fs';
+import { SyncPg } from './pg-sync';
 import { randomUUID, createHash, randomBytes } from 'node:crypto';
 
 // Direct writes to the test database, for setting up targets that the API under test then acts on.
+// Under `npm run test:postgres` the stack leaves the database's URL in `database-url`: the same calls then go to
+// PostgreSQL through a synchronous handle with the better-sqlite3 methods the tests use (write portable SQL).
 export function openTestDb(dataDir: string): Database.Database {
+  const urlFile = path.join(dataDir, 'database-url');
+  if (fs.existsSync(urlFile)) return new SyncPg(fs.readFileSync(urlFile, 'utf8').trim()) as unknown as Database.Database;
   const db = new Database(path.join(dataDir, 'stochos.sqlite'));
   db.pragma('busy_timeout = 5000');
   return db;

@@ -1,18 +1,15 @@
 import { describe, it, expect, inject, beforeAll } from 'vitest';
-import Database from 'better-sqlite3';
-import path from 'node:path';
+import type Database from 'better-sqlite3';
 import { Client, uniqueEmail } from '../../support/http-client';
 import { newFirm, addMember, PASSWORD } from '../../support/firms';
 import { waitForMessage, firstLink, listMessages } from '../../support/mailbox';
+import { openTestDb } from '../../support/db-direct';
 
 const appUrl = inject('appUrl');
 const mailboxUrl = inject('mailboxUrl');
-const dbFile = () => path.join(inject('dataDir'), 'stochos.sqlite');
-
 function withDb<T>(fn: (db: Database.Database) => T): T {
-  const db = new Database(dbFile());
+  const db = openTestDb(inject('dataDir'));
   try {
-    db.pragma('busy_timeout = 5000');
     return fn(db);
   } finally {
     db.close();
