@@ -15,7 +15,6 @@ import { AppError } from '@/lib/http/errors';
 import { clientAddressOfHeaders } from '@/lib/http/client-address';
 import { recordAudit } from '@/db/audit';
 import { safeNext } from '@/lib/auth/next-path';
-import { clientAddress } from '@/lib/auth/client-address';
 
 const credentialsSchema = z.object({ email: z.email().max(254), password: z.string().min(1).max(200) });
 

@@ -2,7 +2,7 @@ import NextAuth from 'next-auth';
 import { NextResponse } from 'next/server';
 import { authOptions } from '@/lib/auth/options';
 import { takeMailAllowance } from '@/lib/auth/mail-limits';
-import { clientAddress } from '@/lib/auth/client-address';
+import { clientAddress } from '@/lib/http/client-address';
 import { AppError } from '@/lib/http/errors';
 import { env } from '@/lib/env';
 
@@ -27,7 +27,7 @@ async function linkLimit(req: Request): Promise<Response | null> {
   const email = typeof raw === 'string' ? normaliseIdentifier(raw) : null;
   if (!email) return null;
   try {
-    await takeMailAllowance('sign-in-link', { recipient: email, client: clientAddress(req.headers) });
+    await takeMailAllowance('sign-in-link', { recipient: email, client: clientAddress(req) });
     return null;
   } catch (err) {
     if (!(err instanceof AppError) || err.code !== 'rate_limited') throw err;
