@@ -13,7 +13,8 @@ function RunLimitsTable() {
   const n = (x: number) => x.toLocaleString('en');
   const rows: [string, string, string, string][] = [
     ['Work budget', `${n(l.maxWork)} draws (trials × sampled columns)`, 'SIMULATE_MAX_WORK', '422 naming model.settings.trials and the most trials the model may have'],
-    ['Time limit', `${n(l.timeLimitMs / 1000)} s per run, waiting time included`, 'SIMULATE_TIME_LIMIT_MS', '503: the run is stopped and its thread freed'],
+    ['Time limit', `${n(l.timeLimitMs / 1000)} s per run, from the moment it has a thread`, 'SIMULATE_TIME_LIMIT_MS', '503: the run is stopped and its thread freed'],
+    ['Wait for a thread', `${n(l.maxWaitMs / 1000)} s`, 'SIMULATE_MAX_WAIT_MS', '503 with Retry-After; the run is not started'],
     ['Runs in progress', `${n(l.concurrentPerKey)} per API key or member, ${n(l.concurrentPerFirm)} per firm`, 'SIMULATE_MAX_CONCURRENT_PER_KEY, _PER_FIRM', '429 with Retry-After'],
     ['Runs started', `${n(l.ratePerKey)} per minute per API key or member, ${n(l.ratePerFirm)} per firm`, 'SIMULATE_RATE_PER_KEY, _PER_FIRM', '429 with Retry-After (seconds to the next minute)'],
     ['Samples returned', `${n(l.maxSampleValues)} values (samples.limit × columns), at most ${n(100_000)} per column`, 'SIMULATE_MAX_SAMPLE_VALUES', '422 naming samples.limit'],
