@@ -32,6 +32,10 @@ const schema = z.object({
   STRIPE_PRICE_ID: z.string().optional(),
   FAKE_STRIPE_URL: z.url().default('http://127.0.0.1:12111'),
   EMBED_SIGNING_SECRET: z.string().min(32).optional(),
+  // Structured JSON logs (pino) on stdout; 'silent' turns them off.
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  // Page loads and dial moves are written in batches, at most this long after they happen.
+  EVENT_FLUSH_MS: z.coerce.number().int().min(10).max(60_000).default(250),
 });
 
 export type Env = z.infer<typeof schema> & { authSecret: string; realSmtp: boolean; embedSecret: string };

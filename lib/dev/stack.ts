@@ -22,6 +22,8 @@ export interface StackOptions {
   databaseUrl?: string;
   extraEnv?: Record<string, string>;
   quiet?: boolean;
+  /** Extra Node.js flags for the `next start` process (e.g. --cpu-prof for a load benchmark). */
+  nodeArgs?: string[];
 }
 
 export interface Stack {
@@ -72,7 +74,7 @@ export async function startStack(o: StackOptions): Promise<Stack> {
 
   let next: ChildProcess;
   try {
-    next = await startAppProcess({ ...process.env, ...env }, o.appPort, o.quiet);
+    next = await startAppProcess({ ...process.env, ...env }, o.appPort, o.quiet, o.nodeArgs);
   } catch (err) {
     // Leave nothing behind holding the ports when start-up fails.
     await Promise.allSettled([smtp.close(), stripe.close()]);
@@ -117,8 +119,8 @@ function runCli(args: string[], childEnv: NodeJS.ProcessEnv): Promise<string> {
  * One `next start` of the production build on `port`, answered once it serves. Several of them over one PostgreSQL
  * database are the scale-out setup (tests/postgres/two-instances.test.ts starts a second one this way).
  */
-export async function startAppProcess(childEnv: NodeJS.ProcessEnv, port: number, quiet?: boolean): Promise<ChildProcess> {
-  const child = spawn(process.execPath, [path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(port)], {
+export async function startAppProcess(childEnv: NodeJS.ProcessEnv, port: number, quiet?: boolean, nodeArgs: string[] = []): Promise<ChildProcess> {
+  const child = spawn(process.execPath, [...nodeArgs, path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(port)], {
     env: { ...childEnv, NODE_ENV: 'production', NODE_OPTIONS: '' },
     stdio: quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });
