@@ -44,7 +44,7 @@ export async function claimNext(spec: LeaseSpec, columns: string[], workerId: st
     return { row: { ...r, state: spec.workState, attempts, locked_by: workerId, locked_until: leaseUntil }, orphaned: false };
   };
   // SQLite: the write lock makes the read and the claim one step. PostgreSQL: any number of workers claim at once,
-  // each skipping the rows another has locked, in an ordinary transaction.
+  // each skipping the rows another has locked (FOR UPDATE SKIP LOCKED), in an ordinary transaction.
   const db = getDb();
   return isPostgres(db) ? db.transaction(claim) : writeTransaction(claim);
 }
