@@ -1,8 +1,10 @@
+import fs from 'node:fs';
 import http from 'node:http';
 import path from 'node:path';
 import { spawn, type ChildProcess } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
-import { startStack, startSnapshotWorkerProcess } from '@/lib/dev/stack';
+import { pathToFileURL } from 'node:url';
+import { dataFolderSecret, startStack, startSnapshotWorkerProcess } from '@/lib/dev/stack';
 import { startThrowawayPostgres, type ThrowawayPostgres } from '@/lib/dev/pg-cluster';
 import { DEMO_PASSWORD } from '@/db/seed/demo';
 
@@ -86,16 +88,20 @@ async function main(): Promise<void> {
   let pg: ThrowawayPostgres | null = null;
   if (args.postgres) pg = await startThrowawayPostgres({ port: port('DEMO_PG_PORT', 55_400) });
   const databaseUrl = pg?.url ?? process.env.DATABASE_URL ?? '';
+  const dataDir = path.resolve(process.env.STOCHOS_DATA_DIR ?? '.data/scale');
+  fs.mkdirSync(dataDir, { recursive: true });
   const shared = {
     APP_URL: publicUrl,
     NEXTAUTH_URL: publicUrl,
     // Every instance must sign and check with the same secrets.
-    AUTH_SECRET: process.env.AUTH_SECRET ?? 'stochos-scale-demo-secret-0123456789abcdef',
+    AUTH_SECRET: process.env.AUTH_SECRET ?? dataFolderSecret(dataDir),
+    // The balancer on this machine is the one proxy whose X-Forwarded-For is believed.
+    TRUSTED_PROXIES: '127.0.0.1, ::1',
     ...(databaseUrl ? { DATABASE_URL: databaseUrl } : {}),
   };
   // The first instance comes with the fakes, the migrated and seeded database, and the first worker.
   const first = await startStack({
-    dataDir: path.resolve(process.env.STOCHOS_DATA_DIR ?? '.data/scale'),
+    dataDir,
     appPort: lbPort + 1,
     smtpPort: port('DEMO_SMTP_PORT', 2525),
     mailboxPort: port('DEMO_MAILBOX_PORT', 2526),
@@ -108,7 +114,7 @@ async function main(): Promise<void> {
   const backends: Backend[] = [{ port: lbPort + 1, ready: false, child: null }];
   for (let i = 1; i < args.instances; i++) {
     const p = lbPort + 1 + i;
-    const child = spawn(process.execPath, [path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(p)], { env, stdio: ['ignore', 'ignore', 'inherit'] });
+    const child = spawn(process.execPath, ['--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(p)], { env, stdio: ['ignore', 'ignore', 'inherit'] });
     backends.push({ port: p, ready: false, child });
   }
   const workers = Array.from({ length: args.workers - 1 }, () => startSnapshotWorkerProcess(env, true));
