@@ -32,6 +32,7 @@ import { symmetricSqrt } from './linalg';
 import { createColumnSampler, type SamplerContext } from './samplers';
 import { validateModel, type StochosModel } from './schema';
 import { DRIVER_TRIAL_LIMIT, RANK_TRIAL_LIMIT } from './summary';
+import { twoPassMoments } from './stats';
 
 /** Trials per chunk: fixed, so the split never depends on the number of threads. */
 export const CHUNK_SIZE = 16_384;
@@ -58,21 +59,9 @@ export interface Moments {
 
 export const EMPTY_MOMENTS: Moments = { n: 0, mean: 0, m2: 0 };
 
-/** Moments of one chunk by the corrected two-pass formula (no division per element). */
+/** Moments of one chunk by the corrected two-pass formula. */
 export function momentsOf(values: Float64Array): Moments {
-  const n = values.length;
-  if (n === 0) return { ...EMPTY_MOMENTS };
-  let s = 0;
-  for (let k = 0; k < n; k++) s += values[k];
-  const mean = s / n;
-  let ss = 0;
-  let comp = 0;
-  for (let k = 0; k < n; k++) {
-    const d = values[k] - mean;
-    ss += d * d;
-    comp += d;
-  }
-  return { n, mean, m2: ss - (comp * comp) / n };
+  return values.length === 0 ? { ...EMPTY_MOMENTS } : twoPassMoments(values);
 }
 
 /**

@@ -44,8 +44,11 @@ export function welford(values: Float64Array): { n: number; mean: number; varian
   return { n, mean: n > 0 ? mean : NaN, variance: n > 1 ? m2 / (n - 1) : NaN };
 }
 
-/** Mean and n - 1 variance by two passes (summaries of input columns; no division per element). */
-export function meanVariance(values: Float64Array): { n: number; mean: number; variance: number } {
+/**
+ * Count, mean and sum of squared deviations by the corrected two-pass formula (Chan, Golub & LeVeque 1983): the
+ * second pass removes the rounding left in the mean; no division per element.
+ */
+export function twoPassMoments(values: Float64Array): { n: number; mean: number; m2: number } {
   const n = values.length;
   let s = 0;
   for (let k = 0; k < n; k++) s += values[k];
@@ -57,8 +60,13 @@ export function meanVariance(values: Float64Array): { n: number; mean: number; v
     ss += d * d;
     comp += d;
   }
-  // Corrected two-pass formula (Chan, Golub & LeVeque 1983): removes the rounding left in the mean.
-  return { n, mean: n > 0 ? mean : NaN, variance: n > 1 ? (ss - (comp * comp) / n) / (n - 1) : NaN };
+  return { n, mean, m2: ss - (comp * comp) / n };
+}
+
+/** Mean and n - 1 variance by two passes (summaries of input columns). */
+export function meanVariance(values: Float64Array): { n: number; mean: number; variance: number } {
+  const { n, mean, m2 } = twoPassMoments(values);
+  return { n, mean: n > 0 ? mean : NaN, variance: n > 1 ? m2 / (n - 1) : NaN };
 }
 
 /** Hyndman-Fan type 6 percentile of ascending data, p in [0, 1]. */
