@@ -1,5 +1,5 @@
 import 'server-only';
-import { getDb } from '@/db/knex';
+import { prepared } from '@/db/prepared';
 import { toClient, type ClientRecord } from '@/db/clients';
 import type { PassTokenRow, RevokeReason } from '@/db/passes';
 
@@ -28,13 +28,17 @@ const TOKEN = ['jti', 'pass_id', 'key_version', 'issued_at', 'expires_at', 'revo
 
 const pick = (r: Record<string, unknown>, prefix: string, cols: string[]) => Object.fromEntries(cols.map((c) => [c, r[prefix + c]]));
 
-export async function getEmbedAccess(passId: string, jti: string): Promise<EmbedAccessRow | null> {
-  const r = (await getDb()('passes as p')
+const accessQuery = prepared<'passId' | 'jti'>((db, param) =>
+  db('passes as p')
     .leftJoin('clients as c', 'c.id', 'p.client_id')
-    .leftJoin('pass_tokens as t', (j) => j.onVal('t.jti', '=', jti))
-    .where('p.id', passId)
+    .leftJoin('pass_tokens as t', (j) => j.onVal('t.jti', '=', param('jti')))
+    .where('p.id', param('passId'))
     .select(['p.id', 'p.firm_id', 'p.client_id', 'p.widget_id', 'p.revoked_at', 'p.revoke_reason', ...CLIENT.map((c) => `c.${c} as c_${c}`), ...TOKEN.map((c) => `t.${c} as t_${c}`)])
-    .first()) as Record<string, unknown> | undefined;
+    .limit(1),
+);
+
+export async function getEmbedAccess(passId: string, jti: string): Promise<EmbedAccessRow | null> {
+  const r = (await accessQuery({ passId, jti }))[0];
   if (!r) return null;
   return {
     pass: {

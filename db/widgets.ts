@@ -1,6 +1,7 @@
 import 'server-only';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
+import { prepared } from '@/db/prepared';
 import { newId, nowIso } from '@/db/ids';
 import type { CheckState, TemplateId } from '@/lib/models/types';
 
@@ -115,8 +116,12 @@ export async function getPublishedWidget(firmId: string, id: string, trx?: Knex.
  * The same without the model JSON (the embed read path takes it from a cache by version id: versions never
  * change), plus the hash of the firm's logo, if any, for the logo's address.
  */
+const metaQuery = prepared<'firmId' | 'id'>((_db, param) =>
+  publishedQuery(param('firmId'), param('id')).leftJoin('firm_logos as fl', 'fl.firm_id', 'w.firm_id').select([...PUBLISHED_COLUMNS, 'fl.hash as logo_hash']).limit(1),
+);
+
 export async function getPublishedWidgetMeta(firmId: string, id: string): Promise<(Omit<PublishedWidget, 'model'> & { logoHash: string | null }) | null> {
-  const r = await publishedQuery(firmId, id).leftJoin('firm_logos as fl', 'fl.firm_id', 'w.firm_id').select([...PUBLISHED_COLUMNS, 'fl.hash as logo_hash']).first();
+  const r = (await metaQuery({ firmId, id }))[0];
   return r ? { ...toPublished(r), logoHash: (r.logo_hash as string | null) ?? null } : null;
 }
 

@@ -27,6 +27,7 @@ import fs from 'node:fs';
 import autocannon from 'autocannon';
 import { startStack, type Stack } from '@/lib/dev/stack';
 import { demoPass } from '../support/demo-pass';
+import { freePort } from '../support/free-port';
 import { startThrowawayPostgres, type ThrowawayPostgres } from '@/lib/dev/pg-cluster';
 import { summariseCpuProfile } from './cpu-profile';
 
@@ -87,7 +88,6 @@ interface Figures {
   ratioToIcon: number;
 }
 
-const OFF = Number(process.env.TEST_PORT_OFFSET ?? 0);
 
 async function measure(url: string, s: Scenario, connections: number, duration: number): Promise<autocannon.Result> {
   return autocannon({
@@ -177,7 +177,7 @@ async function main(): Promise<void> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'stochos-load-'));
   try {
     if (args.postgres) {
-      pg = await startThrowawayPostgres({ port: 55_432 + OFF });
+      pg = await startThrowawayPostgres({ port: await freePort() });
       log(`PostgreSQL: throwaway cluster on 127.0.0.1:${pg.port}`);
     }
     const databaseUrl = pg?.url ?? process.env.DATABASE_URL ?? '';
@@ -185,10 +185,10 @@ async function main(): Promise<void> {
     if (args.profile) fs.mkdirSync(args.profile, { recursive: true });
     stack = await startStack({
       dataDir,
-      appPort: 3300 + OFF,
-      smtpPort: 2725 + OFF,
-      mailboxPort: 2726 + OFF,
-      stripePort: 12_311 + OFF,
+      appPort: await freePort(),
+      smtpPort: await freePort(),
+      mailboxPort: await freePort(),
+      stripePort: await freePort(),
       seed: true,
       quiet: true,
       // Logs at the production level (info, one line per API request); the stack sends them to /dev/null.

@@ -5,10 +5,10 @@ import path from 'node:path';
 import Database from 'better-sqlite3';
 import { startStack } from '@/lib/dev/stack';
 import { demoPass } from '../../support/demo-pass';
+import { freePort } from '../../support/free-port';
 
 // Readiness, request ids, and a clean stop that loses no batched event, against the production build.
 const appUrl = inject('appUrl');
-const OFF = Number(process.env.TEST_PORT_OFFSET ?? 0);
 
 describe('readiness and request ids', () => {
   it('GET /api/ready answers 200 with every check passed, never cached', async () => {
@@ -31,7 +31,7 @@ describe('a clean stop (SIGTERM)', () => {
   it('writes every page load and dial move counted before it, though they are batched after the response', async () => {
     const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'stochos-stop-'));
     // A long flush interval: only the shutdown itself can have written these events.
-    const stack = await startStack({ dataDir, appPort: 3360 + OFF, smtpPort: 2765 + OFF, mailboxPort: 2766 + OFF, stripePort: 12_361 + OFF, seed: true, quiet: true, extraEnv: { EVENT_FLUSH_MS: '60000' } });
+    const stack = await startStack({ dataDir, appPort: await freePort(), smtpPort: await freePort(), mailboxPort: await freePort(), stripePort: await freePort(), seed: true, quiet: true, extraEnv: { EVENT_FLUSH_MS: '60000' } });
     let stopped = false;
     try {
       const { passId, token } = await demoPass(stack.appUrl);
@@ -61,5 +61,6 @@ describe('a clean stop (SIGTERM)', () => {
       if (!stopped) await stack.stop();
       fs.rmSync(dataDir, { recursive: true, force: true });
     }
-  });
+    // A second production server starting on a busy machine takes a while.
+  }, 240_000);
 });
