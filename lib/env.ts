@@ -31,6 +31,10 @@ const schema = z.object({
   EMBED_SIGNING_SECRET: z.string().min(32).optional(),
   // E-mails one client address may trigger per hour (sign-in links, password resets, sign-ups together).
   MAIL_LIMIT_PER_CLIENT_HOUR: z.coerce.number().int().min(1).max(1_000_000).default(30),
+  // Structured JSON logs (pino) on stdout; 'silent' turns them off.
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  // Page loads and dial moves are written in batches, at most this long after they happen.
+  EVENT_FLUSH_MS: z.coerce.number().int().min(10).max(60_000).default(250),
 });
 
 export type Env = Omit<z.infer<typeof schema>, 'STRIPE_WEBHOOK_SECRET'> & { STRIPE_WEBHOOK_SECRET: string; authSecret: string; realSmtp: boolean; embedSecret: string };

@@ -20,6 +20,8 @@ export interface StackOptions {
   seed: boolean;
   extraEnv?: Record<string, string>;
   quiet?: boolean;
+  /** Extra Node.js flags for the `next start` process (e.g. --cpu-prof for a load benchmark). */
+  nodeArgs?: string[];
 }
 
 export interface Stack {
@@ -68,7 +70,7 @@ export async function startStack(o: StackOptions): Promise<Stack> {
   });
 
   // Loopback only: the demo's mailbox and fakes are for the person at this machine.
-  const next = spawn(process.execPath, [path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(o.appPort)], {
+  const next = spawn(process.execPath, [...(o.nodeArgs ?? []), path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(o.appPort)], {
     env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
     stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });

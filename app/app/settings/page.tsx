@@ -6,6 +6,7 @@ import { SettingsForm } from '@/components/settings/settings-form';
 import { ApiKeysPanel } from '@/components/api-keys/api-keys-panel';
 import { LogoUpload } from '@/components/datasets/logo-upload';
 import { ChangePassword } from '@/components/settings/change-password';
+import { NotificationPrefs } from '@/components/settings/notification-prefs';
 
 export const metadata: Metadata = { title: 'Settings' };
 
@@ -13,7 +14,10 @@ export default async function SettingsPage() {
   const member = await requirePageMember('firm.read', '/app/settings');
   return (
     <>
-      <PageHeader title="Settings" description="Your firm’s name, defaults for new models, branding of widgets and snapshots, the publishing rule, and your own password." />
+      <PageHeader title="Settings" description="Your own e-mail notifications and password; your firm’s name, defaults for new models, branding of widgets and snapshots, and the publishing rule." />
+      <div className="mb-8">
+        <NotificationPrefs role={member.role} />
+      </div>
       <SettingsForm canEdit={can(member.role, 'settings.manage')} />
       <div className="mt-8">
         <LogoUpload firmId={member.firmId} canEdit={can(member.role, 'settings.manage')} />
