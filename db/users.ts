@@ -104,8 +104,8 @@ export async function touchLastActive(userId: string): Promise<void> {
     .update({ last_active_at: nowIso() });
 }
 
-export async function markEmailVerified(userId: string): Promise<void> {
-  await getDb()('users').where({ id: userId }).whereNull('email_verified_at').update({ email_verified_at: nowIso() });
+export async function markEmailVerified(userId: string, trx?: Knex.Transaction): Promise<void> {
+  await (trx ?? getDb())('users').where({ id: userId }).whereNull('email_verified_at').update({ email_verified_at: nowIso() });
 }
 
 export async function hasActiveMembership(userId: string, trx?: Knex.Transaction): Promise<boolean> {

@@ -1,7 +1,7 @@
 import 'server-only';
 import { z } from 'zod';
 import { writeTransaction } from '@/db/knex';
-import { findUserIdByEmail, hasActiveMembership, insertUser, bumpSessionVersion, getUserCredentials, type Role } from '@/db/users';
+import { findUserIdByEmail, hasActiveMembership, insertUser, bumpSessionVersion, getUserCredentials, markEmailVerified, type Role } from '@/db/users';
 import {
   countActiveByRole,
   getInvitationByToken,
@@ -134,6 +134,8 @@ export async function acceptInvitation(input: z.infer<typeof acceptInvitationSch
     let userId = await findUserIdByEmail(inv.email, trx);
     if (userId && (await hasActiveMembership(userId, trx))) throw conflict('This account already belongs to a firm on Stochos.');
     if (!userId) userId = await insertUser({ email: inv.email, name: input.name!, passwordHash, verified: true }, trx);
+    // The invitation was e-mailed to this address: following it proves the address, for an existing account too.
+    else await markEmailVerified(userId, trx);
     // The owner takes no seat; authors and checkers do.
     if (inv.role !== 'owner') await assertSeatAvailable(inv.firmId, { adding: 1, countInvitations: false }, trx);
     const membershipId = await insertMembership(inv.firmId, userId, inv.role, trx);

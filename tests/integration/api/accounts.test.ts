@@ -1,5 +1,7 @@
 import { describe, it, expect, inject } from 'vitest';
 import http from 'node:http';
+import { randomUUID } from 'node:crypto';
+import bcrypt from 'bcryptjs';
 import Database from 'better-sqlite3';
 import path from 'node:path';
 import { Client, uniqueEmail } from '../../support/http-client';
@@ -110,6 +112,17 @@ describe('sign-up proves the address', () => {
     const link = firstLink((await waitForMessage(mailboxUrl, email, /sign-in link/)).text, /http:\/\/localhost:\d+\/api\/auth\/callback\/email\S+/);
     await c.get(link.replace(appUrl, ''));
     expect(c.hasSession()).toBe(true);
+    expect((await new Client(appUrl).signIn(email, PASSWORD)).ok).toBe(true);
+  });
+
+  it('an invitation e-mailed to an unconfirmed account confirms its address', async () => {
+    const email = uniqueEmail('unconfirmed');
+    const hash = await bcrypt.hash(PASSWORD, 4);
+    withDb((db) => db.prepare('insert into users (id, email, name, password_hash, created_at) values (?,?,?,?,?)').run(randomUUID(), email, 'Una Confirmed', hash, new Date().toISOString()));
+    const { owner } = await newFirm(appUrl, 'inviter-2');
+    expect((await owner.post('/api/team/invitations', { email, role: 'checker' })).status).toBe(201);
+    const token = firstLink((await waitForMessage(mailboxUrl, email, /invited you/)).text, /\/invite\/[A-Za-z0-9_-]+/).split('/').pop()!;
+    expect((await new Client(appUrl).post('/api/invitations/accept', { token, password: PASSWORD })).status).toBe(201);
     expect((await new Client(appUrl).signIn(email, PASSWORD)).ok).toBe(true);
   });
 
