@@ -6,6 +6,7 @@ import { Banner, Button } from '@/components/ui';
 import { cx } from '@/components/ui/cx';
 import { Term } from '@/components/ui/term';
 import { useSimulation } from '@/components/results/use-simulation';
+import { createStudioEngine } from '@/lib/engine/studio-engine';
 import { StatusMark } from '@/components/results/figures';
 import { allocateTolerances, sigmaPerTolerance, type AllocationOutcome } from '@/lib/engine/allocation';
 import { validateModel, type LinearStackModel } from '@/lib/engine/schema';
@@ -88,7 +89,7 @@ export function AllocationPanel() {
   // The confirming Monte Carlo run of the proposed stack (the engine's own worker, as the preview uses).
   const proposal = outcome?.ok ? outcome.model : null;
   const confirmModel = useMemo(() => (proposal ? { ...proposal, settings: { ...proposal.settings, trials: Math.max(proposal.settings.trials, CONFIRM_TRIALS) } } : null), [proposal]);
-  const sim = useSimulation(confirmModel, undefined, { debounceMs: 0 });
+  const sim = useSimulation(confirmModel, undefined, { debounceMs: 0, createClient: createStudioEngine });
   const mc = confirmModel && sim.result && !sim.stale && sim.status === 'done' ? sim.result.stack?.monteCarlo ?? null : null;
 
   const propose = () => {

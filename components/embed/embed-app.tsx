@@ -2,6 +2,7 @@
 
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { WidgetView } from '@/components/widget/widget-view';
+import { createEmbedEngine } from '@/lib/engine/embed-engine';
 import type { EmbedWidgetPayload } from '@/lib/embed/payload';
 import { createEmbedClient, EmbedAccessError } from './embed-client';
 import { EmbedNotice } from './embed-notice';
@@ -77,6 +78,7 @@ export function EmbedApp({ passId, origin, title, firmName, brandColor }: { pass
   const signedOffAt = p.versionInfo.checkState === 'signed_off' ? p.versionInfo.checkedAt : null;
   return (
     <WidgetView
+      createEngine={createEmbedEngine}
       model={p.model}
       widget={p.widget}
       branding={{ firmName: p.branding.firmName, brandColor: p.branding.brandColor, logoUrl: p.branding.logoUrl }}

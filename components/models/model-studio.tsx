@@ -5,6 +5,7 @@ import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { ModelEditor } from '@/components/editor';
 import { ResultsPreview } from '@/components/results';
 import { WidgetView } from '@/components/widget';
+import { createStudioEngine } from '@/lib/engine/studio-engine';
 import { Badge, Banner, Button, Card, DateText, LoadError, Loading, PageHeader, StatusPill, Tabs } from '@/components/ui';
 import type { StochosModel } from '@/lib/engine/schema';
 import { editorFieldErrors } from '@/lib/models/field-errors';
@@ -150,7 +151,7 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
                 canPublish={abilities.publish && !isArchived}
                 onChanged={() => void mutate()}
                 renderPreview={({ model: m, widget: w, signedOffAt }) => (
-                  <WidgetView model={m} widget={w} branding={{ firmName, brandColor: w.brandColor, logoUrl: null }} versionInfo={{ number: w.versionNumber, signedOffAt }} />
+                  <WidgetView model={m} widget={w} branding={{ firmName, brandColor: w.brandColor, logoUrl: null }} versionInfo={{ number: w.versionNumber, signedOffAt }} createEngine={createStudioEngine} />
                 )}
               />
             ),
@@ -250,6 +251,7 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
           {work.lastValid ? (
             <div className={narrow ? 'mx-auto w-[360px] max-w-full' : 'mx-auto max-w-3xl'}>
               <WidgetView
+                createEngine={createStudioEngine}
                 model={work.lastValid}
                 widget={previewWidget}
                 branding={{ firmName, brandColor: previewWidget.brandColor, logoUrl: null }}

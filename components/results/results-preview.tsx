@@ -10,6 +10,7 @@ import { ProgressBar } from '@/components/ui/progress-bar';
 import { cx } from '@/components/ui/cx';
 import { ResultsView } from './results-view';
 import { useSimulation, type SimulationState } from './use-simulation';
+import { createStudioEngine } from '@/lib/engine/studio-engine';
 
 export interface ResultsPreviewProps {
   /** Model JSON ('stochos.model/1'); validated by the engine. */
@@ -104,7 +105,7 @@ export function RunError({ sim }: { sim: SimulationState }) {
 
 /** Live results of a model: reruns in the browser's engine worker as the model or dials change. */
 export function ResultsPreview({ model, dialValues, samples, debounceMs, className }: ResultsPreviewProps) {
-  const sim = useSimulation(model, dialValues, { samples: samples ?? samplesFor(model), debounceMs });
+  const sim = useSimulation(model, dialValues, { samples: samples ?? samplesFor(model), debounceMs, createClient: createStudioEngine });
   return (
     <div className={cx('space-y-3', className)}>
       <RunStatus sim={sim} />

@@ -2,7 +2,6 @@
 
 import { useCallback, useEffect, useMemo, useState, useSyncExternalStore } from 'react';
 import type { SampleSelection } from '@/lib/engine/simulate';
-import { EngineWorkerClient } from '@/lib/engine/worker-client';
 import { SimulationController, type RunClient, type SimulationSnapshot } from './simulation-controller';
 
 export type { SimulationSnapshot, SimulationStatus, SimulationError } from './simulation-controller';
@@ -14,8 +13,8 @@ export interface UseSimulationOptions {
   samples?: SampleSelection;
   /** Set false to hold runs (e.g. while a form is invalid). */
   enabled?: boolean;
-  /** Engine client factory (tests); by default one web worker per hook. */
-  createClient?: () => RunClient;
+  /** Engine client factory: createStudioEngine (lib/engine/studio-engine) or, for published versions, createEmbedEngine. */
+  createClient: () => RunClient;
 }
 
 export interface SimulationState extends SimulationSnapshot {
@@ -32,10 +31,10 @@ const SERVER_SNAPSHOT: SimulationSnapshot = { status: 'idle', result: null, stal
  * Moving a dial reruns after a short debounce with the same seed and sub-streams, cancelling a
  * run in flight; the previous result stays visible (flagged `stale`) until the new one is ready.
  */
-export function useSimulation(model: unknown, dialValues?: Record<string, number>, options: UseSimulationOptions = {}): SimulationState {
+export function useSimulation(model: unknown, dialValues: Record<string, number> | undefined, options: UseSimulationOptions): SimulationState {
   const { debounceMs = 150, samples = 'none', enabled = true, createClient } = options;
   const [controller] = useState(
-    () => new SimulationController({ client: createClient ?? (() => new EngineWorkerClient()), debounceMs, samples }),
+    () => new SimulationController({ client: createClient, debounceMs, samples }),
   );
   const snapshot = useSyncExternalStore(controller.subscribe, controller.getSnapshot, () => SERVER_SNAPSHOT);
 

@@ -11,6 +11,7 @@ import { ProgressBar } from '@/components/ui/progress-bar';
 import { Term } from '@/components/ui/term';
 import { CautionsList } from '@/components/results/cautions-list';
 import { useSimulation } from '@/components/results/use-simulation';
+import type { RunClient } from '@/components/results/simulation-controller';
 import { brandColors } from './brand';
 import { DialControl } from './dial-control';
 import { atDefaults, initialDialValues, type DialSpec } from './dial-values';
@@ -59,6 +60,8 @@ export interface WidgetViewProps {
   actions?: ReactNode;
   /** Heading level of the title (h1 when the widget is the whole page). */
   headingLevel?: 'h1' | 'h2';
+  /** The engine pool: createEmbedEngine on the embed page (no schema), createStudioEngine elsewhere. */
+  createEngine: () => RunClient;
   className?: string;
 }
 
@@ -70,7 +73,7 @@ const CHART_PANELS = new Set<string>(['spread', 'cumulative', 'drivers']);
  * reruns the model in the browser with the same seed and sub-streams, so only what the dial touches
  * changes. No dashboard or sign-in code: the embed page uses this as it is.
  */
-export function WidgetView({ model, widget, branding, versionInfo, onDialChange, initialDialValues: given, actions, headingLevel: H = 'h2', className }: WidgetViewProps) {
+export function WidgetView({ model, widget, branding, versionInfo, onDialChange, initialDialValues: given, actions, headingLevel: H = 'h2', className, createEngine }: WidgetViewProps) {
   // Read, not validated, here: the engine validates where it runs (modelOutline says why).
   const outline = useMemo(() => modelOutline(model), [model]);
   const dials = useMemo<DialSpec[]>(() => {
@@ -95,7 +98,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   }, [dials, values]);
 
   // A dial move is one discrete step: a short wait is enough to merge a burst of key presses.
-  const sim = useSimulation(outline.ok ? model : null, current, { samples: 'none', debounceMs: 30 });
+  const sim = useSimulation(outline.ok ? model : null, current, { samples: 'none', debounceMs: 30, createClient: createEngine });
   // A model the engine refuses at the author's own values cannot be shown at all (not just these settings).
   const broken = !outline.ok ? outline.problem : sim.error && !sim.result && atDefaults(dials, current) ? (sim.error.issues[0]?.message ?? sim.error.message) : null;
   const colors = useMemo(() => brandColors(branding.brandColor), [branding.brandColor]);

@@ -4,7 +4,7 @@
  */
 import { createMarginal, type DistributionSpec } from './distributions';
 import type { Contributor, CostRangeModel, LinearStackModel, LineItem, RiskEvent } from './schema';
-import { costCorrelationMatrix } from './schema';
+import { costCorrelationMatrix } from './model-paths';
 import { capability } from './stats';
 
 export interface StackContributorAnalysis {

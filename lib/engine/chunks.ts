@@ -18,19 +18,19 @@
  * ECDF and drivers are computed from the merged columns. Hence 1, 2 or N workers, in a
  * browser or in Node, give bit-identical results.
  *
- * API for pools: prepareRun() once per run on each thread, runChunks() for a list of chunk
+ * API for pools: prepareRun() (prepare-run.ts) once per run on each thread, runChunks() for a list of chunk
  * indices (on any thread), mergeChunks() on the thread that gathers the parts.
  */
 import { imanConover } from './correlation';
 import { CopulaGroupSampler } from './correlation';
-import { applyDials } from './dials';
+import { setDials, type ModelCheck } from './set-dials';
 import { createMarginal, type Marginal } from './distributions';
 import { ModelValidationError } from './errors';
 import { compileFormula, type FormulaNode } from './formula';
 import { compilePlan, type Plan } from './compile';
-import { symmetricSqrt } from './linalg';
+import { checkCorrelation, symmetricSqrt } from './linalg';
 import { createColumnSampler, type SamplerContext } from './samplers';
-import { validateModel, type StochosModel } from './schema';
+import type { StochosModel } from './schema';
 import { DRIVER_TRIAL_LIMIT, RANK_TRIAL_LIMIT } from './summary';
 import { twoPassMoments } from './stats';
 
@@ -163,13 +163,22 @@ function namesIn(node: FormulaNode, out: Set<string>): Set<string> {
 }
 
 /**
- * Validate the model, apply the dial values and compile the plan. `seed` and `trials`, when
- * given, replace the model's settings (null or undefined keep them).
+ * Check the model with `check` (the schema's validateModel; prepare-run.ts), apply the dial
+ * values and compile the plan. `seed` and `trials`, when given, replace the model's settings
+ * (null or undefined keep them). With check null the model is taken as the server checked
+ * it (a published version, in the embed, whose page then needs no schema): the dial values
+ * are still range-checked and every law is still built, so a bad value still throws; the
+ * caller then runs the schema for the message (worker-client.ts).
  */
-export function prepareRun(model: unknown, dialValues?: Record<string, number>, seed?: string | number | null, trials?: number | null): PreparedRun {
-  const checked = validateModel(withOverrides(model, seed, trials));
-  if (!checked.ok) throw new ModelValidationError(checked.issues);
-  const applied = applyDials(checked.model, dialValues ?? {});
+export function prepareRunWith(check: ModelCheck, model: unknown, dialValues?: Record<string, number>, seed?: string | number | null, trials?: number | null): PreparedRun {
+  const given = withOverrides(model, seed, trials);
+  let valid: StochosModel;
+  if (check) {
+    const checked = check(given);
+    if (!checked.ok) throw new ModelValidationError(checked.issues);
+    valid = checked.model;
+  } else valid = given as StochosModel;
+  const applied = setDials(valid, dialValues ?? {}, check);
   const m = applied.model;
   const s = m.settings;
   const settings: RunSettings = { seed: s.seed, trials: s.trials, design: s.design, normalMethod: s.normalMethod, correlationMethod: s.correlationMethod };
@@ -185,6 +194,7 @@ export function prepareRun(model: unknown, dialValues?: Record<string, number>, 
   const grouped = new Set<string>();
   const method = settings.correlationMethod === 'iman-conover' ? 'iman-conover' : 'copula';
   for (const g of plan.groups) {
+    if (!check && !checkCorrelation(g.matrix).positiveSemiDefinite) throw new Error('The correlation matrix is not valid with these dial values.');
     g.ids.forEach((id) => grouped.add(id));
     const streamIds = g.ids.map(streamOf);
     const ms = g.ids.map((id) => marginals.get(id) as Marginal);
@@ -430,21 +440,4 @@ function finiteMoments(col: Float64Array): OutputChunkStats {
 export function inputWindow(prep: PreparedRun, samples: 'none' | 'outputs' | 'all' = 'none'): number {
   if (samples === 'all') return prep.settings.trials;
   return Math.min(prep.settings.trials, prep.plan.groups.length ? Math.max(DRIVER_TRIAL_LIMIT, RANK_TRIAL_LIMIT) : DRIVER_TRIAL_LIMIT);
-}
-
-/**
- * Run the given chunks of a run (any subset, any order; the parts come back in the order
- * asked). `seed` and `trials` default to the model's settings. A pool thread calls this;
- * the gathering thread passes every part to mergeChunks.
- */
-export function runChunks(
-  model: unknown,
-  dialValues: Record<string, number> | undefined,
-  seed: string | number | null | undefined,
-  trials: number | null | undefined,
-  chunkIndices: number[],
-  options: ChunkOptions = {},
-): ChunkPart[] {
-  const prep = prepareRun(model, dialValues, seed, trials);
-  return new ChunkRunner().run(prep, chunkIndices, { inputWindow: options.inputWindow ?? inputWindow(prep) });
 }

@@ -5,7 +5,8 @@
 import { contributorDistribution, threePointDistribution } from './analytic';
 import type { DistributionSpec } from './distributions';
 import { parseFormula, type FormulaNode } from './formula';
-import { costCorrelationMatrix, type StochosModel } from './schema';
+import { costCorrelationMatrix } from './model-paths';
+import type { StochosModel } from './schema';
 
 export interface PlanInput {
   /** Column name (the input's id, or id#occurs / id#impact for a risk event). */

@@ -6,9 +6,10 @@
  * same bit for bit whatever W is. Starting a run cancels the previous one (its promise
  * rejects with RunCancelledError), which is what a moving dial needs.
  */
-import { prepareRun, type ChunkPart, type PreparedRun } from './chunks';
+import { prepareRunWith, type ChunkPart, type PreparedRun } from './chunks';
 import { ModelValidationError, RunCancelledError, SamplingError, type SamplingErrorCode } from './errors';
-import { inputWindow, mergeParts, type Progress, type RunResult, type SampleSelection } from './simulate';
+import { inputWindow, mergeParts, type Progress, type RunResult, type SampleSelection } from './merge';
+import type { ModelCheck } from './set-dials';
 import { RankStore } from './stats';
 import type { WorkerErrorPayload, WorkerRequest, WorkerResponse } from './worker-protocol';
 
@@ -61,8 +62,19 @@ export class EngineWorkerClient {
   /** Ranks of unchanged inputs, kept between runs (drivers and achieved correlations). */
   private readonly ranks = new RankStore();
 
-  constructor(options: { createWorker?: () => Worker; workers?: number } = {}) {
-    this.createWorker = options.createWorker ?? (() => new Worker(new URL('./worker.ts', import.meta.url)));
+  private readonly check: ModelCheck;
+  private readonly explain: ((model: unknown, dialValues?: Record<string, number>) => Promise<unknown>) | null;
+
+  /**
+   * `createWorker` starts one worker of the pool; `check` is the model check it runs with
+   * (the schema's validateModel, or null for a published model: studio-engine.ts and
+   * embed-engine.ts). Without a check, a model that fails to prepare is handed to `explain`,
+   * which loads the schema on demand and returns its error (null: none, the first error stands).
+   */
+  constructor(options: { createWorker: () => Worker; check: ModelCheck; explain?: (model: unknown, dialValues?: Record<string, number>) => Promise<unknown>; workers?: number }) {
+    this.createWorker = options.createWorker;
+    this.check = options.check;
+    this.explain = options.explain ?? null;
     this.workers = new Array(Math.max(1, Math.floor(options.workers ?? defaultPoolSize()))).fill(null);
   }
 
@@ -144,9 +156,10 @@ export class EngineWorkerClient {
       let prep: PreparedRun;
       try {
         // Validation here too: a bad model is refused before any worker starts.
-        prep = prepareRun(model, options.dialValues);
+        prep = prepareRunWith(this.check, model, options.dialValues);
       } catch (err) {
-        reject(err);
+        if (this.explain) this.explain(model, options.dialValues).then((e) => reject(e ?? err), () => reject(err));
+        else reject(err);
         return;
       }
       const onAbort = () => {

@@ -66,9 +66,13 @@ const rows = [...seen].map(([file, { via, src }]) => ({
 }));
 rows.sort((a, b) => b.gzip - a.gzip);
 const total = rows.reduce((s, r) => s + r.gzip, 0);
+const upFront = rows.filter((r) => r.loadedBy !== 'lazy').reduce((s, r) => s + r.gzip, 0);
 const report = { route, files: rows.length, gzipBytes: total, gzipKiB: +(total / 1024).toFixed(1), byFile: rows };
 if (!process.argv.includes('--json')) {
   for (const r of rows) console.log(`${(r.gzip / 1024).toFixed(1).padStart(6)} KiB gz ${(r.bytes / 1024).toFixed(1).padStart(7)} KiB  ${r.loadedBy.padEnd(6)} ${r.file}  ${r.holds.join(', ')}`);
   console.log(`embed page JavaScript: ${report.gzipKiB} KiB gzip (${(total / 1000).toFixed(1)} kB) in ${rows.length} files`);
+  console.log(
+    `  loaded with the page or its worker: ${(upFront / 1024).toFixed(1)} KiB gzip (${(upFront / 1000).toFixed(1)} kB); on demand (dynamic import, fetched when used: the iframe resizer when framed, the model schema only to explain a model that fails): ${(total - upFront) / 1024 > 0 ? ((total - upFront) / 1024).toFixed(1) : 0} KiB`,
+  );
 }
-console.log(JSON.stringify({ embedWeight: { gzipBytes: total, gzipKiB: report.gzipKiB, files: rows.length } }));
+console.log(JSON.stringify({ embedWeight: { gzipBytes: total, gzipKiB: report.gzipKiB, files: rows.length, upFrontGzipBytes: upFront, onDemandGzipBytes: total - upFront } }));

@@ -19,7 +19,8 @@
 import { spawnSync } from 'node:child_process';
 import os from 'node:os';
 import path from 'node:path';
-import { ChunkRunner, EMPTY_MOMENTS, mergeMoments, prepareRun, type ChunkPart, type Moments } from '@/lib/engine/chunks';
+import { ChunkRunner, EMPTY_MOMENTS, mergeMoments, type ChunkPart, type Moments } from '@/lib/engine/chunks';
+import { prepareRun } from '@/lib/engine/prepare-run';
 import { createMarginal, type DistributionSpec } from '@/lib/engine/distributions';
 import { createColumnSampler, type SamplerContext } from '@/lib/engine/samplers';
 import { mergeParts, runModelSync } from '@/lib/engine/simulate';

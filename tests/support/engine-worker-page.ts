@@ -5,6 +5,7 @@
  */
 import { EngineWorkerClient } from '@/lib/engine/worker-client';
 import { EXAMPLE_MODELS } from '@/lib/engine/examples';
+import { validateModel } from '@/lib/engine/schema';
 import { fingerprint, type Fingerprint } from './engine-helpers';
 
 declare global {
@@ -19,7 +20,7 @@ declare global {
 const clients = new Map<number, EngineWorkerClient>();
 const poolOf = (workers: number) => {
   let c = clients.get(workers);
-  if (!c) clients.set(workers, (c = new EngineWorkerClient({ createWorker: () => new Worker('/worker.js'), workers })));
+  if (!c) clients.set(workers, (c = new EngineWorkerClient({ createWorker: () => new Worker('/worker.js'), check: validateModel, workers })));
   return c;
 };
 const client = poolOf(2);

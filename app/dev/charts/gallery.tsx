@@ -4,6 +4,7 @@ import { EXAMPLE_MODELS } from '@/lib/engine/examples';
 import type { Template } from '@/lib/engine/schema';
 import { ResultsPreview } from '@/components/results/results-preview';
 import { WidgetView } from '@/components/widget/widget-view';
+import { createStudioEngine } from '@/lib/engine/studio-engine';
 import { defaultHeadline } from '@/lib/models/widget-options';
 
 // Invented firms and colours: a dark accent, a light one (darkened for contrast) and a purple.
@@ -39,6 +40,7 @@ export function ChartGallery({ only, view }: { only?: string; view?: string }) {
           </h2>
           {view === 'widget' ? (
             <WidgetView
+              createEngine={createStudioEngine}
               model={EXAMPLE_MODELS[t]}
               widget={{
                 title: EXAMPLE_MODELS[t].title,

@@ -6,7 +6,8 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { jStat } from 'jstat';
-import { CHUNK_SIZE, ChunkRunner, chunkCount, mergeMoments, momentsOf, prepareRun, runChunks } from '@/lib/engine/chunks';
+import { CHUNK_SIZE, ChunkRunner, chunkCount, mergeMoments, momentsOf } from '@/lib/engine/chunks';
+import { prepareRun, runChunks } from '@/lib/engine/prepare-run';
 import { EXAMPLE_MODELS, exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine/examples';
 import { mergeChunks, mergeParts, runModelSync } from '@/lib/engine/simulate';
 import { RankStore } from '@/lib/engine/stats';
