@@ -124,11 +124,11 @@ export function DialsEditor({ model }: { model: StochosModel }) {
                 <tr>
                   <Td>
                     {/* Label, key and target share one cell so a dial row fits a narrow editor column. */}
-                    <TextInput path={`${p}.label`} label={`Label of dial ${i + 1}`} hideLabel wrap />
-                    <div className="mt-1 flex items-start gap-1">
-                      <KeyInput path={`${p}.id`} label={`Key of dial ${i + 1}`} hideLabel className="min-w-0 flex-1" inputClassName="h-6! text-xs! text-ink-600" />
+                    <div className="flex items-start gap-1">
+                      <TextInput path={`${p}.label`} label={`Label of dial ${i + 1}`} hideLabel wrap className="min-w-0 flex-1" />
                       <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} />
                     </div>
+                    <KeyInput path={`${p}.id`} label={`Key of dial ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
                     <div className="mt-1">
                       <TargetSelect index={i} options={options} what={what} />
                     </div>

@@ -12,11 +12,14 @@ export function useNotificationPrefs() {
   const swr = useSWR<{ prefs: NotificationPrefs }>(NOTIFICATION_PREFS_KEY, fetcher);
   return {
     ...swr,
-    save: async (patch: Partial<NotificationPrefs>) => {
-      const next = await api.put<{ prefs: NotificationPrefs }>(NOTIFICATION_PREFS_KEY, patch);
-      await swr.mutate(next, { revalidate: false });
-      return next;
-    },
+    /** Shows the change at once and puts it back if the server refuses it. */
+    save: async (patch: Partial<NotificationPrefs>) =>
+      swr.mutate(api.put<{ prefs: NotificationPrefs }>(NOTIFICATION_PREFS_KEY, patch), {
+        optimisticData: (cur) => ({ prefs: { ...(cur?.prefs as NotificationPrefs), ...patch } }),
+        rollbackOnError: true,
+        populateCache: true,
+        revalidate: false,
+      }),
   };
 }
 

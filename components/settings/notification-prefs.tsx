@@ -38,7 +38,7 @@ export function NotificationPrefs({ role }: { role: Role }) {
                 label={info.label}
                 hint={forMe ? info.detail : `${info.detail} You receive it only while your role is ${info.roles.join(' or ')}.`}
                 checked={prefs.data!.prefs[k]}
-                disabled={busy !== null}
+                aria-busy={busy === k || undefined}
                 onChange={async (e) => {
                   const on = e.currentTarget.checked;
                   setBusy(k);

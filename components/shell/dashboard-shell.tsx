@@ -48,7 +48,7 @@ export function DashboardShell({ firmName, userName, userEmail, roleLabel, nav, 
         Skip to content
       </a>
       <aside className="st-dark bg-ink-900 text-ink-100 lg:fixed lg:inset-y-0 lg:left-0 lg:flex lg:w-60 lg:flex-col">
-        <div className="flex min-h-14 items-center gap-3 px-4 py-2">
+        <div className="flex min-h-14 flex-wrap items-center gap-x-3 gap-y-2 px-4 py-2">
           <Link href="/app/models" className="flex min-w-0 items-center gap-2.5 rounded-md">
             <LogoMark />
             <span className="min-w-0">
@@ -57,7 +57,7 @@ export function DashboardShell({ firmName, userName, userEmail, roleLabel, nav, 
             </span>
           </Link>
           {showReviewCount ? (
-            <span className="ml-auto lg:ml-0">
+            <span className="ml-auto lg:ml-0 lg:basis-full">
               <ReviewCount />
             </span>
           ) : null}

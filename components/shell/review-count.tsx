@@ -15,7 +15,7 @@ export function ReviewCount() {
       aria-label={label}
       title={label}
       data-testid="review-count"
-      className="inline-flex h-8 flex-none items-center gap-1.5 rounded-full bg-accent-300 px-2.5 text-sm font-semibold text-ink-900 hover:bg-accent-200"
+      className="inline-flex h-8 flex-none items-center gap-1.5 rounded-full whitespace-nowrap bg-accent-300 px-2.5 text-sm font-semibold text-ink-900 hover:bg-accent-200"
     >
       <svg aria-hidden="true" viewBox="0 0 16 16" className="h-4 w-4" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" strokeLinejoin="round">
         <path d="M3 8.5 6.5 12 13 4.5" />

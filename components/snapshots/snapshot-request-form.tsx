@@ -38,7 +38,7 @@ export function SnapshotRequestForm({ send, dialValues, version }: SnapshotReque
 
   if (!open)
     return (
-      <button type="button" onClick={() => setOpen(true)} className="inline-flex h-8 items-center rounded-md border border-ink-300 bg-white px-3 text-[0.8125rem] font-medium shadow-sm hover:bg-ink-50" style={{ color: 'var(--st-brand-text)' }}>
+      <button type="button" onClick={() => setOpen(true)} className="inline-flex h-8 items-center rounded-md border border-ink-300 bg-white px-3 text-[0.8125rem] font-medium shadow-sm hover:border-ink-500" style={{ color: 'var(--st-brand-text)' }}>
         E-mail this view
       </button>
     );

@@ -189,7 +189,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
                   type="button"
                   onClick={reset}
                   disabled={atDefaults(dials, current)}
-                  className="inline-flex h-8 items-center gap-1.5 rounded-md border border-ink-300 bg-white px-3 text-[0.8125rem] font-medium shadow-sm hover:bg-ink-50 disabled:cursor-not-allowed disabled:opacity-60"
+                  className="inline-flex h-8 items-center gap-1.5 rounded-md border border-ink-300 bg-white px-3 text-[0.8125rem] font-medium shadow-sm hover:border-ink-500 disabled:cursor-not-allowed disabled:opacity-60"
                   style={{ color: 'var(--st-brand-text)' }}
                 >
                   <svg aria-hidden="true" viewBox="0 0 16 16" className="h-3.5 w-3.5" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" strokeLinejoin="round">
@@ -202,7 +202,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
                     type="button"
                     onClick={() => result && setPin(result)}
                     disabled={!canPin}
-                    className="inline-flex h-8 items-center gap-1.5 rounded-md border border-ink-300 bg-white px-3 text-[0.8125rem] font-medium shadow-sm hover:bg-ink-50 disabled:cursor-not-allowed disabled:opacity-60"
+                    className="inline-flex h-8 items-center gap-1.5 rounded-md border border-ink-300 bg-white px-3 text-[0.8125rem] font-medium shadow-sm hover:border-ink-500 disabled:cursor-not-allowed disabled:opacity-60"
                     style={{ color: 'var(--st-brand-text)' }}
                   >
                     <svg aria-hidden="true" viewBox="0 0 16 16" className="h-3.5 w-3.5" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" strokeLinejoin="round">

@@ -8,7 +8,7 @@ import { ecdfAt, quantileAt, thinEcdf, type EcdfPoints } from './cumulative';
 import { axesNodes, translate } from './frame';
 import { formatPercent, formatValue } from './format';
 import { chartColors } from './palette';
-import { r2, type Scene, type SceneNode } from './scene';
+import { r2, textWidth, type Scene, type SceneNode } from './scene';
 import type { HistogramBin, SpecLimits } from './spread';
 
 export interface CompareSeries {
@@ -36,19 +36,23 @@ export const COMPARE_STYLES = {
   pinned: { stroke: chartColors.strong, width: 2, dash: '7 4', legend: 'dashed line' },
 } as const;
 
-const LEGEND_H = 26;
+const LEGEND_ROW = 22;
 
-function legendNodes(input: CompareInput): SceneNode[] {
+/** The legend: a line sample and its name per series, on one row when it fits the width, else one row each. */
+function legend(input: CompareInput, width: number): { nodes: SceneNode[]; height: number } {
+  const items = (['current', 'pinned'] as const).map((key) => ({ key, s: COMPARE_STYLES[key], label: `${input[key].label} (${COMPARE_STYLES[key].legend})` }));
+  const itemWidth = (label: string) => 34 + textWidth(label, 11.5, 'sans') + 22;
+  const oneRow = items.reduce((w, i) => w + itemWidth(i.label), 0) <= width;
   const nodes: SceneNode[] = [];
   let x = 0;
-  for (const key of ['current', 'pinned'] as const) {
-    const s = COMPARE_STYLES[key];
-    const label = `${input[key].label} (${s.legend})`;
-    nodes.push({ type: 'line', key: `lg-${key}`, x1: x, x2: x + 28, y1: 9, y2: 9, stroke: s.stroke, strokeWidth: s.width + 0.5, dash: s.dash });
-    nodes.push({ type: 'text', key: `lgt-${key}`, x: x + 34, y: 9, text: label, font: 'sans', size: 11.5, fill: chartColors.strong, baseline: 'middle', weight: 500 });
-    x += 34 + label.length * 11.5 * 0.56 + 22;
+  let y = 9;
+  for (const { key, s, label } of items) {
+    nodes.push({ type: 'line', key: `lg-${key}`, x1: x, x2: x + 28, y1: y, y2: y, stroke: s.stroke, strokeWidth: s.width + 0.5, dash: s.dash });
+    nodes.push({ type: 'text', key: `lgt-${key}`, x: x + 34, y, text: label, font: 'sans', size: 11.5, fill: chartColors.strong, baseline: 'middle', weight: 500 });
+    if (oneRow) x += itemWidth(label);
+    else y += LEGEND_ROW;
   }
-  return nodes;
+  return { nodes, height: oneRow ? LEGEND_ROW + 4 : 2 * LEGEND_ROW + 4 };
 }
 
 function limitNodes(limits: SpecLimits | undefined, x: (v: number) => number, h: number, domain: [number, number]): SceneNode[] {
@@ -73,7 +77,8 @@ function domainOf(input: CompareInput): [number, number] {
 /** Both S-curves on one set of axes, with P10/P50/P90 of each named in the text alternative. */
 export function compareCurvesScene(input: CompareInput): Scene {
   const width = Math.max(260, input.width);
-  const margin = { top: LEGEND_H + 8, right: 16, bottom: 46, left: 58 };
+  const lg = legend(input, width - 12);
+  const margin = { top: lg.height + 8, right: 16, bottom: 46, left: 58 };
   const plotHeight = Math.max(180, Math.min(300, Math.round(width * 0.42)));
   const box = makeBox(width, plotHeight + margin.top + margin.bottom, margin);
   const xDomain = domainOf(input);
@@ -91,7 +96,8 @@ export function compareCurvesScene(input: CompareInput): Scene {
     const pts = thinEcdf(input[key].ecdf, xDomain[1] - xDomain[0], box.innerWidth);
     if (pts.length) nodes.push({ type: 'path', key: `curve-${key}`, d: lineGen(pts) ?? '', stroke: s.stroke, strokeWidth: s.width, dash: s.dash, strokeLinejoin: 'round' });
   }
-  nodes.push({ type: 'group', key: 'legend', children: legendNodes(input), dy: -LEGEND_H - 4 });
+  // The legend starts at the chart's left edge, above the plot.
+  nodes.push({ type: 'group', key: 'legend', children: lg.nodes, dx: -margin.left + 8, dy: -lg.height - 4 });
   return {
     width: box.width,
     height: box.height,
@@ -128,7 +134,8 @@ function describeCurves(input: CompareInput): string {
 export function compareSpreadsScene(input: CompareInput): Scene {
   const noun = input.noun ?? 'trials';
   const width = Math.max(260, input.width);
-  const margin = { top: LEGEND_H + 8, right: 16, bottom: 46, left: 58 };
+  const lg = legend(input, width - 12);
+  const margin = { top: lg.height + 8, right: 16, bottom: 46, left: 58 };
   const plotHeight = Math.max(160, Math.min(260, Math.round(width * 0.36)));
   const box = makeBox(width, plotHeight + margin.top + margin.bottom, margin);
   const xDomain = domainOf(input);
@@ -157,7 +164,8 @@ export function compareSpreadsScene(input: CompareInput): Scene {
     if (key === 'current') nodes.push({ type: 'path', key: 'fill-current', d: `${d}Z`, fill: chartColors.seriesTint, opacity: 0.7 });
     nodes.push({ type: 'path', key: `step-${key}`, d, stroke: s.stroke, strokeWidth: s.width - 0.5, dash: s.dash, strokeLinejoin: 'miter' });
   }
-  nodes.push({ type: 'group', key: 'legend', children: legendNodes(input), dy: -LEGEND_H - 4 });
+  // The legend starts at the chart's left edge, above the plot.
+  nodes.push({ type: 'group', key: 'legend', children: lg.nodes, dx: -margin.left + 8, dy: -lg.height - 4 });
   const f = (v: number) => formatValue(v, input.unit ?? null, { significant: 4 });
   const range = (s: CompareSeries) => (s.bins.length ? `${f(s.bins[0]!.x0)} to ${f(s.bins[s.bins.length - 1]!.x1)}` : 'no values');
   return {

@@ -8,6 +8,8 @@ import { E2E_HOST } from './support/ports';
 // pinned comparison, the docs and the development mailbox. A new screen gets a line here.
 
 const TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'];
+// Many screens per test: each loads, settles and is read by axe.
+test.describe.configure({ timeout: 300_000 });
 let db: Database.Database;
 let firmId: string;
 test.beforeAll(() => {
