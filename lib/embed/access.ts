@@ -68,6 +68,32 @@ export async function checkPass(passId: string | null | undefined, token: string
   return checkState(pass, v.token.clientId, v.token.keyVersion, v.token.issuedAt, v.token.jti);
 }
 
+export interface Framable {
+  ok: true;
+  pass: PassRecord;
+  client: ClientRecord;
+  firmName: string | null;
+}
+
+/**
+ * The embed page's own check, by pass id alone: the pass token never travels in a URL (the loader hands it to
+ * the frame by postMessage, a direct link carries it in the fragment), so the page knows only which pass it
+ * shows. Pass-wide states (unknown, revoked, expired, suspended, unpublished) are answered here; the token's
+ * own checks happen at the exchange (POST /api/embed/session). The page shows no widget data before that.
+ */
+export async function checkPassFrame(passId: string | null | undefined): Promise<Framable | Refused> {
+  if (!passId || !UUID.test(passId)) return refused('invalid', null);
+  const pass = await getPassForEmbed(passId);
+  if (!pass) return refused('invalid', null);
+  const client = await getClientById(pass.clientId);
+  if (!client || client.firmId !== pass.firmId) return refused('invalid', null);
+  if (pass.revokedAt) return refused(pass.revokeReason === 'key_rotated' ? 'rotated' : 'revoked', client);
+  if (Date.parse(pass.expiresAt) <= Date.now()) return refused('expired', client);
+  if (client.archivedAt) return refused('archived', client);
+  if (!(await getPublishedWidget(pass.firmId, pass.widgetId))) return refused('unpublished', client);
+  return { ok: true, pass, client, firmName: (await getFirm(client.firmId))?.name ?? null };
+}
+
 export interface Viewer extends Granted {
   session: SessionClaims;
 }
