@@ -1,7 +1,8 @@
 import NextAuth from 'next-auth';
+import { NextRequest } from 'next/server';
 import { authOptions } from '@/lib/auth/options';
 import { notFound } from '@/lib/http/errors';
-import { toErrorResponse } from '@/lib/http/handler';
+import { readBody, toErrorResponse } from '@/lib/http/handler';
 
 // next-auth answers an action it does not know with 500 ("problem with the server configuration"); only the
 // actions and providers this app uses reach it, anything else gets the usual 404.
@@ -25,10 +26,21 @@ function known(method: string, segments: readonly string[]): boolean {
   return Boolean(spec.providers?.includes(provider));
 }
 
-const handler = async (req: Request, ctx: { params: Promise<{ nextauth?: string[] }> }) => {
-  const { nextauth } = await ctx.params;
-  if (!known(req.method, nextauth ?? [])) return toErrorResponse(notFound('That sign-in address'));
-  return NextAuth(authOptions())(req, ctx);
+// Sign-in forms are a few hundred bytes; next-auth would read any body whole, so it gets at most 64 KiB.
+const AUTH_BODY_LIMIT = 64 * 1024;
+
+const handler = async (req: NextRequest, ctx: { params: Promise<{ nextauth?: string[] }> }) => {
+  try {
+    const { nextauth } = await ctx.params;
+    if (!known(req.method, nextauth ?? [])) throw notFound('That sign-in address');
+    if (req.method === 'POST') {
+      const bytes = await readBody(req, AUTH_BODY_LIMIT, 'sign-in form');
+      req = new NextRequest(req.url, { method: 'POST', headers: req.headers, body: bytes as BodyInit });
+    }
+    return await NextAuth(authOptions())(req, ctx);
+  } catch (err) {
+    return toErrorResponse(err);
+  }
 };
 
 export { handler as GET, handler as POST };
