@@ -1,3 +1,4 @@
+import { isIP } from 'node:net';
 import { z } from 'zod';
 
 // Environment is read and validated once; every module imports `env()` from here.
@@ -27,7 +28,19 @@ const schema = z.object({
   FAKE_STRIPE_URL: z.url().default('http://127.0.0.1:12111'),
   EMBED_SIGNING_SECRET: z.string().min(32).optional(),
   // Reverse proxies whose forwarded header is believed (IPs or CIDRs, comma-separated); empty: the socket peer only.
-  TRUSTED_PROXIES: z.string().default(''),
+  TRUSTED_PROXIES: z
+    .string()
+    .default('')
+    .superRefine((list, ctx) => {
+      for (const entry of list.split(/[\s,]+/).filter(Boolean)) {
+        const [addr, bits, extra] = entry.split('/');
+        const v = isIP(addr ?? '');
+        const max = v === 6 ? 128 : 32;
+        if (!v || extra !== undefined || (bits !== undefined && (!/^\d+$/.test(bits) || Number(bits) > max))) {
+          ctx.addIssue({ code: 'custom', message: `"${entry}" is not an IP address or CIDR range (e.g. 10.0.0.0/8, 192.0.2.7, ::1)` });
+        }
+      }
+    }),
   TRUSTED_PROXY_HEADER: z.enum(['x-forwarded-for', 'forwarded']).default('x-forwarded-for'),
 });
 
