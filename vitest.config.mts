@@ -21,6 +21,7 @@ export default defineConfig({
           include: ['tests/unit/**/*.test.ts', 'tests/integration/**/*.test.ts'],
           exclude: ['tests/integration/api/**'],
           environment: 'node',
+          globalSetup: ['tests/support/run-worker-setup.ts'],
           testTimeout: 60_000,
           hookTimeout: 120_000,
         },

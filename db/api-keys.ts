@@ -38,6 +38,5 @@ export async function revokeApiKey(firmId: string, id: string, trx: Knex.Transac
 export async function findFirmByApiKey(secret: string): Promise<{ keyId: string; firmId: string } | null> {
   const row = await getDb()('api_keys').select('id', 'firm_id').where({ key_hash: sha256(secret) }).whereNull('revoked_at').first();
   if (!row) return null;
-  await getDb()('api_keys').where({ id: row.id }).update({ last_used_at: nowIso() });
   return { keyId: row.id, firmId: row.firm_id };
 }

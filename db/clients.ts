@@ -42,7 +42,7 @@ const COLUMNS = [
   'c.archived_at',
 ];
 
-function toClient(r: Record<string, unknown>): ClientRecord {
+export function toClient(r: Record<string, unknown>): ClientRecord {
   return {
     id: r.id as string,
     firmId: r.firm_id as string,

@@ -1,6 +1,7 @@
 import 'server-only';
 import type { Knex } from 'knex';
-import { getDb, writeTransaction } from '@/db/knex';
+import { getDb } from '@/db/knex';
+import { claimNext, leaseOps, transition } from '@/db/job-lease';
 import { nowIso } from '@/db/ids';
 
 // Snapshot jobs (migrations/20261201000600_snapshots.ts). The worker's state changes are conditional on the
@@ -130,56 +131,28 @@ export async function getSnapshotJob(id: string, trx?: Knex.Transaction): Promis
   return r ? toJob(r) : null;
 }
 
+const ops = leaseOps('snapshot_jobs');
+
 /**
  * Takes the next due job for `workerId` with a lease until `leaseUntil`. A job whose worker stopped while rendering
  * (lease run out) is taken again; one whose worker stopped while the mail server was receiving it is returned in
  * state 'sending' with `orphaned: true`, for the caller to settle without sending it again.
  */
 export async function claimNextJob(workerId: string, leaseUntil: string, now = nowIso()): Promise<{ job: SnapshotJob; orphaned: boolean } | null> {
-  return writeTransaction(async (trx) => {
-    const r = await trx('snapshot_jobs as j')
-      .where((w) =>
-        w
-          .where((a) => a.where('j.state', 'queued').where('j.next_attempt_at', '<=', now))
-          .orWhere((b) => b.whereIn('j.state', ['rendering', 'sending']).where('j.locked_until', '<', now)),
-      )
-      .orderBy('j.next_attempt_at')
-      .orderBy('j.created_at')
-      .select(COLUMNS)
-      .first();
-    if (!r) return null;
-    const job = toJob(r);
-    if (job.state === 'sending') {
-      await trx('snapshot_jobs').where({ id: job.id, state: 'sending' }).update({ locked_by: workerId, locked_until: leaseUntil, updated_at: now });
-      return { job: { ...job, lockedBy: workerId, lockedUntil: leaseUntil }, orphaned: true };
-    }
-    await trx('snapshot_jobs')
-      .where({ id: job.id, state: job.state })
-      .update({ state: 'rendering', attempts: job.attempts + 1, locked_by: workerId, locked_until: leaseUntil, updated_at: now });
-    return { job: { ...job, state: 'rendering', attempts: job.attempts + 1, lockedBy: workerId, lockedUntil: leaseUntil }, orphaned: false };
-  });
+  const c = await claimNext({ table: 'snapshot_jobs', workState: 'rendering' }, COLUMNS, workerId, leaseUntil, now);
+  return c ? { job: toJob(c.row), orphaned: c.orphaned } : null;
 }
 
-/** Moves a job this worker holds from one state to another; false when it no longer holds it. */
-async function transition(id: string, workerId: string, from: SnapshotState, patch: Record<string, unknown>): Promise<boolean> {
-  const n = await getDb()('snapshot_jobs')
-    .where({ id, locked_by: workerId, state: from })
-    .update({ ...patch, updated_at: nowIso() });
-  return n === 1;
-}
-
-export const extendLease = (id: string, workerId: string, state: SnapshotState, until: string) => transition(id, workerId, state, { locked_until: until });
+export const extendLease = (id: string, workerId: string, state: SnapshotState, until: string) => ops.extendLease(id, workerId, state, until);
 
 export const markSending = (id: string, workerId: string, until: string, render: { pdfBytes: number; renderMs: number }) =>
-  transition(id, workerId, 'rendering', { state: 'sending', locked_until: until, pdf_bytes: render.pdfBytes, render_ms: render.renderMs });
+  transition('snapshot_jobs', id, workerId, 'rendering', { state: 'sending', locked_until: until, pdf_bytes: render.pdfBytes, render_ms: render.renderMs });
 
-export const markSent = (id: string, workerId: string) => transition(id, workerId, 'sending', { state: 'sent', sent_at: nowIso(), locked_by: null, locked_until: null, last_error: null });
+export const markSent = (id: string, workerId: string) => ops.markSent(id, workerId);
 
-export const markRetry = (id: string, workerId: string, from: SnapshotState, error: string, nextAttemptAt: string) =>
-  transition(id, workerId, from, { state: 'queued', next_attempt_at: nextAttemptAt, locked_by: null, locked_until: null, last_error: error.slice(0, 500) });
+export const markRetry = (id: string, workerId: string, from: SnapshotState, error: string, nextAttemptAt: string) => ops.markRetry(id, workerId, from, error, nextAttemptAt);
 
-export const markFailed = (id: string, workerId: string, from: SnapshotState, error: string) =>
-  transition(id, workerId, from, { state: 'failed', locked_by: null, locked_until: null, last_error: error.slice(0, 500) });
+export const markFailed = (id: string, workerId: string, from: SnapshotState, error: string) => ops.markFailed(id, workerId, from, error);
 
 /** Everything the renderer needs about a job: the pinned version, the widget's presentation, firm and client. */
 export interface SnapshotContext {

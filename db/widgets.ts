@@ -79,30 +79,51 @@ export async function getLiveWidgetForModel(firmId: string, modelId: string, trx
   return r ? toWidget(r) : null;
 }
 
-/**
- * For the client-facing side (embed pages, snapshots): a live widget of a live (not archived) model, with the
- * published version's model JSON and sign-off. Null when the widget was taken down or belongs to another firm.
- */
-export async function getPublishedWidget(firmId: string, id: string, trx?: Knex.Transaction): Promise<PublishedWidget | null> {
-  const r = await base(trx)
+function publishedQuery(firmId: string, id: string, trx?: Knex.Transaction) {
+  return base(trx)
     .join('firms as f', 'f.id', 'w.firm_id')
     .leftJoin('users as au', 'au.id', 'v.author_id')
     .leftJoin('users as cu', 'cu.id', 'v.checker_id')
     .where({ 'w.firm_id': firmId, 'w.id': id })
     .whereNull('w.unpublished_at')
-    .whereNull('m.archived_at')
-    .select([...COLUMNS, 'v.model_json', 'v.created_at as version_created_at', 'au.name as author_name', 'cu.name as checker_name', 'v.checked_at', 'f.name as firm_name'])
-    .first();
-  if (!r) return null;
+    .whereNull('m.archived_at');
+}
+
+const PUBLISHED_COLUMNS = [...COLUMNS, 'v.created_at as version_created_at', 'au.name as author_name', 'cu.name as checker_name', 'v.checked_at', 'f.name as firm_name'];
+
+function toPublished(r: Record<string, unknown>): Omit<PublishedWidget, 'model'> {
   return {
     ...toWidget(r),
-    model: JSON.parse(r.model_json),
-    versionCreatedAt: r.version_created_at,
-    authorName: r.author_name ?? null,
-    checkerName: r.checker_name ?? null,
-    checkedAt: r.checked_at ?? null,
-    firmName: r.firm_name,
+    versionCreatedAt: r.version_created_at as string,
+    authorName: (r.author_name as string | null) ?? null,
+    checkerName: (r.checker_name as string | null) ?? null,
+    checkedAt: (r.checked_at as string | null) ?? null,
+    firmName: r.firm_name as string,
   };
+}
+
+/**
+ * For the client-facing side (embed pages, snapshots): a live widget of a live (not archived) model, with the
+ * published version's model JSON and sign-off. Null when the widget was taken down or belongs to another firm.
+ */
+export async function getPublishedWidget(firmId: string, id: string, trx?: Knex.Transaction): Promise<PublishedWidget | null> {
+  const r = await publishedQuery(firmId, id, trx).select([...PUBLISHED_COLUMNS, 'v.model_json']).first();
+  return r ? { ...toPublished(r), model: JSON.parse(r.model_json) } : null;
+}
+
+/**
+ * The same without the model JSON (the embed read path takes it from a cache by version id: versions never
+ * change), plus the hash of the firm's logo, if any, for the logo's address.
+ */
+export async function getPublishedWidgetMeta(firmId: string, id: string): Promise<(Omit<PublishedWidget, 'model'> & { logoHash: string | null }) | null> {
+  const r = await publishedQuery(firmId, id).leftJoin('firm_logos as fl', 'fl.firm_id', 'w.firm_id').select([...PUBLISHED_COLUMNS, 'fl.hash as logo_hash']).first();
+  return r ? { ...toPublished(r), logoHash: (r.logo_hash as string | null) ?? null } : null;
+}
+
+/** A version's model JSON as stored (versions are immutable once created). */
+export async function getVersionModelJson(firmId: string, versionId: string): Promise<string | null> {
+  const r = await getDb()('model_versions').where({ firm_id: firmId, id: versionId }).first('model_json');
+  return r ? (r.model_json as string) : null;
 }
 
 export interface WidgetFields {

@@ -42,6 +42,10 @@ const schema = z.object({
       }
     }),
   TRUSTED_PROXY_HEADER: z.enum(['x-forwarded-for', 'forwarded']).default('x-forwarded-for'),
+  // Structured JSON logs (pino) on stdout; 'silent' turns them off.
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  // Page loads and dial moves are written in batches, at most this long after they happen.
+  EVENT_FLUSH_MS: z.coerce.number().int().min(10).max(60_000).default(250),
 });
 
 export type Env = z.infer<typeof schema> & { authSecret: string; realSmtp: boolean; embedSecret: string };

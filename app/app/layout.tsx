@@ -9,7 +9,7 @@ export default async function DashboardLayout({ children }: { children: React.Re
   const member = await requirePageMember('firm.read');
   const nav = NAV.filter((item) => can(member.role, item.permission)).map(({ href, label, icon }) => ({ href, label, icon }));
   return (
-    <DashboardShell firmName={member.firmName} userName={member.name} userEmail={member.email} roleLabel={ROLE_LABELS[member.role]} nav={nav} notice={<BillingBanner firmId={member.firmId} role={member.role} />}>
+    <DashboardShell firmName={member.firmName} userName={member.name} userEmail={member.email} roleLabel={ROLE_LABELS[member.role]} nav={nav} showReviewCount={can(member.role, 'versions.check')} notice={<BillingBanner firmId={member.firmId} role={member.role} />}>
       {children}
     </DashboardShell>
   );

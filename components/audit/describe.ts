@@ -33,6 +33,10 @@ export function describeAction(e: AuditEntry): string {
       return `Removed a member (${role(d.role)})`;
     case 'member.reactivated':
       return 'Reactivated a removed member';
+    case 'notifications.changed': {
+      const off = Object.entries(d).filter(([, v]) => v === false).length;
+      return off ? `Changed their own e-mail notifications (${off} turned off)` : 'Changed their own e-mail notifications';
+    }
     case 'settings.changed': {
       const keys = Object.keys(d).map((k) => SETTING[k] ?? k);
       return keys.length ? `Changed settings: ${keys.join(', ')}` : 'Changed settings';

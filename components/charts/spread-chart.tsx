@@ -14,6 +14,8 @@ export interface SpreadChartProps {
   bins: readonly HistogramBin[];
   /** Trials behind the bins (valid trials). */
   total?: number;
+  /** What the bars count, plural: 'trials' (default) for a simulation, 'measurements' for a dataset. */
+  noun?: string;
   limits?: SpecLimits;
   markers?: readonly ValueMarker[];
   /** Exact shares printed in the hatched regions, e.g. { lower: '0.006 % below' }. */
@@ -40,9 +42,9 @@ function beyond(b: HistogramBin, limits: SpecLimits | undefined): string {
 }
 
 /** Histogram of an output with its limits; the parts beyond a limit are hatched. */
-export function SpreadChart({ name, unit, bins, total, limits, markers, outLabels, outShare, title, description, caption, headingLevel, className, downloads }: SpreadChartProps) {
+export function SpreadChart({ name, unit, bins, total, noun = 'trials', limits, markers, outLabels, outShare, title, description, caption, headingLevel, className, downloads }: SpreadChartProps) {
   const [ref, width] = useElementWidth();
-  const geometry = useMemo(() => spreadGeometry({ bins, name, unit, limits, markers, total, width, outLabels, outShare }), [bins, name, unit, limits, markers, total, width, outLabels, outShare]);
+  const geometry = useMemo(() => spreadGeometry({ bins, name, unit, limits, markers, total, noun, width, outLabels, outShare }), [bins, name, unit, limits, markers, total, noun, width, outLabels, outShare]);
   const scene = useMemo(() => spreadScene(geometry, { title: `Spread of ${name}`, description }), [geometry, name, description]);
   const rows = useMemo(
     () =>
@@ -71,7 +73,7 @@ export function SpreadChart({ name, unit, bins, total, limits, markers, outLabel
           columns={[
             { key: 'from', header: 'From', numeric: true },
             { key: 'to', header: 'To', numeric: true },
-            { key: 'trials', header: 'Trials', numeric: true },
+            { key: 'trials', header: noun.charAt(0).toUpperCase() + noun.slice(1), numeric: true },
             { key: 'share', header: 'Share', numeric: true },
             ...(hasLimits ? [{ key: 'beyond', header: 'Beyond a limit' }] : []),
           ]}

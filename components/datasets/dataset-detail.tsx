@@ -68,7 +68,7 @@ export function DatasetDetailView({ detail, canEdit }: { detail: DatasetDetail; 
       </p>
 
       <div className="grid gap-6 lg:grid-cols-2">
-        <SpreadChart name={ds.name} unit={ds.unit} bins={s.histogram} total={s.count} title="Histogram" headingLevel="h3" />
+        <SpreadChart name={ds.name} unit={ds.unit} bins={s.histogram} total={s.count} noun="measurements" title="Histogram" headingLevel="h3" />
         <CumulativeChart name={ds.name} unit={ds.unit} ecdf={s.ecdf} percentiles={s.percentiles.filter((p) => [0.1, 0.5, 0.9].includes(p.p))} tablePercentiles={s.percentiles} title="Empirical CDF" headingLevel="h3" />
       </div>
 
@@ -128,14 +128,7 @@ export function DatasetDetailView({ detail, canEdit }: { detail: DatasetDetail; 
         <Card title={`${LAW_LABELS[chosen.law]} fit`} as="h2">
           <FitPlots law={chosen.law} params={chosen.params} bins={s.histogram} sorted={sorted} unit={ds.unit} />
           <div className="mt-4 flex flex-wrap gap-2">
-            {(() => {
-              const c = fittedChoice(ds, chosen.law, chosen.params);
-              return c ? (
-                <CopyButton value={choiceJson(c.distribution)} label={`Use this law (${LAW_LABELS[chosen.law]})`} what="distribution" />
-              ) : (
-                <span className="text-sm text-ink-600">The engine has no gamma law; use the empirical distribution or another fit.</span>
-              );
-            })()}
+            <CopyButton value={choiceJson(fittedChoice(ds, chosen.law, chosen.params).distribution)} label={`Use this law (${LAW_LABELS[chosen.law]})`} what="distribution" />
             <CopyButton value={choiceJson(empiricalChoice(ds).distribution)} label="Use empirical" what="distribution" variant="secondary" />
           </div>
           <p className="mt-2 text-xs text-ink-600">

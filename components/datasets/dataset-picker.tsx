@@ -5,7 +5,7 @@ import { Button } from '@/components/ui/button';
 import { Select } from '@/components/ui/field';
 import { Banner } from '@/components/ui/banner';
 import { LAW_LABELS, type FitOk } from '@/lib/datasets/fit';
-import { empiricalChoice, fittedChoice, lawToDistribution, type DatasetChoice } from '@/lib/datasets/use';
+import { empiricalChoice, fittedChoice, type DatasetChoice } from '@/lib/datasets/use';
 import type { DatasetDetail } from '@/lib/datasets/service';
 import type { DatasetRow } from '@/db/datasets';
 
@@ -41,7 +41,7 @@ export function DatasetPicker({ target, modelId, onPick }: DatasetPickerProps) {
       .then((d: DatasetDetail) => {
         if (!live) return;
         setDetail(d);
-        const best = (d.fits ?? []).find((f): f is FitOk => f.ok && (target === 'stack' ? f.law === 'normal' : lawToDistribution(f.law, f.params) !== null));
+        const best = (d.fits ?? []).find((f): f is FitOk => f.ok && (target !== 'stack' || f.law === 'normal'));
         setOption(best ? best.law : 'empirical');
       })
       .catch(() => setError('The dataset could not be loaded.'));
@@ -50,7 +50,7 @@ export function DatasetPicker({ target, modelId, onPick }: DatasetPickerProps) {
     };
   }, [datasetId, target]);
 
-  const fits = (detail?.fits ?? []).filter((f): f is FitOk => f.ok && (target === 'stack' ? f.law === 'normal' : lawToDistribution(f.law, f.params) !== null));
+  const fits = (detail?.fits ?? []).filter((f): f is FitOk => f.ok && (target !== 'stack' || f.law === 'normal'));
   const options = [
     ...fits.map((f) => ({ value: f.law, label: `${target === 'stack' ? 'Normal fitted to the data' : `${LAW_LABELS[f.law]} fit`} (rank ${f.rank} by AIC)` })),
     { value: 'empirical', label: 'Empirical (the measured values themselves)' },
@@ -61,7 +61,6 @@ export function DatasetPicker({ target, modelId, onPick }: DatasetPickerProps) {
     const ds = { id: detail.dataset.id, hash: detail.dataset.hash, name: detail.dataset.name, values: detail.dataset.values };
     const fit = fits.find((f) => f.law === option);
     const choice = fit ? fittedChoice(ds, fit.law, fit.params) : empiricalChoice(ds);
-    if (!choice) return;
     setPending(true);
     setError(null);
     try {

@@ -82,11 +82,27 @@ function Legend() {
   );
 }
 
-/** The formula template's correlation matrix: which inputs take part, the matrix itself, the PSD check and repair. */
-export function CorrelationEditor() {
+export interface CorrelationEditorProps {
+  /** Where the rows to correlate live: formula inputs or stack contributors. */
+  rowsPath?: 'inputs' | 'contributors';
+  sectionId?: string;
+  title?: string;
+  description?: string;
+  /** What a row is called in messages ("input", "contributor"). */
+  noun?: string;
+}
+
+const FORMULA_TEXT =
+  'Inputs that move together. Stochos draws them through a Gaussian copula, so any distribution can take part. Editing a cell sets its mirror too; the diagonal is always 1.';
+
+/**
+ * The correlation matrix of a formula model's inputs or a stack's contributors: which rows take part, the matrix
+ * itself, the PSD check and the nearest-matrix repair.
+ */
+export function CorrelationEditor({ rowsPath = 'inputs', sectionId = 'formula-correlation', title = 'Correlations between inputs', description = FORMULA_TEXT, noun = 'input' }: CorrelationEditorProps = {}) {
   const { control, setValue, getValues } = useFormContext();
   const { readOnly, idFor, messages } = useEditor();
-  const inputs = (useWatch({ control, name: 'inputs' }) ?? []) as InputRow[];
+  const inputs = (useWatch({ control, name: rowsPath }) ?? []) as InputRow[];
   const corr = useWatch({ control, name: 'correlation' }) as { inputs?: string[]; matrix?: number[][] } | undefined;
   const ids = useMemo(() => corr?.inputs ?? [], [corr?.inputs]);
   const matrix = useMemo(() => corr?.matrix ?? [], [corr?.matrix]);
@@ -144,15 +160,11 @@ export function CorrelationEditor() {
   const memberMessages = Object.entries(messages).filter(([k]) => /^correlation\.inputs\.\d+$/.test(k));
 
   return (
-    <Section
-      id="formula-correlation"
-      title="Correlations between inputs"
-      description="Inputs that move together. Stochos draws them through a Gaussian copula, so any distribution can take part. Editing a cell sets its mirror too; the diagonal is always 1."
-    >
+    <Section id={sectionId} title={title} description={description}>
       <fieldset>
-        <legend className="mb-1 text-[0.8125rem] font-medium text-ink-800">Inputs in the matrix</legend>
+        <legend className="mb-1 text-[0.8125rem] font-medium text-ink-800">{noun === 'input' ? 'Inputs' : 'Contributors'} in the matrix</legend>
         {inputs.length < 2 ? (
-          <p className="text-sm text-ink-600">Add at least two inputs to correlate them.</p>
+          <p className="text-sm text-ink-600">Add at least two {noun}s to correlate them.</p>
         ) : (
           <div id={idFor('correlation.inputs')} tabIndex={-1} className="flex flex-wrap gap-x-4 gap-y-1.5">
             {inputs.map((inp, k) => {
@@ -169,7 +181,7 @@ export function CorrelationEditor() {
         )}
         {orphans.length ? (
           <p className="mt-1.5 flex flex-wrap items-center gap-1.5 text-sm text-ink-700">
-            In the matrix but not an input:
+            In the matrix but not {noun === 'input' ? 'an input' : `a ${noun}`}:
             {orphans.map((id) => (
               <button
                 key={id}
@@ -189,15 +201,17 @@ export function CorrelationEditor() {
 
       {ids.length === 0 ? (
         <div className="mt-3">
-          <EmptyRows>No correlations: every input varies independently. Tick two or more inputs above to correlate them.</EmptyRows>
+          <EmptyRows>
+            No correlations: every {noun} varies independently. Tick two or more {noun}s above to correlate them.
+          </EmptyRows>
         </div>
       ) : ids.length === 1 ? (
-        <p className="mt-3 text-sm text-ink-700">Tick at least one more input: a correlation needs two.</p>
+        <p className="mt-3 text-sm text-ink-700">Tick at least one more {noun}: a correlation needs two.</p>
       ) : square ? (
         <div className="mt-4">
           <div className="relative -mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5" role="region" aria-label="Correlation matrix" tabIndex={0}>
             <table className="border-separate border-spacing-0.5 text-sm" aria-describedby={statusId}>
-              <caption className="sr-only">Correlation matrix; rows and columns are the inputs in the same order</caption>
+              <caption className="sr-only">Correlation matrix; rows and columns are the {noun}s in the same order</caption>
               <thead>
                 <tr>
                   <td />
@@ -342,7 +356,7 @@ export function CorrelationEditor() {
       ) : (
         <div className="mt-3">
           <FieldError>
-            The matrix does not match the {ids.length} inputs listed.{' '}
+            The matrix does not match the {ids.length} {noun}s listed.{' '}
             {readOnly ? null : (
               <button type="button" className="underline" onClick={() => setMembers(ids)}>
                 Reset it to no correlation

@@ -237,6 +237,9 @@ export function DistributionPicker({ path, what, unit }: { path: string; what: s
     case 'weibull':
       params = [num('shape', 'Shape k'), num('scale', 'Scale λ', { unit: u })];
       break;
+    case 'gamma':
+      params = [num('shape', 'Shape k'), num('scale', 'Scale θ', { unit: u, hint: 'The mean is k·θ, the variance k·θ².' })];
+      break;
     case 'bernoulli':
       params = num('p', 'Probability of 1', { hint: 'Gives 1 with this probability, else 0.' });
       break;

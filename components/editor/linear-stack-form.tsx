@@ -4,7 +4,9 @@ import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { Term } from '@/components/ui/term';
 import { AddButton, EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
 import { GroupMessages, KeyInput, InlineMessages, NumberInput, NumberListInput, RowMessages, SelectInput, TextInput, type Choice } from './fields';
-import { allIds, makeId } from './model-helpers';
+import { allIds, makeId, removeReferences } from './model-helpers';
+import { CorrelationEditor } from './correlation-editor';
+import { AllocationPanel } from './allocation-panel';
 import { MeasuredDataButton } from './measured-data';
 
 type StackKind = 'normal' | 'uniform' | 'triangular' | 'normal-fit' | 'empirical';
@@ -150,7 +152,10 @@ export function LinearStackForm() {
                       <NumberInput path={`${p}.meanShift`} label={`Mean shift of ${what}`} hideLabel />
                     </Td>
                     <Td>
-                      <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} minRows={1} />
+                      <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => {
+                          if (row.id) for (const w of removeReferences(getValues(), row.id)) setValue(w.path, w.value, { shouldDirty: true });
+                          remove(i);
+                        }} minRows={1} />
                     </Td>
                   </tr>
                   </InlineMessages.Provider>,
@@ -179,6 +184,14 @@ export function LinearStackForm() {
         </div>
       </Section>
 
+      <CorrelationEditor
+        rowsPath="contributors"
+        sectionId="stack-correlation"
+        title="Correlated contributors"
+        noun="contributor"
+        description="Dimensions made on one machine, in one setup or from one batch of material can move together. Tick them and enter their correlations: Stochos draws them through a Gaussian copula and reports the RSS with and without the correlation terms. Editing a cell sets its mirror too; the diagonal is always 1."
+      />
+
       <Section id="stack-limits" title="Gap requirement" description="The assembly passes when the gap lies within these limits. Give a lower limit, an upper limit, or both.">
         <GroupMessages path="limits" className="mb-3" />
         <div className="grid max-w-md grid-cols-2 gap-4">
@@ -186,6 +199,8 @@ export function LinearStackForm() {
           <NumberInput path="limits.upper" label="Upper limit" unit={unit || undefined} dense={false} placeholder="none" />
         </div>
       </Section>
+
+      <AllocationPanel />
     </>
   );
 }

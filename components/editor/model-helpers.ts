@@ -50,6 +50,7 @@ export const DISTRIBUTION_KINDS: { value: DistributionKind; label: string }[] = 
   { value: 'pert', label: 'Beta-PERT' },
   { value: 'exponential', label: 'Exponential' },
   { value: 'weibull', label: 'Weibull' },
+  { value: 'gamma', label: 'Gamma' },
   { value: 'discrete', label: 'Discrete values' },
   { value: 'bernoulli', label: 'Bernoulli (yes / no)' },
   { value: 'empirical', label: 'Empirical (pasted data)' },
@@ -117,6 +118,11 @@ export function reshapeDistribution(prev: unknown, kind: DistributionKind): Dist
     case 'weibull':
       // Shape 2: the mean is scale · Γ(1.5) ≈ 0.8862 · scale.
       return { type: 'weibull', shape: 2, scale: cs.centre > 0 ? nice(cs.centre / 0.886227) : 1 };
+    case 'gamma': {
+      // Matching moments: shape (mean / sd)², scale sd² / mean.
+      if (cs.centre > 0) return { type: 'gamma', shape: nice((cs.centre / cs.spread) ** 2) || 1, scale: nice((cs.spread * cs.spread) / cs.centre) || 1 };
+      return { type: 'gamma', shape: 2, scale: 1 };
+    }
     case 'discrete':
       return { type: 'discrete', values: [nice(c - s), c, nice(c + s)], probabilities: [0.25, 0.5, 0.25] };
     case 'bernoulli':
@@ -223,6 +229,9 @@ export function dialTargetOptions(model: StochosModel): DialTargetOption[] {
     }
     add('Gap', 'lower limit', { kind: 'limit', which: 'lower' });
     add('Gap', 'upper limit', { kind: 'limit', which: 'upper' });
+    const cids = model.correlation?.inputs ?? [];
+    for (let i = 0; i < cids.length; i++)
+      for (let j = i + 1; j < cids.length; j++) add('Correlations', `${cids[i]} with ${cids[j]}`, { kind: 'correlation', a: cids[i], b: cids[j] }, [-1, 1]);
   } else if (model.template === 'cost-range') {
     add('Estimate', 'budget', { kind: 'budget' });
     add('Estimate', 'confidence level (P-level)', { kind: 'confidence' }, [0, 1]);

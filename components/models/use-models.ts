@@ -1,6 +1,6 @@
 'use client';
 
-import useSWR from 'swr';
+import useSWR, { mutate as mutateKey } from 'swr';
 import { api, fetcher } from '@/lib/client/api';
 import type { CheckComment, ModelListRow, ModelRecord, TemplateId, VersionRecord, VersionSummary, WidgetRecord } from '@/lib/models/types';
 
@@ -69,7 +69,10 @@ export function useVersion(modelId: string, n: number | null) {
 }
 
 export async function checkVersion(versionId: string, body: { decision: 'sign_off' | 'send_back'; note: string; comments: CheckComment[] }) {
-  return (await api.post<{ version: VersionSummary }>(`/api/versions/${encodeURIComponent(versionId)}/check`, body)).version;
+  const v = (await api.post<{ version: VersionSummary }>(`/api/versions/${encodeURIComponent(versionId)}/check`, body)).version;
+  // The header's count of versions to check drops at once.
+  void mutateKey('/api/reviews/waiting');
+  return v;
 }
 
 export interface WidgetBody {

@@ -10,7 +10,9 @@ import { RangesChart } from '@/components/charts/ranges-chart';
 import { SpreadChart } from '@/components/charts/spread-chart';
 import { Term } from '@/components/ui/term';
 import { Figure, Figures, StatusMark } from './figures';
+import { AchievedCorrelations, StackCorrelationTerms } from './correlation-report';
 import { fv, limitsOf, outLabelsOf, outputFormat, ScatterPanel, outShareOf } from './shared';
+import { normalEstimateNote } from '@/lib/results/headline';
 
 const PPK_MIN = 1.33; // common practice, no source: the usual minimum for an established process
 
@@ -72,7 +74,7 @@ export function StackResults({ result }: { result: RunResult }) {
           value={mc.ppmObserved !== null ? formatPpm(mc.ppmObserved) : '—'}
           sub={mc.ppmObservedCi ? `95 % interval ${formatPpm(mc.ppmObservedCi.low)} to ${formatPpm(mc.ppmObservedCi.high)}` : undefined}
         />
-        <Figure label="Out of specification, normal estimate" value={mc.ppmNormal !== null ? formatPpm(mc.ppmNormal) : '—'} sub="From the mean and standard deviation, assuming a normal gap" />
+        <Figure label="Out of specification, normal estimate" value={mc.ppmNormal !== null ? formatPpm(mc.ppmNormal) : '—'} sub={normalEstimateNote(mc.ppmObserved, mc.ppmNormal) ?? 'Needs a limit and a spread'} />
         <Figure
           label={
             <>
@@ -91,7 +93,13 @@ export function StackResults({ result }: { result: RunResult }) {
         </h3>
         <div className="grid grid-cols-1 gap-2 sm:grid-cols-3">
           <MethodCard title="Worst case" range={`${f(a.worstCase.min)} to ${f(a.worstCase.max)}`} within={a.worstCaseWithinLimits} note="Every dimension at its worst limit at once" />
-          <MethodCard title="RSS" range={`${f(a.rss.min)} to ${f(a.rss.max)}`} within={a.rssWithinLimits} note={<span className="num">centre {f(a.rss.mean)} ± {f(a.rss.halfWidth)}</span>} />
+          <MethodCard title="RSS" range={`${f(a.rss.min)} to ${f(a.rss.max)}`} within={a.rssWithinLimits} note={
+              <>
+                <span className="num">centre {f(a.rss.mean)} ± {f(a.rss.halfWidth)}</span>
+                {a.correlated ? <span className="num block">with the correlation terms; ± {f(a.independent.rssHalfWidth)} without</span> : null}
+              </>
+            }
+          />
           <MethodCard
             title="Monte Carlo"
             range={mcLo !== null && mcHi !== null ? `${f(mcLo)} to ${f(mcHi)}` : '—'}
@@ -104,6 +112,8 @@ export function StackResults({ result }: { result: RunResult }) {
           />
         </div>
         <RangesChart name={gap.label} unit={unit} rows={rows} limits={limits} headingLevel="h4" />
+        <StackCorrelationTerms a={a} format={f} />
+        <AchievedCorrelations result={result} names={new Map(s.contributors.map((c) => [c.id, c.name]))} />
       </section>
 
       <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">

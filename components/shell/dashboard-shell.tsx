@@ -7,6 +7,7 @@ import { LogoMark } from '@/components/ui/logo';
 import { cx } from '@/components/ui/cx';
 import { SignOutButton } from '@/components/auth/sign-out-button';
 import { NavIconSvg, type NavIcon } from './nav-icons';
+import { ReviewCount } from './review-count';
 
 export interface NavItem {
   href: string;
@@ -23,6 +24,8 @@ export interface DashboardShellProps {
   nav: readonly NavItem[];
   /** A firm-wide notice above every page (e.g. the billing banner); renders nothing when empty. */
   notice?: ReactNode;
+  /** A checker sees the count of versions waiting for them in the header. */
+  showReviewCount?: boolean;
   children: ReactNode;
 }
 
@@ -30,7 +33,7 @@ export interface DashboardShellProps {
  * The signed-in frame: a dark ink rail on wide screens, a top bar with a Menu button below 1024 px.
  * The firm name is one element in both layouts.
  */
-export function DashboardShell({ firmName, userName, userEmail, roleLabel, nav, notice, children }: DashboardShellProps) {
+export function DashboardShell({ firmName, userName, userEmail, roleLabel, nav, notice, showReviewCount, children }: DashboardShellProps) {
   const pathname = usePathname();
   // The small-screen menu remembers the page it was opened on, so it closes by itself after navigating.
   const [openOn, setOpenOn] = useState<string | null>(null);
@@ -53,12 +56,17 @@ export function DashboardShell({ firmName, userName, userEmail, roleLabel, nav, 
               <span className="block truncate text-sm leading-tight font-semibold text-white lg:line-clamp-2 lg:whitespace-normal">{firmName}</span>
             </span>
           </Link>
+          {showReviewCount ? (
+            <span className="ml-auto lg:ml-0">
+              <ReviewCount />
+            </span>
+          ) : null}
           <button
             type="button"
             aria-expanded={open}
             aria-controls="dashboard-menu"
             onClick={() => setOpenOn(open ? null : pathname)}
-            className="ml-auto inline-flex h-9 items-center gap-1.5 rounded-md px-2.5 text-sm font-medium text-ink-100 ring-1 ring-ink-700 hover:bg-ink-800 lg:hidden"
+            className={cx(showReviewCount ? 'ml-2' : 'ml-auto', 'inline-flex h-9 items-center gap-1.5 rounded-md px-2.5 text-sm font-medium text-ink-100 ring-1 ring-ink-700 hover:bg-ink-800 lg:hidden')}
           >
             <svg aria-hidden="true" viewBox="0 0 16 16" className="h-4 w-4" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round">
               {open ? <path d="m4 4 8 8M12 4l-8 8" /> : <path d="M2.5 4.5h11M2.5 8h11M2.5 11.5h11" />}

@@ -40,6 +40,8 @@ export interface SpreadInput {
   markers?: readonly ValueMarker[];
   /** Trials behind the bins (defaults to the sum of counts); the y axis shows the share of trials. */
   total?: number;
+  /** What the counts are, plural: 'trials' for a simulation (default), 'measurements' for a dataset. */
+  noun?: string;
   width: number;
   /** Plot height without the label rows (default: 0.42 × width, between 180 and 300). */
   plotHeight?: number;
@@ -110,6 +112,8 @@ export interface SpreadGeometry {
   outShare: { below: number; above: number };
   name: string;
   unit: string | null;
+  /** What the bars count, plural ('trials', 'measurements'). */
+  noun: string;
 }
 
 const LABEL_SIZE = 11;
@@ -222,10 +226,11 @@ export function spreadGeometry(input: SpreadInput): SpreadGeometry {
     limits: limitLines,
     markers: markerLines,
     xAxis: linearAxis(x, xTickCount(innerWidth, unit), input.name, unit),
-    yAxis: percentAxis(y, yTickCount(box.innerHeight), 'Share of trials'),
+    yAxis: percentAxis(y, yTickCount(box.innerHeight), `Share of ${input.noun ?? 'trials'}`),
     outShare: { below, above },
     name: input.name,
     unit,
+    noun: input.noun ?? 'trials',
   };
 }
 
@@ -292,13 +297,13 @@ export function describeSpread(g: SpreadGeometry): string {
   const hi = g.bars[g.bars.length - 1].x1;
   const peak = g.bars.reduce((a, b) => (b.count > a.count ? b : a), g.bars[0]);
   const parts = [
-    `Histogram of ${g.name} from ${formatValue(lo, g.unit, { trim: true })} to ${formatValue(hi, g.unit, { trim: true })} in ${g.bars.length} bins; the most frequent bin is ${formatValue(peak.x0, g.unit, { trim: true })} to ${formatValue(peak.x1, g.unit, { trim: true })} with ${formatPercent(peak.fraction)} of trials.`,
+    `Histogram of ${g.name} from ${formatValue(lo, g.unit, { trim: true })} to ${formatValue(hi, g.unit, { trim: true })} in ${g.bars.length} bins; the most frequent bin is ${formatValue(peak.x0, g.unit, { trim: true })} to ${formatValue(peak.x1, g.unit, { trim: true })} with ${formatPercent(peak.fraction)} of ${g.noun}.`,
   ];
   for (const l of g.limits) parts.push(`${l.label.text}.`);
   if (g.limits.length) {
     const out = g.outShare.below + g.outShare.above;
     const share = out > 0 && out < 0.001 ? formatPpm(out * 1e6) : formatPercent(out);
-    parts.push(`${share.charAt(0).toUpperCase() + share.slice(1)} of trials fall beyond ${g.limits.length > 1 ? 'the limits' : 'the limit'} (hatched).`);
+    parts.push(`${share.charAt(0).toUpperCase() + share.slice(1)} of ${g.noun} fall beyond ${g.limits.length > 1 ? 'the limits' : 'the limit'} (hatched).`);
   }
   return parts.join(' ');
 }

@@ -30,14 +30,43 @@ export function readCsv(bytes: Uint8Array, fileName: string): CsvRead {
   if (bytes.length > MAX_UPLOAD_BYTES) {
     return { ok: false, message: `${fileName} is ${(bytes.length / 1024 / 1024).toFixed(1)} MB; the limit is 5 MB. Upload only the column you need.` };
   }
-  let text: string;
-  try {
-    if (bytes.includes(0)) throw new Error('NUL byte');
-    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-  } catch {
-    return { ok: false, message: `${fileName} is not a CSV text file (it holds binary data). Export the sheet as CSV and upload that.` };
+  const text = decodeText(bytes);
+  if (text === null) {
+    return { ok: false, message: `${fileName} is not a CSV text file (it holds binary data). Export the sheet as CSV (or as Unicode text) and upload that.` };
   }
-  return readCsvText(text.replace(/^\uFEFF/, ''), fileName);
+  return readCsvText(text, fileName);
+}
+
+/**
+ * The text of an upload: UTF-8 (with or without a byte-order mark), or UTF-16 as spreadsheets write it when a
+ * sheet is saved as "Unicode text" (little- or big-endian, told apart by the byte-order mark, or without a mark
+ * when every other byte of an ASCII-range text is zero). Null for anything else: a NUL byte in UTF-8 or bytes
+ * that do not decode mean binary data.
+ */
+export function decodeText(bytes: Uint8Array): string | null {
+  const utf16 = (label: 'utf-16le' | 'utf-16be', from: number) => {
+    if ((bytes.length - from) % 2 !== 0) return null;
+    try {
+      const t = new TextDecoder(label, { fatal: true }).decode(bytes.subarray(from));
+      return t.includes('\u0000') ? null : t;
+    } catch {
+      return null;
+    }
+  };
+  if (bytes[0] === 0xff && bytes[1] === 0xfe) return utf16('utf-16le', 2);
+  if (bytes[0] === 0xfe && bytes[1] === 0xff) return utf16('utf-16be', 2);
+  if (bytes.length >= 4 && bytes.length % 2 === 0) {
+    const head = bytes.subarray(0, Math.min(bytes.length, 512));
+    const zeroAt = (parity: number) => head.every((b, i) => (i % 2 === parity) === (b === 0));
+    if (zeroAt(1)) return utf16('utf-16le', 0);
+    if (zeroAt(0)) return utf16('utf-16be', 0);
+  }
+  if (bytes.includes(0)) return null;
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes).replace(/^\uFEFF/, '');
+  } catch {
+    return null;
+  }
 }
 
 /**
@@ -46,6 +75,9 @@ export function readCsv(bytes: Uint8Array, fileName: string): CsvRead {
  */
 function guessDelimiter(text: string): string {
   const first = text.split(/\r?\n/).find((l) => l.trim() !== '') ?? '';
+  const count = (c: string) => first.split(c).length - 1;
+  // "Unicode text" exports separate by tabs; a comma in a tab-separated header ("Length, mm") must not win.
+  if (count('\t') > 0 && count('\t') >= count(',')) return '\t';
   if (first.includes(',')) return '';
   if (first.includes(';')) return ';';
   if (first.includes('\t')) return '\t';

@@ -18,8 +18,8 @@ export interface DatasetChoice {
   source: DatasetProvenance;
 }
 
-/** The engine has no gamma law: a gamma fit is shown and compared but cannot feed a model directly. */
-export function lawToDistribution(law: Law, p: LawParams): Distribution | null {
+/** The fitted law as an engine distribution, parameters copied (the gamma fit's shape and scale are the engine's). */
+export function lawToDistribution(law: Law, p: LawParams): Distribution {
   switch (law) {
     case 'normal':
       return { type: 'normal', mean: p.mean, sd: p.sd };
@@ -32,7 +32,7 @@ export function lawToDistribution(law: Law, p: LawParams): Distribution | null {
     case 'uniform':
       return { type: 'uniform', min: p.min, max: p.max };
     case 'gamma':
-      return null;
+      return { type: 'gamma', shape: p.shape, scale: p.scale };
   }
 }
 
@@ -44,9 +44,8 @@ export function empiricalChoice(ds: { id: string; hash: string; name: string; va
   };
 }
 
-export function fittedChoice(ds: { id: string; hash: string; name: string; values: number[] }, law: Law, params: LawParams): DatasetChoice | null {
+export function fittedChoice(ds: { id: string; hash: string; name: string; values: number[] }, law: Law, params: LawParams): DatasetChoice {
   const distribution = lawToDistribution(law, params);
-  if (!distribution) return null;
   return {
     distribution,
     // A stack contributor fits its normal from the data itself ('normal-fit'); other laws enter a stack empirically.

@@ -20,6 +20,8 @@ export interface StackOptions {
   seed: boolean;
   extraEnv?: Record<string, string>;
   quiet?: boolean;
+  /** Extra Node.js flags for the `next start` process (e.g. --cpu-prof for a load benchmark). */
+  nodeArgs?: string[];
 }
 
 export interface Stack {
@@ -67,7 +69,7 @@ export async function startStack(o: StackOptions): Promise<Stack> {
   });
 
   // The preload stamps each request's socket address (lib/http/socket-peer.mjs), as `npm start` does.
-  const next = spawn(process.execPath, ['--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
+  const next = spawn(process.execPath, [...(o.nodeArgs ?? []), '--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
     env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
     stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });

@@ -37,8 +37,15 @@ export interface StackAnalysis {
   worstCase: { min: number; max: number };
   /** Root sum of squares: mean gap (mid-tolerances, shifts) +/- sqrt(sum of squared half tolerances). */
   rss: { mean: number; halfWidth: number; min: number; max: number };
-  /** Sum of independent contributions under the distribution assumptions (normal approximation). */
+  /**
+   * Sum of the contributions under the distribution assumptions (normal approximation). With correlated
+   * contributors both rss and statistical include the correlation terms; `independent` gives them without.
+   */
   statistical: { mean: number; sd: number; ppmNormal: number | null; pp: number | null; ppk: number | null };
+  /** True when the stack has a correlation matrix with a nonzero entry. */
+  correlated: boolean;
+  /** RSS half-width and standard deviation without the correlation terms (equal to rss/statistical when uncorrelated). */
+  independent: { rssHalfWidth: number; sd: number; ppmNormal: number | null; ppk: number | null };
   limits: { lower: number | null; upper: number | null };
   worstCaseWithinLimits: boolean;
   rssWithinLimits: boolean;
@@ -115,8 +122,35 @@ export function evaluateStack(model: LinearStackModel): StackAnalysis {
     sumVar += m.variance;
     return { c, half, mean: m.mean, sigma: Math.sqrt(m.variance) };
   });
-  const halfWidth = Math.sqrt(sumHalf2);
-  const sd = Math.sqrt(sumVar);
+  // Correlation terms: Var(Σ aᵢXᵢ) = Σ aᵢ²σᵢ² + 2 Σᵢ<ⱼ aᵢaⱼρᵢⱼσᵢσⱼ, the variance of a linear combination
+  // (e.g. Montgomery & Runger, Applied Statistics and Probability for Engineers, §5-4); the same weights on the
+  // half tolerances give the correlated RSS.
+  let crossVar = 0;
+  let crossHalf2 = 0;
+  let correlated = false;
+  const corr = model.correlation;
+  if (corr) {
+    const at = new Map(model.contributors.map((c, i) => [c.id, i]));
+    for (let a = 0; a < corr.inputs.length; a++)
+      for (let b = a + 1; b < corr.inputs.length; b++) {
+        const i = at.get(corr.inputs[a]);
+        const j = at.get(corr.inputs[b]);
+        const rho = corr.matrix[a]?.[b] ?? 0;
+        if (i === undefined || j === undefined || rho === 0) continue;
+        correlated = true;
+        const ri = rows[i];
+        const rj = rows[j];
+        const sign = ri.c.direction * rj.c.direction;
+        crossVar += 2 * sign * rho * ri.sigma * rj.sigma;
+        crossHalf2 += 2 * sign * rho * ri.half * rj.half;
+      }
+  }
+  const indepHalfWidth = Math.sqrt(sumHalf2);
+  const indepSd = Math.sqrt(sumVar);
+  const indepCap = capability(statMean, indepSd, lower, upper);
+  const halfWidth = Math.sqrt(Math.max(0, sumHalf2 + crossHalf2));
+  const totalVar = Math.max(0, sumVar + crossVar);
+  const sd = Math.sqrt(totalVar);
   const cap = capability(statMean, sd, lower, upper);
   const within = (a: number, b: number) => (lower === null || a >= lower) && (upper === null || b <= upper);
   return {
@@ -125,6 +159,8 @@ export function evaluateStack(model: LinearStackModel): StackAnalysis {
     worstCase: { min: wcMin, max: wcMax },
     rss: { mean: rssMean, halfWidth, min: rssMean - halfWidth, max: rssMean + halfWidth },
     statistical: { mean: statMean, sd, ppmNormal: cap.ppmNormal, pp: cap.pp, ppk: cap.ppk },
+    correlated,
+    independent: { rssHalfWidth: indepHalfWidth, sd: indepSd, ppmNormal: indepCap.ppmNormal, ppk: indepCap.ppk },
     limits: { lower, upper },
     worstCaseWithinLimits: within(wcMin, wcMax),
     rssWithinLimits: within(rssMean - halfWidth, rssMean + halfWidth),

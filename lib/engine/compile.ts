@@ -58,10 +58,12 @@ export function compilePlan(model: StochosModel, variables: Record<string, numbe
         streamId: c.id,
         spec: contributorDistribution(c),
       }));
+      // Correlated contributors go through the same Gaussian copula (or Iman–Conover) as formula inputs.
+      const groups: PlanGroup[] = model.correlation ? [{ ids: model.correlation.inputs, matrix: model.correlation.matrix }] : [];
       return {
         inputs,
         derived: [],
-        groups: [],
+        groups,
         outputs: [
           {
             id: 'gap',

@@ -49,8 +49,8 @@ export class CopulaGroupSampler {
   private readonly acc = new Float64Array(BLOCK);
   private readonly q = new Float64Array(BLOCK);
 
-  constructor(marginals: Marginal[], matrix: number[][], ctx: SamplerContext, streamIds: string[]) {
-    const root = symmetricSqrt(matrix);
+  /** root: the symmetric square root of matrix when the caller has it (one decomposition per run, not per chunk). */
+  constructor(marginals: Marginal[], matrix: number[][], ctx: SamplerContext, streamIds: string[], root: number[][] = symmetricSqrt(matrix)) {
     // A normal member's value is mu + sigma (S z), so sigma folds into its row of S.
     this.rows = marginals.map((m, i) => {
       const aff = m.affine;
@@ -73,8 +73,11 @@ export class CopulaGroupSampler {
     return this.scores[0]?.method ?? 'box-muller';
   }
 
-  /** Fill each member's column over [start, start + count). */
-  fill(columns: Float64Array[], start: number, count: number): void {
+  /**
+   * Fill each member's column over [start, start + count); a null column is skipped (its
+   * scores are still drawn, so the other members get exactly the values they would).
+   */
+  fill(columns: (Float64Array | null)[], start: number, count: number): void {
     const accBuf = this.acc;
     const qb = this.q;
     const Z = this.z;
@@ -87,6 +90,7 @@ export class CopulaGroupSampler {
         const { js, cs } = row;
         // Normal members accumulate straight into their column; the others into a buffer.
         const out = columns[i];
+        if (!out) continue;
         const direct = row.mode === 'normal';
         const acc = direct ? out.subarray(base, base + c) : accBuf;
         acc.fill(row.a, 0, c);
@@ -128,8 +132,11 @@ export class CopulaGroupSampler {
 /**
  * Reorder the columns in place (Iman & Conover 1982) so their rank correlation follows
  * the target matrix. Each member's random score permutation comes from its own stream.
+ * Inside a run this is applied per chunk: the columns are the chunk's trials and the
+ * permutation streams are keyed by the chunk index, so the reordering of chunk k is the
+ * same whichever thread runs it (and needs no other chunk).
  */
-export function imanConover(columns: Float64Array[], target: number[][], seed: string | number, streamIds: string[]): void {
+export function imanConover(columns: Float64Array[], target: number[][], seed: string | number, streamIds: string[], chunk?: number): void {
   const k = columns.length;
   const n = columns[0]?.length ?? 0;
   if (k < 2 || n < 3) return;
@@ -140,7 +147,7 @@ export function imanConover(columns: Float64Array[], target: number[][], seed: s
     a[i] = normalQuantilePQ(p, 1 - p);
   }
   const R: Float64Array[] = streamIds.map((id) => {
-    const st = Stream.forInput(seed, id, 'iman-conover');
+    const st = Stream.forInput(seed, id, 'iman-conover', chunk);
     const r = Float64Array.from(a);
     for (let i = n - 1; i > 0; i--) {
       const j = st.nextBelow(i + 1);

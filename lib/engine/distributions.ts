@@ -7,6 +7,7 @@
  */
 import * as special from './special';
 import * as detMath from './det-math';
+import { gammaMoments, regGammaPQ, standardGammaInverse } from './gamma';
 
 // Bound once (see det-math): hot loops call these per sample.
 const { gamma, lbeta, normalCdfPair, normalCdfPairUpper, normalPdf, normalQuantilePQ, regIncBeta } = special;
@@ -23,6 +24,7 @@ export type DistributionSpec =
   | { type: 'lognormal'; mu: number; sigma: number; min?: number; max?: number }
   | { type: 'exponential'; rate: number }
   | { type: 'weibull'; shape: number; scale: number }
+  | { type: 'gamma'; shape: number; scale: number }
   | { type: 'discrete'; values: number[]; probabilities: number[] }
   | { type: 'bernoulli'; p: number }
   | { type: 'empirical'; data: number[] }
@@ -444,6 +446,23 @@ function weibull(k: number, lambda: number, spec: DistributionSpec): Marginal {
   };
 }
 
+/** Gamma(shape k, scale θ) by its inverse CDF (lib/engine/gamma.ts). */
+function gammaLaw(k: number, theta: number, spec: DistributionSpec): Marginal {
+  const { mean, variance } = gammaMoments(k, theta);
+  return {
+    spec,
+    lower: 0,
+    upper: Infinity,
+    mean,
+    variance,
+    natural: 'inverse-cdf',
+    envelope: null,
+    inv: (p, q) => theta * standardGammaInverse(k, p, q),
+    cdf: (x) => (x <= 0 ? 0 : regGammaPQ(k, x / theta)[0]),
+    fromZ: null,
+  };
+}
+
 function discrete(values: number[], probabilities: number[], spec: DistributionSpec): Marginal {
   // Sort by value so the inverse CDF is monotone (needed by copula and LHS).
   const order = values.map((_, i) => i).sort((i, j) => values[i] - values[j]);
@@ -692,6 +711,12 @@ export function fillInverse(m: Marginal, p: Float64Array, q: Float64Array | null
         out[k] = inv(pk, q ? q[k] : 1 - pk);
       }
       return;
+    case 'gamma':
+      for (let k = start; k < end; k++) {
+        const pk = p[k];
+        out[k] = inv(pk, q ? q[k] : 1 - pk);
+      }
+      return;
     case 'discrete':
       for (let k = start; k < end; k++) {
         const pk = p[k];
@@ -738,6 +763,8 @@ export function createMarginal(spec: DistributionSpec): Marginal {
       return exponential(spec.rate, spec);
     case 'weibull':
       return weibull(spec.shape, spec.scale, spec);
+    case 'gamma':
+      return gammaLaw(spec.shape, spec.scale, spec);
     case 'discrete':
       return discrete(spec.values, spec.probabilities, spec);
     case 'bernoulli':

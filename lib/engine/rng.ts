@@ -14,7 +14,7 @@
  */
 import xor4096 from 'seedrandom/lib/xor4096';
 
-export const RNG_NAME = 'xor4096 (seedrandom 3.0.5), one sub-stream per input';
+export const RNG_NAME = 'xor4096 (seedrandom 3.0.5), one sub-stream per input and chunk';
 
 const TWO_M32 = 2.3283064365386963e-10; // 2^-32
 
@@ -28,9 +28,14 @@ export function uniformOpenClosed(int32: number): number {
   return ((int32 >>> 0) + 1) * TWO_M32;
 }
 
-/** Sub-stream key: run seed and the input's stable id (plus a purpose tag). */
-export function streamKey(seed: string | number, id: string, purpose = ''): string {
-  return `stochos/1|${String(seed)}|${id}|${purpose}`;
+/**
+ * Sub-stream key: run seed, the input's stable id, a purpose tag and, inside a run, the
+ * chunk index (a run is cut into fixed-size chunks; see chunks.ts), so any thread can
+ * produce chunk k of any input without drawing the chunks before it.
+ */
+export function streamKey(seed: string | number, id: string, purpose = '', chunk?: number): string {
+  const base = `stochos/1|${String(seed)}|${id}|${purpose}`;
+  return chunk === undefined ? base : `${base}|chunk ${chunk}`;
 }
 
 /**
@@ -80,8 +85,8 @@ export class Stream {
     this.pos = this.buf.length;
   }
 
-  static forInput(seed: string | number, id: string, purpose = ''): Stream {
-    return new Stream(streamKey(seed, id, purpose));
+  static forInput(seed: string | number, id: string, purpose = '', chunk?: number): Stream {
+    return new Stream(streamKey(seed, id, purpose, chunk));
   }
 
   /** Refill the buffer: the xor4096 recurrence, exactly as seedrandom's next(). */

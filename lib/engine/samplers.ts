@@ -117,14 +117,19 @@ export interface SamplerContext {
   seed: string | number;
   design: Design;
   normalMethod: NormalMethod;
+  /** Trials this sampler fills: the chunk's length inside a run (the Latin hypercube's n). */
   trials: number;
+  /** Chunk index inside a run: part of every stream key (absent for stand-alone samplers). */
+  chunk?: number;
 }
 
 /** The uniform source of one input: its main stream, stratified under Latin hypercube. */
 export function uniformSourceFor(ctx: SamplerContext, streamId: string): UniformSource {
-  const main = Stream.forInput(ctx.seed, streamId);
+  const main = Stream.forInput(ctx.seed, streamId, '', ctx.chunk);
   if (ctx.design === 'latin-hypercube') {
-    return new LatinHypercubeUniforms(ctx.trials, Stream.forInput(ctx.seed, streamId, 'lhs-permutation'), main);
+    // Strata per chunk: each chunk is a Latin hypercube of its own trials (n = the chunk's
+    // length, permutation from a chunk-keyed stream), so a chunk never depends on another.
+    return new LatinHypercubeUniforms(ctx.trials, Stream.forInput(ctx.seed, streamId, 'lhs-permutation', ctx.chunk), main);
   }
   return new StreamUniforms(main);
 }
@@ -132,7 +137,7 @@ export function uniformSourceFor(ctx: SamplerContext, streamId: string): Uniform
 /** Standard normal scores for one input (generator under Monte Carlo, inverse CDF under LHS). */
 export function scoreSourceFor(ctx: SamplerContext, streamId: string): ScoreSource {
   if (ctx.design === 'latin-hypercube') return new InverseScores(uniformSourceFor(ctx, streamId));
-  return new GeneratorScores(createNormalGenerator(ctx.normalMethod, Stream.forInput(ctx.seed, streamId)));
+  return new GeneratorScores(createNormalGenerator(ctx.normalMethod, Stream.forInput(ctx.seed, streamId, '', ctx.chunk)));
 }
 
 // ---------------------------------------------------------------------------------------
@@ -355,7 +360,7 @@ export function createColumnSampler(marginal: Marginal, ctx: SamplerContext, str
       return new ScoreSampler(marginal.fromZ, scoreSourceFor(ctx, streamId));
     }
     if (marginal.natural === 'rejection' && marginal.envelope) {
-      return new RejectionSampler(marginal.envelope, Stream.forInput(ctx.seed, streamId), label);
+      return new RejectionSampler(marginal.envelope, Stream.forInput(ctx.seed, streamId, '', ctx.chunk), label);
     }
   }
   return new InverseCdfSampler(marginal, uniformSourceFor(ctx, streamId));

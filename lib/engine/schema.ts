@@ -145,6 +145,8 @@ const exponentialDist = z.object({ type: z.literal('exponential'), rate: positiv
 
 const weibullDist = z.object({ type: z.literal('weibull'), shape: positive('The shape'), scale: positive('The scale') });
 
+const gammaDist = z.object({ type: z.literal('gamma'), shape: positive('The shape'), scale: positive('The scale') });
+
 const discreteDist = z
   .object({
     type: z.literal('discrete'),
@@ -188,8 +190,8 @@ const drawnDist = z
 
 export const distributionSchema = z.discriminatedUnion(
   'type',
-  [constantDist, uniformDist, triangularDist, pertDist, normalDist, lognormalDist, exponentialDist, weibullDist, discreteDist, bernoulliDist, empiricalDist, drawnDist],
-  { error: 'Choose a distribution type: constant, uniform, triangular, pert, normal, lognormal, exponential, weibull, discrete, bernoulli, empirical or drawn.' },
+  [constantDist, uniformDist, triangularDist, pertDist, normalDist, lognormalDist, exponentialDist, weibullDist, gammaDist, discreteDist, bernoulliDist, empiricalDist, drawnDist],
+  { error: 'Choose a distribution type: constant, uniform, triangular, pert, normal, lognormal, exponential, weibull, gamma, discrete, bernoulli, empirical or drawn.' },
 );
 
 /** Numeric parameters a dial may move, per distribution type. */
@@ -202,6 +204,7 @@ export const DISTRIBUTION_PARAMS: Record<string, string[]> = {
   lognormal: ['mu', 'sigma', 'min', 'max'],
   exponential: ['rate'],
   weibull: ['shape', 'scale'],
+  gamma: ['shape', 'scale'],
   discrete: [],
   bernoulli: ['p'],
   empirical: [],
@@ -309,11 +312,19 @@ const limitsSchema = z
     if (l.lower !== undefined && l.upper !== undefined) rangeCheck(ctx, l.lower, l.upper, 'lower', 'upper', 'lower limit', 'upper limit');
   });
 
+/** Correlated inputs (formula) or contributors (stack): the ids in the matrix and the matrix itself. */
+export const correlationSpecSchema = z.object({
+  inputs: z.array(idSchema).refine((v) => v.length >= 2, { error: 'Correlate at least two inputs.' }),
+  matrix: z.array(z.array(num('Each correlation'))),
+});
+
 export const linearStackSchema = z.object({
   ...common,
   template: z.literal('linear-stack'),
   unit: z.string().max(24).default('mm'),
   contributors: z.array(contributorSchema).min(1, 'Add at least one contributor.').max(200, 'At most 200 contributors.'),
+  /** Contributors made on one machine or from one batch: their correlation matrix (ids are contributor ids). */
+  correlation: correlationSpecSchema.optional(),
   limits: limitsSchema.refine((l) => l.lower !== undefined || l.upper !== undefined, { error: 'Give a lower and/or an upper limit for the gap.' }),
 });
 
@@ -389,11 +400,6 @@ export const formulaOutputSchema = z
   .superRefine((o, ctx) => {
     if (o.lower !== undefined && o.upper !== undefined) rangeCheck(ctx, o.lower, o.upper, 'lower', 'upper', 'lower limit', 'upper limit');
   });
-
-export const correlationSpecSchema = z.object({
-  inputs: z.array(idSchema).refine((v) => v.length >= 2, { error: 'Correlate at least two inputs.' }),
-  matrix: z.array(z.array(num('Each correlation'))),
-});
 
 export const formulaModelSchema = z.object({
   ...common,
@@ -502,7 +508,7 @@ export function resolveDialTarget(model: StochosModel, target: DialTarget, dialI
       return g < 0 ? `No correlation group has the id '${target.groupId}'.` : { path: ['correlationGroups', g, 'rho'] };
     }
     case 'correlation': {
-      if (model.template !== 'formula') return 'Only a formula model has a correlation matrix.';
+      if (model.template !== 'formula' && model.template !== 'linear-stack') return 'Only a formula model or a linear stack has a correlation matrix.';
       const ids = model.correlation?.inputs ?? [];
       const a = ids.indexOf(target.a);
       const b = ids.indexOf(target.b);
@@ -551,6 +557,7 @@ export function semanticIssues(model: StochosModel): ModelIssue[] {
 
   if (model.template === 'cost-range') costIssues(model, issues);
   if (model.template === 'formula') formulaIssues(model, issues);
+  if (model.template === 'linear-stack') correlationIssues((model.contributors ?? []).map((x) => x?.id).filter((x): x is string => typeof x === 'string'), model.correlation, issues, 'contributor');
 
   (model.dials ?? []).forEach((dial, i) => {
     if (!dial || !dial.target) return;
@@ -634,21 +641,26 @@ function formulaIssues(model: FormulaModel, issues: ModelIssue[]): void {
     }
     if (typeof o.id === 'string') earlier.push(o.id);
   });
-  const corr = model.correlation;
-  if (corr && Array.isArray(corr.inputs) && Array.isArray(corr.matrix)) {
-    const seen = new Set<string>();
-    corr.inputs.forEach((id, j) => {
-      if (!inputIds.includes(id)) issues.push({ path: ['correlation', 'inputs', j], message: `No input has the id '${id}'.` });
-      if (seen.has(id)) issues.push({ path: ['correlation', 'inputs', j], message: `'${id}' is listed twice.` });
-      seen.add(id);
-    });
-    const n = corr.inputs.length;
-    if (corr.matrix.length !== n || corr.matrix.some((r) => !Array.isArray(r) || r.length !== n)) {
-      issues.push({ path: ['correlation', 'matrix'], message: `The correlation matrix must be ${n} by ${n}, one row and column per listed input.` });
-    } else {
-      const check = checkCorrelation(corr.matrix);
-      for (const iss of check.issues) issues.push({ path: ['correlation', 'matrix', ...iss.path], message: iss.message });
-    }
+  correlationIssues(inputIds, model.correlation, issues, 'input');
+}
+
+/** The correlation matrix's rules: listed ids exist once each, the matrix is square, a valid correlation matrix. */
+function correlationIssues(ids: string[], corr: { inputs?: unknown; matrix?: unknown } | undefined, issues: ModelIssue[], noun: 'input' | 'contributor'): void {
+  if (!corr || !Array.isArray(corr.inputs) || !Array.isArray(corr.matrix)) return;
+  const listed = corr.inputs as string[];
+  const matrix = corr.matrix as number[][];
+  const seen = new Set<string>();
+  listed.forEach((id, j) => {
+    if (!ids.includes(id)) issues.push({ path: ['correlation', 'inputs', j], message: `No ${noun} has the id '${id}'.` });
+    if (seen.has(id)) issues.push({ path: ['correlation', 'inputs', j], message: `'${id}' is listed twice.` });
+    seen.add(id);
+  });
+  const n = listed.length;
+  if (matrix.length !== n || matrix.some((r) => !Array.isArray(r) || r.length !== n)) {
+    issues.push({ path: ['correlation', 'matrix'], message: `The correlation matrix must be ${n} by ${n}, one row and column per listed ${noun}.` });
+  } else {
+    const check = checkCorrelation(matrix);
+    for (const iss of check.issues) issues.push({ path: ['correlation', 'matrix', ...iss.path], message: iss.message });
   }
 }
 

@@ -1,22 +1,20 @@
 /**
  * The simulator: validated model + dial values + seed + trial count -> RunResult.
  *
- * A Simulation advances in steps of any size; every input column is filled from its own
- * stream in trial order, so the numbers do not depend on how the run is chunked (a browser
- * worker and the server give bit-identical results).
+ * A run is cut into fixed-size chunks (chunks.ts) that any thread can run; the parts are
+ * merged here in chunk order, so one thread, a pool of web workers or a server pool give
+ * bit-identical results.
  */
 import { evaluateCost, evaluateStack, type CostAnalysis, type StackAnalysis } from './analytic';
-import { compilePlan, type Plan } from './compile';
-import { achievedCorrelation, CopulaGroupSampler, imanConover, type AchievedCorrelation } from './correlation';
-import { applyDials } from './dials';
-import { createMarginal, type DistributionType, type Marginal } from './distributions';
-import { ModelValidationError, RunCancelledError } from './errors';
-import { compileFormula, type CompiledFormula } from './formula';
+import { CHUNK_SIZE, ChunkRunner, EMPTY_MOMENTS, inputWindow, mergeMoments, prepareRun, type ChunkPart, type Moments, type PreparedRun } from './chunks';
+import { achievedCorrelation, type AchievedCorrelation } from './correlation';
+import type { DistributionType, Marginal } from './distributions';
+import { RunCancelledError } from './errors';
 import type { NormalMethod } from './normal-gen';
 import { RNG_NAME } from './rng';
-import { createColumnSampler, type ColumnSampler, type Design, type SamplerContext, type SamplingReport } from './samplers';
-import { validateModel, type StochosModel, type Template } from './schema';
-import { fractionAtOrBelow, meanVariance, PERCENTILE_DEFINITION, percentileEstimates, RankCache, type PercentileEstimate } from './stats';
+import { createColumnSampler, type Design, type SamplingReport } from './samplers';
+import type { Template } from './schema';
+import { fractionAtOrBelow, PERCENTILE_DEFINITION, percentileEstimates, RankCache, RankStore, type PercentileEstimate } from './stats';
 import {
   DEFAULT_ECDF_POINTS,
   DEFAULT_HISTOGRAM_BINS,
@@ -28,9 +26,10 @@ import {
   type ProbabilityEstimate,
 } from './summary';
 
-export const ENGINE_VERSION = 'stochos-engine/1';
+export const ENGINE_VERSION = 'stochos-engine/2';
 
 export type SampleSelection = 'none' | 'outputs' | 'all';
+export { inputWindow };
 
 export interface RunOptions {
   /** Dial values by dial id; missing dials take their default. */
@@ -53,7 +52,7 @@ export interface Progress {
 export interface AsyncRunOptions extends RunOptions {
   onProgress?: (p: Progress) => void;
   signal?: AbortSignal;
-  /** Trials per step; by default steps are sized to take about 15 ms. */
+  /** Trials per step, rounded up to whole chunks (default: one chunk per step). */
   chunkSize?: number;
   /** Minimum time between progress callbacks (default 50 ms). */
   progressIntervalMs?: number;
@@ -144,287 +143,305 @@ export interface RunResult {
 
 const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
-interface GroupRun {
-  ids: string[];
-  matrix: number[][];
-  method: 'gaussian-copula' | 'iman-conover';
-  copula: CopulaGroupSampler | null;
+/** Caches a thread keeps between runs so a dial move redoes only what changed. */
+export interface MergeCaches {
+  ranks?: RankStore;
 }
 
+/**
+ * Merge the parts of every chunk of a run (in any order; they are merged in chunk order)
+ * into the run's result. The parts must include the input columns of the window given by
+ * inputWindow(prep, options.samples).
+ */
+export function mergeParts(prep: PreparedRun, parts: ChunkPart[], options: RunOptions = {}, caches: MergeCaches = {}): RunResult {
+  const t0 = now();
+  const n = prep.settings.trials;
+  const byIndex: ChunkPart[] = new Array(prep.chunkCount);
+  for (const p of parts) byIndex[p.index] = p;
+  for (let k = 0; k < prep.chunkCount; k++) if (!byIndex[k]) throw new Error(`Chunk ${k} of ${prep.chunkCount} is missing from the merge.`);
+  const ordered = byIndex;
+  const samplingMs = ordered.reduce((s, p) => s + p.ms, 0);
+
+  // Output columns in trial order, and their moments merged in chunk order.
+  const outCols = new Map<string, Float64Array>();
+  const outMoments = new Map<string, Moments>();
+  for (const o of prep.plan.outputs) {
+    const col = new Float64Array(n);
+    let m: Moments = EMPTY_MOMENTS;
+    for (const p of ordered) {
+      col.set(p.outputs[o.id], p.start);
+      m = mergeMoments(m, p.outputMoments[o.id]);
+    }
+    outCols.set(o.id, col);
+    outMoments.set(o.id, m);
+  }
+  // Input and derived columns over the window the statistics need.
+  const window = inputWindow(prep, options.samples);
+  const inCols = new Map<string, Float64Array>();
+  for (const id of [...prep.plan.inputs.map((i) => i.id), ...prep.plan.derived.map((d) => d.id)]) {
+    const col = new Float64Array(window);
+    for (const p of ordered) {
+      if (p.start >= window) break;
+      const part = p.inputs[id];
+      if (!part) throw new Error(`Chunk ${p.index} did not return the column '${id}' the merge needs.`);
+      col.set(part.subarray(0, Math.min(p.count, window - p.start)), p.start);
+    }
+    inCols.set(id, col);
+  }
+  const inMoments = new Map<string, Moments>();
+  for (const inp of prep.plan.inputs) {
+    let m: Moments = EMPTY_MOMENTS;
+    for (const p of ordered) m = mergeMoments(m, p.inputMoments[inp.id]);
+    inMoments.set(inp.id, m);
+  }
+  const rejection = new Map<string, { attempts: number; accepted: number }>();
+  for (const p of ordered) {
+    for (const [id, r] of Object.entries(p.rejection)) {
+      const acc = rejection.get(id) ?? { attempts: 0, accepted: 0 };
+      acc.attempts += r.attempts;
+      acc.accepted += r.accepted;
+      rejection.set(id, acc);
+    }
+  }
+  const mergeMs = now() - t0;
+  const t1 = now();
+  const result = summarize(prep, options, outCols, outMoments, inCols, inMoments, rejection, caches);
+  const t2 = now();
+  result.timing = { samplingMs: samplingMs + mergeMs, statisticsMs: t2 - t1, totalMs: samplingMs + (t2 - t0) };
+  return result;
+}
+
+/**
+ * Merge chunk parts produced by runChunks (on any threads) into the run's result: the
+ * same model, dial values, seed and trial count as the chunks were run with.
+ */
+export function mergeChunks(
+  model: unknown,
+  dialValues: Record<string, number> | undefined,
+  seed: string | number | null | undefined,
+  trials: number | null | undefined,
+  parts: ChunkPart[],
+  options: RunOptions = {},
+): RunResult {
+  return mergeParts(prepareRun(model, dialValues, seed, trials), parts, { ...options, dialValues });
+}
+
+function summarize(
+  prep: PreparedRun,
+  opts: RunOptions,
+  outCols: Map<string, Float64Array>,
+  outMoments: Map<string, Moments>,
+  inCols: Map<string, Float64Array>,
+  inMoments: Map<string, Moments>,
+  rejection: Map<string, { attempts: number; accepted: number }>,
+  caches: MergeCaches,
+): RunResult {
+  const model = prep.model;
+  const plan = prep.plan;
+  const warnings = [...prep.warnings];
+  const levels = new Set<number>([...DEFAULT_PERCENTILES, ...(opts.percentiles ?? []).filter((p) => p > 0 && p < 1)]);
+  if (model.template === 'cost-range') levels.add(model.confidence);
+  const percentiles = [...levels].sort((a, b) => a - b);
+  const rankCache = new RankCache(caches.ranks ?? null);
+  for (const [id, col] of inCols) if (prep.signatures[id]) rankCache.name(col, prep.signatures[id]);
+  const driverCols = plan.drivers.map((d) => ({ id: d.id, label: d.label, column: inCols.get(d.id) as Float64Array }));
+  const sortedById = new Map<string, Float64Array>();
+  const outputs = plan.outputs.map((o) => {
+    const m = outMoments.get(o.id) as Moments;
+    const { summary, sorted } = summarizeOutput(o.id, o.label, o.unit, outCols.get(o.id) as Float64Array, {
+      percentiles,
+      histogramBins: opts.histogramBins ?? DEFAULT_HISTOGRAM_BINS,
+      ecdfPoints: opts.ecdfPoints ?? DEFAULT_ECDF_POINTS,
+      lower: o.lower,
+      upper: o.upper,
+      capability: model.template !== 'cost-range',
+      drivers: driverCols,
+      rankCache,
+      moments: { n: m.n, mean: m.mean, variance: m.n > 1 ? m.m2 / (m.n - 1) : NaN },
+    });
+    sortedById.set(o.id, sorted);
+    if (summary.invalid.total > 0) warnings.push(`Output '${o.label}': ${summary.invalid.total} of ${summary.trials} trials gave NaN or an infinite value and are excluded from its statistics.`);
+    return summary;
+  });
+
+  const groupOf = new Map<string, 'gaussian-copula' | 'iman-conover'>();
+  for (const u of prep.units) if (u.kind !== 'single') for (const id of u.ids) groupOf.set(id, u.kind === 'copula' ? 'gaussian-copula' : 'iman-conover');
+  const s = prep.settings;
+  const ctx = { seed: s.seed, design: s.design, normalMethod: s.normalMethod, trials: Math.min(s.trials, CHUNK_SIZE), chunk: 0 };
+  const inputs: InputReport[] = plan.inputs.map((inp) => {
+    const w = inMoments.get(inp.id) as Moments;
+    const m = prep.marginals.get(inp.id) as Marginal;
+    const corr = groupOf.get(inp.id) ?? null;
+    let sampling: SamplingReport;
+    if (corr === 'gaussian-copula') sampling = { method: 'gaussian-copula', scores: s.design === 'latin-hypercube' ? 'inverse-cdf' : s.normalMethod };
+    else {
+      const method = createColumnSampler(m, ctx, inp.streamId, inp.id).method;
+      const r = rejection.get(inp.id);
+      sampling =
+        method === 'rejection' && r && m.envelope
+          ? { method, attempts: r.attempts, accepted: r.accepted, acceptanceRate: r.attempts > 0 ? r.accepted / r.attempts : 0, expectedAcceptance: m.envelope.expectedAcceptance }
+          : { method };
+    }
+    return {
+      id: inp.id,
+      label: inp.label,
+      unit: inp.unit,
+      distribution: inp.spec.type,
+      sampling,
+      correlated: corr,
+      mean: w.n > 0 ? w.mean : NaN,
+      sd: Math.sqrt(w.n > 1 ? w.m2 / (w.n - 1) : NaN),
+      analyticMean: Number.isFinite(m.mean) ? m.mean : null,
+      analyticSd: Number.isFinite(m.variance) ? Math.sqrt(m.variance) : null,
+    };
+  });
+
+  const correlation = plan.groups.map((g) => {
+    const method = groupOf.get(g.ids[0]) === 'iman-conover' ? 'iman-conover' : 'copula';
+    return achievedCorrelation(
+      g.ids,
+      g.ids.map((id) => inCols.get(id) as Float64Array),
+      g.matrix,
+      method,
+      RANK_TRIAL_LIMIT,
+      rankCache,
+    );
+  });
+
+  let stack: StackResult | null = null;
+  let cost: CostResult | null = null;
+  if (model.template === 'linear-stack') {
+    const analytic = evaluateStack(model);
+    const gap = outputs[0];
+    const byId = new Map<string, DriverItem>(gap.drivers.items.map((d) => [d.id, d]));
+    stack = {
+      analytic,
+      monteCarlo: {
+        mean: gap.mean,
+        sd: gap.sd,
+        ppmObserved: gap.limits?.ppmObserved ?? null,
+        ppmObservedCi: gap.limits?.ppmObservedCi ?? null,
+        ppmNormal: gap.limits?.ppmNormal ?? null,
+        pp: gap.limits?.pp ?? null,
+        ppk: gap.limits?.ppk ?? null,
+      },
+      contributors: analytic.contributors
+        .map((c) => ({
+          id: c.id,
+          name: c.name,
+          sigma: c.sigma,
+          analyticShare: c.varianceShare,
+          spearman: byId.get(c.id)?.spearman ?? 0,
+          monteCarloShare: byId.get(c.id)?.share ?? 0,
+        }))
+        .sort((a, b) => b.analyticShare - a.analyticShare || (a.id < b.id ? -1 : 1)),
+    };
+  }
+  if (model.template === 'cost-range') {
+    const analytic = evaluateCost(model);
+    const total = outputs[0];
+    const sorted = sortedById.get('total') as Float64Array;
+    const [at, p10, p50, p80, p90] = percentileEstimates(sorted, [model.confidence, 0.1, 0.5, 0.8, 0.9]);
+    cost = {
+      analytic,
+      confidence: model.confidence,
+      atConfidence: at,
+      contingency: at.value - analytic.baseEstimate,
+      contingencyShareOfBase: analytic.baseEstimate !== 0 ? (at.value - analytic.baseEstimate) / analytic.baseEstimate : null,
+      p10: p10.value,
+      p50: p50.value,
+      p80: p80.value,
+      p90: p90.value,
+      exceedBudget: total.limits?.above ?? null,
+      sumMostLikelyRank: fractionAtOrBelow(sorted, analytic.sumMostLikely),
+      baseEstimateRank: fractionAtOrBelow(sorted, analytic.baseEstimate),
+    };
+  }
+
+  let samples: RunResult['samples'] = null;
+  const sel = opts.samples ?? 'none';
+  if (sel !== 'none') {
+    samples = { outputs: {}, inputs: {} };
+    for (const o of plan.outputs) samples.outputs[o.id] = outCols.get(o.id) as Float64Array;
+    if (sel === 'all') {
+      for (const i of plan.inputs) samples.inputs[i.id] = inCols.get(i.id) as Float64Array;
+      for (const d of plan.derived) samples.inputs[d.id] = inCols.get(d.id) as Float64Array;
+    }
+  }
+
+  return {
+    engine: ENGINE_VERSION,
+    template: model.template,
+    title: model.title,
+    run: {
+      trials: s.trials,
+      seed: s.seed,
+      design: s.design,
+      normalMethod: s.normalMethod,
+      correlationMethod: s.correlationMethod,
+      rng: RNG_NAME,
+      percentileDefinition: PERCENTILE_DEFINITION.id,
+      dialValues: prep.dialValues,
+    },
+    inputs,
+    correlation,
+    outputs,
+    stack,
+    cost,
+    warnings,
+    samples,
+    timing: { samplingMs: 0, statisticsMs: 0, totalMs: 0 },
+  };
+}
+
+/**
+ * A run on one thread, chunk by chunk: step() runs whole chunks, finish() merges them.
+ * Gives exactly the numbers a pool gives for the same model, dials, seed and trials.
+ */
 export class Simulation {
   readonly total: number;
   done = 0;
-  readonly model: StochosModel;
-  readonly plan: Plan;
-  readonly dialValues: Record<string, number>;
+  readonly prep: PreparedRun;
   private readonly options: RunOptions;
-  private readonly ctx: SamplerContext;
-  private readonly columns = new Map<string, Float64Array>();
-  private readonly marginals = new Map<string, Marginal>();
-  private readonly samplers: { id: string; sampler: ColumnSampler }[] = [];
-  private readonly groups: GroupRun[] = [];
-  private readonly derived: { id: string; f: CompiledFormula }[] = [];
-  private readonly outputs: { id: string; f: CompiledFormula }[] = [];
-  private readonly deferFormulas: boolean;
-  private readonly warnings: string[] = [];
-  private readonly started = now();
-  private samplingMs = 0;
+  private readonly runner: ChunkRunner;
+  private readonly parts: ChunkPart[] = [];
+  private readonly window: number;
 
-  constructor(model: unknown, options: RunOptions = {}) {
-    const checked = validateModel(model);
-    if (!checked.ok) throw new ModelValidationError(checked.issues);
-    const applied = applyDials(checked.model, options.dialValues ?? {});
-    this.model = applied.model;
-    this.dialValues = applied.values;
+  constructor(model: unknown, options: RunOptions = {}, runner: ChunkRunner = new ChunkRunner()) {
+    this.prep = prepareRun(model, options.dialValues);
     this.options = options;
-    const s = this.model.settings;
-    this.total = s.trials;
-    this.ctx = { seed: s.seed, design: s.design, normalMethod: s.normalMethod, trials: s.trials };
-    this.plan = compilePlan(this.model, applied.variables);
-
-    for (const inp of this.plan.inputs) {
-      this.columns.set(inp.id, new Float64Array(this.total));
-      this.marginals.set(inp.id, createMarginal(inp.spec));
-    }
-    const grouped = new Set<string>();
-    const method = s.correlationMethod === 'iman-conover' ? 'iman-conover' : 'gaussian-copula';
-    for (const g of this.plan.groups) {
-      const marginals = g.ids.map((id) => this.marginals.get(id) as Marginal);
-      g.ids.forEach((id) => grouped.add(id));
-      let copula: CopulaGroupSampler | null = null;
-      if (method === 'gaussian-copula') {
-        copula = new CopulaGroupSampler(marginals, g.matrix, this.ctx, g.ids.map((id) => this.streamOf(id)));
-        const rej = g.ids.filter((id) => (this.marginals.get(id) as Marginal).natural === 'rejection');
-        if (rej.length) this.warnings.push(`Correlated input${rej.length > 1 ? 's' : ''} ${rej.join(', ')} ${rej.length > 1 ? 'are' : 'is'} sampled through the inverse CDF (Gaussian copula), not by rejection.`);
-      } else {
-        for (const id of g.ids) this.samplers.push({ id, sampler: createColumnSampler(this.marginals.get(id) as Marginal, this.ctx, this.streamOf(id), id) });
-      }
-      this.groups.push({ ids: g.ids, matrix: g.matrix, method, copula });
-    }
-    for (const inp of this.plan.inputs) {
-      if (grouped.has(inp.id)) continue;
-      this.samplers.push({ id: inp.id, sampler: createColumnSampler(this.marginals.get(inp.id) as Marginal, this.ctx, inp.streamId, inp.id) });
-    }
-    if (s.design === 'latin-hypercube') this.warnings.push('Latin hypercube design: every input is sampled by the inverse CDF of stratified uniforms.');
-
-    const env = {
-      column: (name: string) => this.columns.get(name) ?? null,
-      scalar: (name: string) => (Object.prototype.hasOwnProperty.call(this.plan.scalars, name) ? this.plan.scalars[name] : null),
-    };
-    for (const d of this.plan.derived) {
-      this.columns.set(d.id, new Float64Array(this.total));
-      this.derived.push({ id: d.id, f: compileFormula(d.ast, env) });
-    }
-    for (const o of this.plan.outputs) {
-      this.columns.set(o.id, new Float64Array(this.total));
-      this.outputs.push({ id: o.id, f: compileFormula(o.ast, env) });
-    }
-    this.deferFormulas = this.groups.some((g) => g.method === 'iman-conover');
+    this.runner = runner;
+    this.total = this.prep.settings.trials;
+    this.window = inputWindow(this.prep, options.samples);
   }
 
-  private streamOf(id: string): string {
-    return this.plan.inputs.find((i) => i.id === id)?.streamId ?? id;
+  get dialValues(): Record<string, number> {
+    return this.prep.dialValues;
   }
 
-  /** Run up to maxTrials more trials; returns how many were run. */
+  /** Run whole chunks, at least one, until at least maxTrials more trials are done; returns how many. */
   step(maxTrials: number): number {
-    const count = Math.max(0, Math.min(Math.floor(maxTrials), this.total - this.done));
-    if (count === 0) return 0;
-    const t0 = now();
-    const start = this.done;
-    for (const { id, sampler } of this.samplers) sampler.fill(this.columns.get(id) as Float64Array, start, count);
-    for (const g of this.groups) {
-      if (g.copula) g.copula.fill(g.ids.map((id) => this.columns.get(id) as Float64Array), start, count);
+    let ran = 0;
+    while (this.done < this.total && (ran === 0 || ran < maxTrials)) {
+      const part = this.runner.runOne(this.prep, this.parts.length, { inputWindow: this.window });
+      this.parts.push(part);
+      this.done += part.count;
+      ran += part.count;
     }
-    if (!this.deferFormulas) this.evaluateFormulas(start, count);
-    this.done += count;
-    this.samplingMs += now() - t0;
-    return count;
+    return ran;
   }
 
-  private evaluateFormulas(start: number, count: number): void {
-    for (const d of this.derived) d.f.evaluate(this.columns.get(d.id) as Float64Array, start, count);
-    for (const o of this.outputs) o.f.evaluate(this.columns.get(o.id) as Float64Array, start, count);
-  }
-
-  /** Column of a sampled input, derived quantity or output (for tests and tools). */
+  /** Column of an output over the trials run so far (for tests and tools). */
   column(id: string): Float64Array | null {
-    return this.columns.get(id) ?? null;
+    if (!this.parts.length || !this.parts[0].outputs[id]) return null;
+    const col = new Float64Array(this.done);
+    for (const p of this.parts) col.set(p.outputs[id], p.start);
+    return col;
   }
 
-  finish(): RunResult {
+  finish(caches: MergeCaches = {}): RunResult {
     if (this.done < this.total) throw new Error(`finish() called after ${this.done} of ${this.total} trials`);
-    const t0 = now();
-    if (this.deferFormulas) {
-      for (const g of this.groups) {
-        if (g.method === 'iman-conover') {
-          imanConover(
-            g.ids.map((id) => this.columns.get(id) as Float64Array),
-            g.matrix,
-            this.ctx.seed,
-            g.ids.map((id) => this.streamOf(id)),
-          );
-        }
-      }
-      this.evaluateFormulas(0, this.total);
-    }
-    this.samplingMs += now() - t0;
-    const t1 = now();
-    const result = this.summarize();
-    const t2 = now();
-    result.timing = { samplingMs: this.samplingMs, statisticsMs: t2 - t1, totalMs: t2 - this.started };
-    return result;
-  }
-
-  private summarize(): RunResult {
-    const model = this.model;
-    const opts = this.options;
-    const levels = new Set<number>([...DEFAULT_PERCENTILES, ...(opts.percentiles ?? []).filter((p) => p > 0 && p < 1)]);
-    if (model.template === 'cost-range') levels.add(model.confidence);
-    const percentiles = [...levels].sort((a, b) => a - b);
-    const driverCols = this.plan.drivers.map((d) => ({ id: d.id, label: d.label, column: this.columns.get(d.id) as Float64Array }));
-    const rankCache = new RankCache();
-    const sortedById = new Map<string, Float64Array>();
-    const outputs = this.plan.outputs.map((o) => {
-      const { summary, sorted } = summarizeOutput(o.id, o.label, o.unit, this.columns.get(o.id) as Float64Array, {
-        percentiles,
-        histogramBins: opts.histogramBins ?? DEFAULT_HISTOGRAM_BINS,
-        ecdfPoints: opts.ecdfPoints ?? DEFAULT_ECDF_POINTS,
-        lower: o.lower,
-        upper: o.upper,
-        capability: model.template !== 'cost-range',
-        drivers: driverCols,
-        rankCache,
-      });
-      sortedById.set(o.id, sorted);
-      if (summary.invalid.total > 0) this.warnings.push(`Output '${o.label}': ${summary.invalid.total} of ${summary.trials} trials gave NaN or an infinite value and are excluded from its statistics.`);
-      return summary;
-    });
-
-    const groupOf = new Map<string, 'gaussian-copula' | 'iman-conover'>();
-    for (const g of this.groups) for (const id of g.ids) groupOf.set(id, g.method);
-    const samplerOf = new Map(this.samplers.map((s) => [s.id, s.sampler]));
-    const inputs: InputReport[] = this.plan.inputs.map((inp) => {
-      const col = this.columns.get(inp.id) as Float64Array;
-      const w = meanVariance(col);
-      const m = this.marginals.get(inp.id) as Marginal;
-      const corr = groupOf.get(inp.id) ?? null;
-      const sampler = samplerOf.get(inp.id);
-      let sampling: SamplingReport;
-      if (corr === 'gaussian-copula') {
-        const g = this.groups.find((x) => x.ids.includes(inp.id));
-        sampling = { method: 'gaussian-copula', scores: g?.copula?.scoreMethod };
-      } else sampling = sampler ? sampler.report() : { method: 'constant' };
-      return {
-        id: inp.id,
-        label: inp.label,
-        unit: inp.unit,
-        distribution: inp.spec.type,
-        sampling,
-        correlated: corr,
-        mean: w.mean,
-        sd: Math.sqrt(w.variance),
-        analyticMean: Number.isFinite(m.mean) ? m.mean : null,
-        analyticSd: Number.isFinite(m.variance) ? Math.sqrt(m.variance) : null,
-      };
-    });
-
-    const correlation = this.groups.map((g) =>
-      achievedCorrelation(
-        g.ids,
-        g.ids.map((id) => this.columns.get(id) as Float64Array),
-        g.matrix,
-        g.method === 'gaussian-copula' ? 'copula' : 'iman-conover',
-        RANK_TRIAL_LIMIT,
-        rankCache,
-      ),
-    );
-
-    let stack: StackResult | null = null;
-    let cost: CostResult | null = null;
-    if (model.template === 'linear-stack') {
-      const analytic = evaluateStack(model);
-      const gap = outputs[0];
-      const byId = new Map<string, DriverItem>(gap.drivers.items.map((d) => [d.id, d]));
-      stack = {
-        analytic,
-        monteCarlo: {
-          mean: gap.mean,
-          sd: gap.sd,
-          ppmObserved: gap.limits?.ppmObserved ?? null,
-          ppmObservedCi: gap.limits?.ppmObservedCi ?? null,
-          ppmNormal: gap.limits?.ppmNormal ?? null,
-          pp: gap.limits?.pp ?? null,
-          ppk: gap.limits?.ppk ?? null,
-        },
-        contributors: analytic.contributors
-          .map((c) => ({
-            id: c.id,
-            name: c.name,
-            sigma: c.sigma,
-            analyticShare: c.varianceShare,
-            spearman: byId.get(c.id)?.spearman ?? 0,
-            monteCarloShare: byId.get(c.id)?.share ?? 0,
-          }))
-          .sort((a, b) => b.analyticShare - a.analyticShare || (a.id < b.id ? -1 : 1)),
-      };
-    }
-    if (model.template === 'cost-range') {
-      const analytic = evaluateCost(model);
-      const total = outputs[0];
-      const sorted = sortedById.get('total') as Float64Array;
-      const [at, p10, p50, p80, p90] = percentileEstimates(sorted, [model.confidence, 0.1, 0.5, 0.8, 0.9]);
-      cost = {
-        analytic,
-        confidence: model.confidence,
-        atConfidence: at,
-        contingency: at.value - analytic.baseEstimate,
-        contingencyShareOfBase: analytic.baseEstimate !== 0 ? (at.value - analytic.baseEstimate) / analytic.baseEstimate : null,
-        p10: p10.value,
-        p50: p50.value,
-        p80: p80.value,
-        p90: p90.value,
-        exceedBudget: total.limits?.above ?? null,
-        sumMostLikelyRank: fractionAtOrBelow(sorted, analytic.sumMostLikely),
-        baseEstimateRank: fractionAtOrBelow(sorted, analytic.baseEstimate),
-      };
-    }
-
-    let samples: RunResult['samples'] = null;
-    const sel = opts.samples ?? 'none';
-    if (sel !== 'none') {
-      samples = { outputs: {}, inputs: {} };
-      for (const o of this.plan.outputs) samples.outputs[o.id] = this.columns.get(o.id) as Float64Array;
-      if (sel === 'all') {
-        for (const i of this.plan.inputs) samples.inputs[i.id] = this.columns.get(i.id) as Float64Array;
-        for (const d of this.plan.derived) samples.inputs[d.id] = this.columns.get(d.id) as Float64Array;
-      }
-    }
-
-    const s = model.settings;
-    return {
-      engine: ENGINE_VERSION,
-      template: model.template,
-      title: model.title,
-      run: {
-        trials: s.trials,
-        seed: s.seed,
-        design: s.design,
-        normalMethod: s.normalMethod,
-        correlationMethod: s.correlationMethod,
-        rng: RNG_NAME,
-        percentileDefinition: PERCENTILE_DEFINITION.id,
-        dialValues: this.dialValues,
-      },
-      inputs,
-      correlation,
-      outputs,
-      stack,
-      cost,
-      warnings: this.warnings,
-      samples,
-      timing: { samplingMs: 0, statisticsMs: 0, totalMs: 0 },
-    };
+    return mergeParts(this.prep, this.parts, this.options, caches);
   }
 }
 
@@ -436,7 +453,7 @@ export function runModelSync(model: unknown, options: RunOptions = {}): RunResul
 }
 
 /** Let queued messages (cancel, a newer run) through between steps. */
-function yieldToEventLoop(): Promise<void> {
+export function yieldToEventLoop(): Promise<void> {
   if (typeof MessageChannel !== 'undefined') {
     return new Promise((resolve) => {
       const ch = new MessageChannel();
@@ -451,8 +468,8 @@ function yieldToEventLoop(): Promise<void> {
 }
 
 /**
- * Run a model in steps, yielding to the event loop between them, reporting progress and
- * honouring an AbortSignal. Gives exactly the numbers runModelSync gives.
+ * Run a model chunk by chunk, yielding to the event loop between them, reporting progress
+ * and honouring an AbortSignal. Gives exactly the numbers runModelSync gives.
  */
 export async function runModel(model: unknown, options: AsyncRunOptions = {}): Promise<RunResult> {
   const { onProgress, signal } = options;
@@ -460,21 +477,13 @@ export async function runModel(model: unknown, options: AsyncRunOptions = {}): P
   const t0 = now();
   if (signal?.aborted) throw new RunCancelledError();
   const sim = new Simulation(model, options);
-  let chunk = options.chunkSize ?? 1024;
-  const adaptive = options.chunkSize === undefined;
+  const chunk = options.chunkSize ?? 1;
   let lastProgress = -Infinity;
   const report = (runPhase: Progress['runPhase']) => onProgress?.({ runPhase, done: sim.done, total: sim.total, elapsedMs: now() - t0 });
   report('sampling');
   lastProgress = now();
   while (sim.done < sim.total) {
-    const s0 = now();
-    const ran = sim.step(chunk);
-    const dt = now() - s0;
-    if (adaptive && ran > 0) {
-      // Aim for steps of about 15 ms so progress and cancellation stay responsive.
-      const perTrial = Math.max(dt, 0.05) / ran;
-      chunk = Math.max(256, Math.min(262_144, Math.round(15 / perTrial)));
-    }
+    sim.step(chunk);
     const t = now();
     if (t - lastProgress >= interval) {
       report('sampling');

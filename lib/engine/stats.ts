@@ -277,14 +277,47 @@ export function correlationMatrix(cols: Float64Array[]): number[][] {
   return out;
 }
 
+/**
+ * Ranks kept between runs, keyed by what a column's values depend on: after a dial move
+ * the unchanged inputs keep their ranks. Entries unused in the last run are dropped.
+ */
+export class RankStore {
+  private readonly map = new Map<string, { ranks: Float64Array; used: number }>();
+  private generation = 0;
+  beginRun(): void {
+    this.generation++;
+    for (const [k, e] of this.map) if (e.used < this.generation - 1) this.map.delete(k);
+  }
+  get(key: string): Float64Array | undefined {
+    const e = this.map.get(key);
+    if (e) e.used = this.generation;
+    return e?.ranks;
+  }
+  set(key: string, ranks: Float64Array): void {
+    this.map.set(key, { ranks, used: this.generation });
+  }
+}
+
 /** Average ranks of leading segments of columns, computed once per (column, length). */
 export class RankCache {
   private readonly map = new Map<Float64Array, Map<number, Float64Array>>();
+  private readonly keys = new Map<Float64Array, string>();
+  constructor(private readonly store: RankStore | null = null) {}
+  /** Name a column by what its values depend on, so its ranks can come from the store. */
+  name(col: Float64Array, key: string): void {
+    this.keys.set(col, key);
+  }
   ranks(col: Float64Array, n: number): Float64Array {
     let byN = this.map.get(col);
     if (!byN) this.map.set(col, (byN = new Map()));
     let r = byN.get(n);
-    if (!r) byN.set(n, (r = averageRanks(n === col.length ? col : col.subarray(0, n))));
+    if (!r) {
+      const key = this.store ? this.keys.get(col) : undefined;
+      const stored = key !== undefined ? this.store?.get(`${n}|${key}`) : undefined;
+      r = stored ?? averageRanks(n === col.length ? col : col.subarray(0, n));
+      if (key !== undefined && !stored) this.store?.set(`${n}|${key}`, r);
+      byN.set(n, r);
+    }
     return r;
   }
 }

@@ -118,6 +118,8 @@ export interface SummaryOptions {
   drivers: { id: string; label: string; column: Float64Array }[];
   /** Shared ranks (drivers and achieved correlations rank the same columns). */
   rankCache?: RankCache;
+  /** Mean and n - 1 variance of the finite values, when already known (merged chunk moments). */
+  moments?: { n: number; mean: number; variance: number };
 }
 
 function prob(count: number, n: number): ProbabilityEstimate {
@@ -155,7 +157,7 @@ export function summarizeOutput(id: string, label: string, unit: string, column:
     }
   }
   const m = valid.length;
-  const w = welford(valid);
+  const w = opts.moments && opts.moments.n === m ? opts.moments : welford(valid);
   const sorted = sortedCopy(valid);
   const mean = m > 0 ? w.mean : null;
   const sd = m > 1 ? Math.sqrt(w.variance) : null;

@@ -1,10 +1,15 @@
 /**
- * Browser-side client of the engine worker: one promise per run, a progress callback and
- * cancellation. Starting a run cancels the previous one (its promise rejects with
- * RunCancelledError), which is what a moving dial needs.
+ * Browser-side client of the engine's worker pool: one promise per run, a progress
+ * callback and cancellation. A run is cut into fixed-size chunks (chunks.ts); chunk k goes
+ * to worker k mod W (the same worker every run, so its cached input columns are reused
+ * after a dial move), and the parts are merged here in chunk order, so the result is the
+ * same bit for bit whatever W is. Starting a run cancels the previous one (its promise
+ * rejects with RunCancelledError), which is what a moving dial needs.
  */
+import { prepareRun, type ChunkPart, type PreparedRun } from './chunks';
 import { ModelValidationError, RunCancelledError, SamplingError, type SamplingErrorCode } from './errors';
-import type { Progress, RunResult, SampleSelection } from './simulate';
+import { inputWindow, mergeParts, type Progress, type RunResult, type SampleSelection } from './simulate';
+import { RankStore } from './stats';
 import type { WorkerErrorPayload, WorkerRequest, WorkerResponse } from './worker-protocol';
 
 export interface WorkerRunOptions {
@@ -17,10 +22,26 @@ export interface WorkerRunOptions {
   signal?: AbortSignal;
 }
 
-interface Pending {
+/** Most workers a page starts, whatever the machine (memory and start-up cost per worker). */
+export const MAX_POOL_SIZE = 4;
+
+/** Pool size for this browser: navigator.hardwareConcurrency, capped. */
+export function defaultPoolSize(): number {
+  const hc = typeof navigator !== 'undefined' && navigator.hardwareConcurrency > 0 ? navigator.hardwareConcurrency : 2;
+  return Math.max(1, Math.min(MAX_POOL_SIZE, hc));
+}
+
+interface ActiveRun {
+  runId: number;
+  prep: PreparedRun;
+  options: WorkerRunOptions;
+  parts: ChunkPart[];
+  done: number;
+  /** Workers that have not said 'done' yet. */
+  waiting: Set<number>;
+  started: number;
   resolve: (r: RunResult) => void;
   reject: (e: unknown) => void;
-  onProgress?: (p: Progress) => void;
   cleanup: () => void;
 }
 
@@ -30,61 +51,87 @@ function toError(e: WorkerErrorPayload): Error {
   return new Error(e.message);
 }
 
+const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
+
 export class EngineWorkerClient {
-  private worker: Worker | null = null;
+  private readonly workers: (Worker | null)[];
   private readonly createWorker: () => Worker;
   private nextId = 1;
-  private active: { runId: number; pending: Pending } | null = null;
+  private active: ActiveRun | null = null;
+  /** Ranks of unchanged inputs, kept between runs (drivers and achieved correlations). */
+  private readonly ranks = new RankStore();
 
-  constructor(options: { createWorker?: () => Worker } = {}) {
+  constructor(options: { createWorker?: () => Worker; workers?: number } = {}) {
     this.createWorker = options.createWorker ?? (() => new Worker(new URL('./worker.ts', import.meta.url)));
+    this.workers = new Array(Math.max(1, Math.floor(options.workers ?? defaultPoolSize()))).fill(null);
   }
 
-  private ensureWorker(): Worker {
-    if (!this.worker) {
-      const w = this.createWorker();
-      w.onmessage = (ev: MessageEvent<WorkerResponse>) => this.onMessage(ev.data);
-      w.onerror = (ev: ErrorEvent) => {
-        const a = this.active;
-        this.active = null;
-        a?.pending.cleanup();
-        a?.pending.reject(new Error(`The engine worker failed: ${ev.message || 'unknown error'}`));
-      };
-      this.worker = w;
+  /** Number of workers in the pool. */
+  get size(): number {
+    return this.workers.length;
+  }
+
+  private worker(i: number): Worker {
+    let w = this.workers[i];
+    if (!w) {
+      w = this.createWorker();
+      w.onmessage = (ev: MessageEvent<WorkerResponse>) => this.onMessage(i, ev.data);
+      w.onerror = (ev: ErrorEvent) => this.fail(new Error(`The engine worker failed: ${ev.message || 'unknown error'}`));
+      this.workers[i] = w;
     }
-    return this.worker;
+    return w;
   }
 
-  private post(msg: WorkerRequest): void {
-    this.ensureWorker().postMessage(msg);
+  private fail(err: unknown): void {
+    const a = this.active;
+    if (!a) return;
+    this.stopWorkers(a.runId);
+    this.active = null;
+    a.cleanup();
+    a.reject(err);
   }
 
-  private onMessage(msg: WorkerResponse): void {
+  private onMessage(worker: number, msg: WorkerResponse): void {
     const a = this.active;
     if (!a || msg.runId !== a.runId) return; // a superseded run
     switch (msg.type) {
-      case 'progress':
-        a.pending.onProgress?.(msg.progress);
+      case 'part':
+        a.parts.push(msg.part);
+        a.done += msg.part.count;
+        a.options.onProgress?.({ runPhase: 'sampling', done: a.done, total: a.prep.settings.trials, elapsedMs: now() - a.started });
         return;
-      case 'result':
-        this.active = null;
-        a.pending.cleanup();
-        a.pending.resolve(msg.result);
+      case 'done':
+        a.waiting.delete(worker);
+        if (a.waiting.size === 0) this.finish(a);
         return;
       case 'error':
-        this.active = null;
-        a.pending.cleanup();
-        a.pending.reject(toError(msg.error));
+        this.fail(toError(msg.error));
         return;
       case 'cancelled':
-        this.active = null;
-        a.pending.cleanup();
-        a.pending.reject(new RunCancelledError());
+        this.fail(new RunCancelledError());
         return;
     }
   }
 
-  /** Run a model in the worker. A newer call cancels this one. */
+  private finish(a: ActiveRun): void {
+    this.active = null;
+    a.cleanup();
+    try {
+      a.options.onProgress?.({ runPhase: 'statistics', done: a.done, total: a.prep.settings.trials, elapsedMs: now() - a.started });
+      this.ranks.beginRun();
+      const result = mergeParts(a.prep, a.parts, a.options, { ranks: this.ranks });
+      a.options.onProgress?.({ runPhase: 'done', done: a.done, total: a.prep.settings.trials, elapsedMs: now() - a.started });
+      a.resolve(result);
+    } catch (err) {
+      a.reject(err);
+    }
+  }
+
+  private stopWorkers(runId: number): void {
+    for (const w of this.workers) w?.postMessage({ type: 'cancel', runId } satisfies WorkerRequest);
+  }
+
+  /** Run a model on the pool. A newer call cancels this one. */
   run(model: unknown, options: WorkerRunOptions = {}): Promise<RunResult> {
     this.cancel();
     const runId = this.nextId++;
@@ -94,21 +141,29 @@ export class EngineWorkerClient {
         reject(new RunCancelledError());
         return;
       }
+      let prep: PreparedRun;
+      try {
+        // Validation here too: a bad model is refused before any worker starts.
+        prep = prepareRun(model, options.dialValues);
+      } catch (err) {
+        reject(err);
+        return;
+      }
       const onAbort = () => {
         if (this.active?.runId === runId) this.cancel();
       };
       signal?.addEventListener('abort', onAbort);
-      const pending: Pending = { resolve, reject, onProgress: options.onProgress, cleanup: () => signal?.removeEventListener('abort', onAbort) };
-      this.active = { runId, pending };
-      this.post({
-        type: 'run',
-        runId,
-        model,
-        dialValues: options.dialValues,
-        samples: options.samples,
-        percentiles: options.percentiles,
-        histogramBins: options.histogramBins,
-        ecdfPoints: options.ecdfPoints,
+      const size = this.workers.length;
+      const assigned: number[][] = Array.from({ length: size }, () => []);
+      for (let k = 0; k < prep.chunkCount; k++) assigned[k % size].push(k);
+      const waiting = new Set<number>();
+      assigned.forEach((ks, i) => ks.length && waiting.add(i));
+      this.active = { runId, prep, options, parts: [], done: 0, waiting, started: now(), resolve, reject, cleanup: () => signal?.removeEventListener('abort', onAbort) };
+      options.onProgress?.({ runPhase: 'sampling', done: 0, total: prep.settings.trials, elapsedMs: 0 });
+      const window = inputWindow(prep, options.samples);
+      assigned.forEach((chunkIndices, i) => {
+        if (!chunkIndices.length) return;
+        this.worker(i).postMessage({ type: 'chunks', runId, model, dialValues: options.dialValues, chunkIndices, inputWindow: window } satisfies WorkerRequest);
       });
     });
   }
@@ -117,16 +172,15 @@ export class EngineWorkerClient {
   cancel(): void {
     const a = this.active;
     if (!a) return;
-    this.active = null;
-    this.worker?.postMessage({ type: 'cancel', runId: a.runId } satisfies WorkerRequest);
-    a.pending.cleanup();
-    a.pending.reject(new RunCancelledError());
+    this.fail(new RunCancelledError());
   }
 
-  /** Stop the worker; a later run starts a new one. */
+  /** Stop the workers; a later run starts new ones. */
   terminate(): void {
     this.cancel();
-    this.worker?.terminate();
-    this.worker = null;
+    this.workers.forEach((w, i) => {
+      w?.terminate();
+      this.workers[i] = null;
+    });
   }
 }

@@ -1,20 +1,21 @@
 /**
- * Messages between the page and the engine worker. A new 'run' cancels the run in
- * progress; results carry their sample columns in the transfer list (no copy).
+ * Messages between the page and the engine's web workers. The page cuts a run into chunks
+ * (chunks.ts) and hands each worker a list of chunk indices; a worker posts one 'part' per
+ * chunk (output columns in the transfer list, no copy), then 'done'. A newer 'chunks'
+ * request, or a 'cancel', stops the run in progress between two chunks.
  */
+import type { ChunkPart } from './chunks';
 import type { ModelIssue } from './errors';
-import type { Progress, RunResult, SampleSelection } from './simulate';
 
-export interface WorkerRunRequest {
-  type: 'run';
+export interface WorkerChunksRequest {
+  type: 'chunks';
   runId: number;
-  /** Model JSON (validated in the worker). */
+  /** Model JSON (validated in the worker too). */
   model: unknown;
   dialValues?: Record<string, number>;
-  samples?: SampleSelection;
-  percentiles?: number[];
-  histogramBins?: number;
-  ecdfPoints?: number;
+  chunkIndices: number[];
+  /** Return input columns of the chunks starting before this trial. */
+  inputWindow: number;
 }
 
 export interface WorkerCancelRequest {
@@ -22,18 +23,17 @@ export interface WorkerCancelRequest {
   runId: number;
 }
 
-export type WorkerRequest = WorkerRunRequest | WorkerCancelRequest;
+export type WorkerRequest = WorkerChunksRequest | WorkerCancelRequest;
 
-export interface WorkerProgressMessage {
-  type: 'progress';
+export interface WorkerPartMessage {
+  type: 'part';
   runId: number;
-  progress: Progress;
+  part: ChunkPart;
 }
 
-export interface WorkerResultMessage {
-  type: 'result';
+export interface WorkerDoneMessage {
+  type: 'done';
   runId: number;
-  result: RunResult;
 }
 
 export interface WorkerErrorPayload {
@@ -55,15 +55,11 @@ export interface WorkerCancelledMessage {
   runId: number;
 }
 
-export type WorkerResponse = WorkerProgressMessage | WorkerResultMessage | WorkerErrorMessage | WorkerCancelledMessage;
+export type WorkerResponse = WorkerPartMessage | WorkerDoneMessage | WorkerErrorMessage | WorkerCancelledMessage;
 
-/** The ArrayBuffers of a result's sample columns, each once. */
-export function transferList(result: RunResult): ArrayBuffer[] {
+/** The ArrayBuffers of a part's output columns (fresh every run, so they can move). */
+export function partTransferList(part: ChunkPart): ArrayBuffer[] {
   const out = new Set<ArrayBuffer>();
-  if (result.samples) {
-    for (const group of [result.samples.outputs, result.samples.inputs]) {
-      for (const arr of Object.values(group)) out.add(arr.buffer as ArrayBuffer);
-    }
-  }
+  for (const arr of Object.values(part.outputs)) out.add(arr.buffer as ArrayBuffer);
   return [...out];
 }

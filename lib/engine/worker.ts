@@ -1,11 +1,13 @@
 /**
- * The engine's web worker: runs one model at a time in steps, posts progress at least ten
- * times a second on long runs, and drops a run as soon as a newer one (or a cancel)
- * arrives. Results transfer their sample arrays instead of copying them.
+ * One engine web worker of the page's pool: runs the chunks it is given, keeps each input's
+ * chunk columns between runs (so after a dial move only the moved inputs are sampled
+ * again), and drops a run as soon as a newer one (or a cancel) arrives. Output columns are
+ * transferred; cached input columns are copied so the cache keeps them.
  */
-import { ModelValidationError, RunCancelledError, SamplingError } from './errors';
-import { runModel } from './simulate';
-import { transferList, type WorkerErrorPayload, type WorkerRequest, type WorkerResponse, type WorkerRunRequest } from './worker-protocol';
+import { ChunkRunner, prepareRun } from './chunks';
+import { ModelValidationError, SamplingError } from './errors';
+import { yieldToEventLoop } from './simulate';
+import { partTransferList, type WorkerChunksRequest, type WorkerErrorPayload, type WorkerRequest, type WorkerResponse } from './worker-protocol';
 
 interface WorkerScope {
   postMessage(message: WorkerResponse, transfer?: Transferable[]): void;
@@ -13,7 +15,8 @@ interface WorkerScope {
 }
 
 const scope = self as unknown as WorkerScope;
-let current: { runId: number; controller: AbortController } | null = null;
+const runner = new ChunkRunner({ cache: true });
+let current: { runId: number; cancelled: boolean } | null = null;
 
 function errorPayload(err: unknown): WorkerErrorPayload {
   if (err instanceof ModelValidationError) return { name: 'ModelValidationError', message: err.message, issues: err.issues };
@@ -21,26 +24,29 @@ function errorPayload(err: unknown): WorkerErrorPayload {
   return { name: 'Error', message: err instanceof Error ? err.message : String(err) };
 }
 
-async function start(req: WorkerRunRequest): Promise<void> {
-  const controller = new AbortController();
-  current = { runId: req.runId, controller };
+async function start(req: WorkerChunksRequest): Promise<void> {
+  if (current) current.cancelled = true;
+  const me = { runId: req.runId, cancelled: false };
+  current = me;
   try {
-    const result = await runModel(req.model, {
-      dialValues: req.dialValues,
-      samples: req.samples,
-      percentiles: req.percentiles,
-      histogramBins: req.histogramBins,
-      ecdfPoints: req.ecdfPoints,
-      signal: controller.signal,
-      progressIntervalMs: 50,
-      onProgress: (progress) => scope.postMessage({ type: 'progress', runId: req.runId, progress }),
-    });
-    scope.postMessage({ type: 'result', runId: req.runId, result }, transferList(result));
+    const prep = prepareRun(req.model, req.dialValues);
+    runner.beginRun();
+    for (const k of req.chunkIndices) {
+      if (me.cancelled) {
+        scope.postMessage({ type: 'cancelled', runId: req.runId });
+        return;
+      }
+      const part = runner.runOne(prep, k, { inputWindow: req.inputWindow });
+      scope.postMessage({ type: 'part', runId: req.runId, part }, partTransferList(part));
+      // Let a cancel or a newer run in between chunks.
+      await yieldToEventLoop();
+    }
+    if (me.cancelled) scope.postMessage({ type: 'cancelled', runId: req.runId });
+    else scope.postMessage({ type: 'done', runId: req.runId });
   } catch (err) {
-    if (err instanceof RunCancelledError) scope.postMessage({ type: 'cancelled', runId: req.runId });
-    else scope.postMessage({ type: 'error', runId: req.runId, error: errorPayload(err) });
+    scope.postMessage({ type: 'error', runId: req.runId, error: errorPayload(err) });
   } finally {
-    if (current && current.runId === req.runId) current = null;
+    if (current === me) current = null;
   }
 }
 
@@ -48,11 +54,8 @@ scope.addEventListener('message', (ev) => {
   const msg = ev.data;
   if (!msg || typeof msg !== 'object') return;
   if (msg.type === 'cancel') {
-    if (current && current.runId === msg.runId) current.controller.abort();
+    if (current && current.runId === msg.runId) current.cancelled = true;
     return;
   }
-  if (msg.type === 'run') {
-    current?.controller.abort();
-    void start(msg);
-  }
+  if (msg.type === 'chunks') void start(msg);
 });

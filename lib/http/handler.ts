@@ -4,9 +4,10 @@ import { NextResponse, type NextRequest } from 'next/server';
 import { z } from 'zod';
 import { AppError, validationError, type ErrorBody } from '@/lib/http/errors';
 import { env } from '@/lib/env';
+import { logger } from '@/lib/ops/log';
 
-/** The single mapper from thrown errors to HTTP responses. */
-export function toErrorResponse(err: unknown): NextResponse<ErrorBody> {
+/** The single mapper from thrown errors to HTTP responses. A 500 carries the request id, logged with the error. */
+export function toErrorResponse(err: unknown, requestId: string = randomUUID()): NextResponse<ErrorBody> {
   if (err instanceof z.ZodError) err = validationError(err);
   if (err instanceof AppError) {
     const headers: Record<string, string> = {};
@@ -16,8 +17,8 @@ export function toErrorResponse(err: unknown): NextResponse<ErrorBody> {
       { status: err.status, headers },
     );
   }
-  const id = randomUUID();
-  console.error(`[error ${id}]`, err);
+  const id = requestId;
+  logger().error({ reqId: id, err }, 'unhandled error');
   return NextResponse.json(
     { error: { code: 'internal', message: `Something went wrong on our side. Quote reference ${id} if it persists.`, id } },
     { status: 500 },
@@ -26,17 +27,37 @@ export function toErrorResponse(err: unknown): NextResponse<ErrorBody> {
 
 type Ctx<P> = { params: Promise<P> };
 
-/** Wraps a route handler: errors of any kind go through `toErrorResponse`. */
+// A request id from a proxy or load balancer is kept when it looks like one; otherwise a new one is made.
+const REQUEST_ID = /^[A-Za-z0-9._:-]{8,128}$/;
+export const requestIdOf = (req: Request): string => {
+  const given = req.headers.get('x-request-id');
+  return given && REQUEST_ID.test(given) ? given : randomUUID();
+};
+
+/**
+ * Wraps a route handler: errors of any kind go through `toErrorResponse`; every answer carries `X-Request-Id`
+ * and is logged as one JSON line with that id, the status and the time taken.
+ */
 export function route<P = Record<string, string>>(
   fn: (req: NextRequest, ctx: Ctx<P>) => Promise<Response>,
 ): (req: NextRequest, ctx: Ctx<P>) => Promise<Response> {
   return async (req, ctx) => {
+    const reqId = requestIdOf(req);
+    const started = performance.now();
+    let res: Response;
     try {
       if (!['GET', 'HEAD', 'OPTIONS'].includes(req.method)) assertSameOrigin(req);
-      return await fn(req, ctx);
+      res = await fn(req, ctx);
     } catch (err) {
-      return toErrorResponse(err);
+      res = toErrorResponse(err, reqId);
     }
+    try {
+      res.headers.set('X-Request-Id', reqId);
+    } catch {
+      // A response with immutable headers (passed through from fetch) goes out as it is.
+    }
+    logger().info({ reqId, method: req.method, path: req.nextUrl.pathname, status: res.status, ms: Math.round((performance.now() - started) * 10) / 10 }, 'request');
+    return res;
   };
 }
 

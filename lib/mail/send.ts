@@ -52,3 +52,16 @@ export function linkMail(to: string, subject: string, lines: string[], action: {
   )}</a></p><p style="color:#5a6b78;font-size:13px">Or paste this address into your browser: ${escapeHtml(action.url)}</p></div>`;
   return { to, subject, text, html };
 }
+
+/**
+ * What a failed send means for the job. 'retry': the server never took the message (no connection, or a
+ * temporary 4xx refusal). 'permanent': a 5xx refusal. 'uncertain': the connection broke while the message was
+ * being handed over, so it may have been delivered; it is not sent again.
+ */
+export function classifySendError(err: unknown): 'retry' | 'permanent' | 'uncertain' {
+  const e = err as { code?: string; command?: string; responseCode?: number };
+  if (typeof e.responseCode === 'number') return e.responseCode >= 500 ? 'permanent' : e.responseCode >= 400 ? 'retry' : 'uncertain';
+  if (e.code === 'ECONNECTION' || e.code === 'EDNS' || e.code === 'ETLS' || e.code === 'EAUTH') return 'retry';
+  if (e.command === 'CONN' || e.command === 'EHLO' || e.command === 'HELO' || e.command === 'MAIL FROM' || e.command === 'RCPT TO') return 'retry';
+  return 'uncertain';
+}

@@ -24,6 +24,7 @@ import { assertAuthoringAllowed } from '@/lib/billing';
 import { blankModel } from '@/lib/models/blank';
 import { headlineIds } from '@/lib/models/widget-options';
 import { utcStamp } from '@/lib/models/templates';
+import { notifyCheckDecided, notifyCheckRequested, notifyWidgetPublished } from '@/lib/notifications/queue';
 import type { CheckInput, CreateModelInput, PublishInput, SaveVersionInput, WidgetPatchInput } from '@/lib/models/schemas';
 import type { ModelRecord, VersionRecord, VersionSummary, WidgetRecord } from '@/lib/models/types';
 
@@ -167,6 +168,10 @@ export async function saveVersion(member: Member, modelId: string, input: SaveVe
       },
       trx,
     );
+    await notifyCheckRequested(
+      { firmId: member.firmId, versionId: id, modelId, modelTitle: input.model.title, number, authorId: member.userId, authorName: member.name, note: input.note || null },
+      trx,
+    );
     return (await getVersionById(member.firmId, id, trx))!;
   });
 }
@@ -203,6 +208,24 @@ export async function checkVersion(member: Member, versionId: string, input: Che
         targetType: 'version',
         targetId: versionId,
         detail: { modelId: v.modelId, number: v.number, note: input.note || null, comments: input.comments.length, latest: latest?.number ?? v.number },
+      },
+      trx,
+    );
+    const model = await getModel(member.firmId, v.modelId, trx);
+    await notifyCheckDecided(
+      {
+        firmId: member.firmId,
+        versionId,
+        modelId: v.modelId,
+        modelTitle: model?.title ?? 'a model',
+        number: v.number,
+        authorId: v.authorId,
+        authorName: v.authorName,
+        note: v.note,
+        decision: state,
+        checkerName: member.name,
+        checkNote: input.note || null,
+        comments: input.comments.length,
       },
       trx,
     );
@@ -275,6 +298,10 @@ export async function publish(member: Member, input: PublishInput): Promise<Widg
       },
       trx,
     );
+    await notifyWidgetPublished(
+      { firmId: member.firmId, widgetId: id, widgetTitle: input.title, modelId: m.id, modelTitle: m.title, number: v.number, checkState: v.checkState, actorId: member.userId, actorName: member.name, republished: false },
+      trx,
+    );
     return (await getWidget(member.firmId, id, trx))!;
   });
 }
@@ -306,6 +333,21 @@ export async function changeWidget(member: Member, id: string, patch: WidgetPatc
           targetType: 'widget',
           targetId: id,
           detail: { modelId: w.modelId, fromNumber: w.versionNumber, toNumber: target.number, checkState: target.checkState },
+        },
+        trx,
+      );
+      await notifyWidgetPublished(
+        {
+          firmId: member.firmId,
+          widgetId: id,
+          widgetTitle: patch.title ?? w.title,
+          modelId: w.modelId,
+          modelTitle: m.title,
+          number: target.number,
+          checkState: target.checkState,
+          actorId: member.userId,
+          actorName: member.name,
+          republished: true,
         },
         trx,
       );

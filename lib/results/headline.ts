@@ -28,6 +28,24 @@ function pValue(o: OutputSummary, p: number): number | null {
   return o.percentiles.find((x) => Math.abs(x.p - p) < 1e-9)?.value ?? null;
 }
 
+/**
+ * What the normal estimate of ppm assumes and why it differs from the count: it treats the gap as normal with the
+ * simulated mean and standard deviation, so it reads the tails of a bell curve, while the count reads the
+ * simulated gap's own tails (uniform, triangular or shifted contributors make them shorter or longer).
+ */
+export function normalEstimateNote(observed: number | null, normal: number | null): string | null {
+  if (normal === null) return null;
+  const head = `a normal gap with this mean and standard deviation would give ${formatPpm(normal)}`;
+  if (observed === null) return head;
+  const hi = Math.max(observed, normal);
+  const lo = Math.min(observed, normal);
+  // Within a fifth (or a few ppm) the two agree well enough to say so.
+  if (hi - lo <= Math.max(0.2 * hi, 5)) return `${head}, close to the count: the simulated gap is near normal`;
+  return normal > observed
+    ? `${head}; the count is lower because the simulated gap’s tails are shorter than a bell curve’s (bounded contributors such as uniform or triangular ones)`
+    : `${head}; the count is higher because the simulated gap’s tails are longer than a bell curve’s (skewed or shifted contributors)`;
+}
+
 function lower(s: string): string {
   return s.charAt(0).toLowerCase() + s.slice(1);
 }
@@ -59,7 +77,7 @@ function stackHeadline(r: RunResult, id: string): HeadlineFigure {
         value: mc.ppmObserved !== null ? formatPpm(mc.ppmObserved) : '—',
         sub:
           (mc.ppmObservedCi ? `95 % interval ${formatPpm(mc.ppmObservedCi.low)} to ${formatPpm(mc.ppmObservedCi.high)}` : '') +
-          (mc.ppmNormal !== null ? `${mc.ppmObservedCi ? ' · ' : ''}normal estimate ${formatPpm(mc.ppmNormal)}` : ''),
+          (mc.ppmNormal !== null ? `${mc.ppmObservedCi ? ' · ' : ''}${normalEstimateNote(mc.ppmObserved, mc.ppmNormal)}` : ''),
         term: 'ppm',
       };
   }

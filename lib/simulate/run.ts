@@ -1,7 +1,13 @@
 import 'server-only';
+import { NextResponse } from 'next/server';
 import { z } from 'zod';
-import { runModelSync, ModelValidationError, SamplingError, type RunResult } from '@/lib/engine';
-import { AppError, type FieldErrors } from '@/lib/http/errors';
+import { fieldError } from '@/lib/http/errors';
+import { admitRun, firmRunsInProgress, type RunCaller } from './admission';
+import { budgetMessage, workOf } from './budget';
+import { runLimits } from './limits';
+import { failureError, poolError } from './failures';
+import { poolStats, runOnPool, type PoolReply, type PoolStats } from './pool';
+import type { RunTask } from './pool-worker';
 
 export const MAX_RETURNED_SAMPLES = 100_000;
 
@@ -21,34 +27,83 @@ export const simulateRequestSchema = z
 
 export type SimulateRequest = z.infer<typeof simulateRequestSchema>;
 
-/** Engine problems become 422s naming every bad field, e.g. `model.contributors.2.minusTol`. */
-function engineError(err: unknown): never {
-  if (err instanceof ModelValidationError) {
-    const fields: FieldErrors = {};
-    for (const issue of err.issues) {
-      const key = ['model', ...issue.path].join('.');
-      (fields[key] ??= []).push(issue.message);
+/** Refusals that need no thread: over the work budget, or too many sample values to send back. */
+export function checkUpFront(req: SimulateRequest): void {
+  const l = runLimits();
+  const w = workOf(req.model);
+  if (w && w.work > l.maxWork) throw fieldError('model.settings.trials', budgetMessage(w, l.maxWork));
+  if (w && req.samples) {
+    const m = req.model as { outputs?: unknown[] };
+    // Output columns: one for stack and cost models, one per formula output; inputs add their sampled columns.
+    const outputs = Array.isArray(m.outputs) ? m.outputs.length : 1;
+    const columns = outputs + (req.samples.which === 'all' ? w.columns : 0);
+    const values = req.samples.limit * columns;
+    if (values > l.maxSampleValues) {
+      const most = Math.floor(l.maxSampleValues / columns);
+      throw fieldError('samples.limit', `That asks for ${values.toLocaleString('en')} sample values (${columns} columns × ${req.samples.limit.toLocaleString('en')}); a response carries at most ${l.maxSampleValues.toLocaleString('en')}. Set samples.limit to ${most.toLocaleString('en')} or fewer.`);
     }
-    throw new AppError('validation_failed', `The model has ${err.issues.length} problem${err.issues.length === 1 ? '' : 's'}.`, { fields });
   }
-  if (err instanceof SamplingError) {
-    throw new AppError('validation_failed', err.message, { fields: { [err.inputId ? `model.inputs.${err.inputId}` : 'model']: [err.message] } });
-  }
-  throw err;
 }
 
-/** Runs the model on the server with the same engine the browser uses; typed arrays become plain arrays. */
-export function simulate(req: SimulateRequest): Omit<RunResult, 'samples'> & { samples: Record<string, Record<string, number[]>> | null } {
-  let result: RunResult;
+export function runCaller(c: { firmId: string; userId: string | null; keyId: string | null; via: 'api-key' | 'session' }): RunCaller {
+  return { firmId: c.firmId, caller: c.keyId ? `key:${c.keyId}` : `user:${c.userId}`, via: c.via };
+}
+
+/**
+ * Runs the model on a pool thread with the same engine the browser uses. The response body is the worker's JSON,
+ * passed through as bytes: the request thread neither runs nor serialises anything heavy.
+ */
+export async function simulate(req: SimulateRequest, caller: RunCaller): Promise<Response> {
+  checkUpFront(req);
+  const admission = await admitRun(caller);
+  let reply: PoolReply;
   try {
-    result = runModelSync(req.model, { dialValues: req.dialValues, samples: req.samples ? req.samples.which : 'none', percentiles: req.percentiles });
-  } catch (err) {
-    engineError(err);
+    const task: RunTask = {
+      model: req.model,
+      dialValues: req.dialValues,
+      percentiles: req.percentiles,
+      reply: 'json',
+      samples: { which: req.samples?.which ?? 'none', limit: req.samples?.limit ?? 0 },
+      maxWork: runLimits().maxWork,
+    };
+    reply = await runOnPool(task).catch(poolError);
+  } finally {
+    await admission.release();
   }
-  const limit = req.samples?.limit ?? 0;
-  const cut = (cols: Record<string, Float64Array>) => Object.fromEntries(Object.entries(cols).map(([k, v]) => [k, Array.from(v.subarray(0, limit))]));
+  if (!reply.ok) throw failureError(reply.failure);
+  if (!('json' in reply)) throw new Error('The run worker sent a result where a JSON body was expected.');
+  return new NextResponse(reply.json as Uint8Array<ArrayBuffer>, { status: 200, headers: { 'content-type': 'application/json' } });
+}
+
+export interface RunStatus {
+  limits: {
+    maxWork: number;
+    timeLimitSeconds: number;
+    concurrentPerKey: number;
+    concurrentPerFirm: number;
+    ratePerKeyPerMinute: number;
+    ratePerFirmPerMinute: number;
+    maxSampleValues: number;
+  };
+  /** Runs of the caller's firm in progress on any instance. */
+  firmRunsInProgress: number;
+  /** This instance's pool. */
+  pool: PoolStats;
+}
+
+export async function runStatus(caller: RunCaller): Promise<RunStatus> {
+  const l = runLimits();
   return {
-    ...result,
-    samples: result.samples ? { outputs: cut(result.samples.outputs), inputs: cut(result.samples.inputs) } : null,
+    limits: {
+      maxWork: l.maxWork,
+      timeLimitSeconds: l.timeLimitMs / 1000,
+      concurrentPerKey: l.concurrentPerKey,
+      concurrentPerFirm: l.concurrentPerFirm,
+      ratePerKeyPerMinute: l.ratePerKey,
+      ratePerFirmPerMinute: l.ratePerFirm,
+      maxSampleValues: l.maxSampleValues,
+    },
+    firmRunsInProgress: await firmRunsInProgress(caller.firmId),
+    pool: poolStats(),
   };
 }

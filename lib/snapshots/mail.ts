@@ -64,15 +64,5 @@ export async function deliverSnapshotMail(m: SnapshotMail, pdf: Buffer, messageI
   });
 }
 
-/**
- * What a failed send means for the job. 'retry': the server never took the message (no connection, or a
- * temporary 4xx refusal). 'permanent': a 5xx refusal. 'uncertain': the connection broke while the message was
- * being handed over, so it may have been delivered; it is not sent again.
- */
-export function classifySendError(err: unknown): 'retry' | 'permanent' | 'uncertain' {
-  const e = err as { code?: string; command?: string; responseCode?: number };
-  if (typeof e.responseCode === 'number') return e.responseCode >= 500 ? 'permanent' : e.responseCode >= 400 ? 'retry' : 'uncertain';
-  if (e.code === 'ECONNECTION' || e.code === 'EDNS' || e.code === 'ETLS' || e.code === 'EAUTH') return 'retry';
-  if (e.command === 'CONN' || e.command === 'EHLO' || e.command === 'HELO' || e.command === 'MAIL FROM' || e.command === 'RCPT TO') return 'retry';
-  return 'uncertain';
-}
+// Shared with the notification mails; kept importable from here for the snapshot worker.
+export { classifySendError } from '@/lib/mail/send';

@@ -1,5 +1,6 @@
 import 'server-only';
-import { runModelSync, type RunResult } from '@/lib/engine';
+import type { RunResult } from '@/lib/engine';
+import { runForServer } from '@/lib/simulate/server-run';
 import type { SnapshotContext } from '@/db/snapshots';
 import { snapshotContent, type SnapshotContent } from './content';
 import { renderSnapshotPdf } from './pdf';
@@ -7,7 +8,8 @@ import { getLogo } from '@/db/logos';
 
 // The re-run: the pinned version's model with the viewer's dial values, through the same engine (and so the same
 // seed, trial count and sampling design) as the widget in the browser. No options beyond the dial values: the
-// browser passes none either (samples are not needed), so the summaries are bit for bit the same.
+// browser passes none either (samples are not needed), so the summaries are bit for bit the same. The run goes to the
+// worker-thread pool, so the job's lease heartbeat keeps beating while it runs.
 
 export interface RenderedSnapshot {
   content: SnapshotContent;
@@ -19,7 +21,7 @@ export interface RenderedSnapshot {
 
 export async function renderSnapshot(ctx: SnapshotContext): Promise<RenderedSnapshot> {
   const start = performance.now();
-  const result = runModelSync(ctx.model, { dialValues: ctx.job.dialValues, samples: 'none' });
+  const result = await runForServer(ctx.model, ctx.job.dialValues);
   const content = snapshotContent(ctx.model, result, {
     firmName: ctx.firm.name,
     brandColor: ctx.widget.brandColor || ctx.firm.brandColor,

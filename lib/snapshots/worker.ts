@@ -4,6 +4,7 @@ import { randomUUID } from 'node:crypto';
 import { claimNextJob, extendLease, getSnapshotContext, markFailed, markRetry, markSending, markSent, type SnapshotJob, type SnapshotState } from '@/db/snapshots';
 import { renderSnapshot } from './render';
 import { classifySendError, composeSnapshotMail, deliverSnapshotMail } from './mail';
+import { backoffMs, startPollingLoop } from '@/lib/queue/loop';
 
 // The snapshot worker: takes due jobs one at a time, renders, sends, and records every step in the job row.
 // Crash safety: a job's lease (locked_until) is extended while the worker holds it; a job whose lease ran out in
@@ -33,9 +34,7 @@ export interface SnapshotWorker {
 export const UNCERTAIN_MESSAGE =
   'The worker stopped while the mail server was receiving this message, so it may have arrived. It is not sent again automatically, to avoid a duplicate.';
 
-export function backoffMs(attempts: number, base: number, max: number): number {
-  return Math.min(max, base * 2 ** Math.max(0, attempts - 1));
-}
+export { backoffMs };
 
 export function workerOptionsFromEnv(e: NodeJS.ProcessEnv = process.env): WorkerOptions {
   const n = (v: string | undefined) => (v && Number.isFinite(Number(v)) && Number(v) > 0 ? Number(v) : undefined);
@@ -117,31 +116,11 @@ export function startSnapshotWorker(o: WorkerOptions = {}): SnapshotWorker {
     return true;
   }
 
-  let stopped = false;
-  let current: Promise<unknown> = Promise.resolve();
-  let timer: ReturnType<typeof setTimeout> | null = null;
-  const loop = async () => {
-    timer = null;
-    if (stopped) return;
-    let busy = false;
-    try {
-      const p = runOnce();
-      current = p;
-      busy = await p;
-    } catch (err) {
-      log(`worker error: ${(err as Error).stack ?? err}`);
-    }
-    if (!stopped) timer = setTimeout(loop, busy ? 0 : pollMs);
-  };
-  timer = setTimeout(loop, 0);
+  const loop = startPollingLoop({ runOnce, pollMs, log });
 
   return {
     id,
     runOnce,
-    async stop() {
-      stopped = true;
-      if (timer) clearTimeout(timer);
-      await current.catch(() => undefined);
-    },
+    stop: () => loop.stop(),
   };
 }

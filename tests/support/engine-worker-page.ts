@@ -1,6 +1,7 @@
 /**
  * Browser entry for the worker parity test: runs the example models through the real
- * worker client and worker, and exposes fingerprints of the results to the test.
+ * worker pool client and workers (1, 2 or 4 of them), and exposes fingerprints of the
+ * results to the test.
  */
 import { EngineWorkerClient } from '@/lib/engine/worker-client';
 import { EXAMPLE_MODELS } from '@/lib/engine/examples';
@@ -9,19 +10,25 @@ import { fingerprint, type Fingerprint } from './engine-helpers';
 declare global {
   interface Window {
     engineParity: {
-      run(models: Record<string, unknown>): Promise<Record<string, Fingerprint>>;
+      run(models: Record<string, unknown>, workers?: number): Promise<Record<string, Fingerprint>>;
       supersede(): Promise<{ first: string; second: string; progressEvents: number }>;
     };
   }
 }
 
-const client = new EngineWorkerClient({ createWorker: () => new Worker('/worker.js') });
+const clients = new Map<number, EngineWorkerClient>();
+const poolOf = (workers: number) => {
+  let c = clients.get(workers);
+  if (!c) clients.set(workers, (c = new EngineWorkerClient({ createWorker: () => new Worker('/worker.js'), workers })));
+  return c;
+};
+const client = poolOf(2);
 
 window.engineParity = {
-  async run(models) {
+  async run(models, workers = 2) {
     const out: Record<string, Fingerprint> = {};
     for (const [name, model] of Object.entries(models)) {
-      out[name] = fingerprint(await client.run(model, { samples: 'all' }));
+      out[name] = fingerprint(await poolOf(workers).run(model, { samples: 'all' }));
     }
     return out;
   },

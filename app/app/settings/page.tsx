@@ -5,6 +5,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { SettingsForm } from '@/components/settings/settings-form';
 import { ApiKeysPanel } from '@/components/api-keys/api-keys-panel';
 import { LogoUpload } from '@/components/datasets/logo-upload';
+import { NotificationPrefs } from '@/components/settings/notification-prefs';
 
 export const metadata: Metadata = { title: 'Settings' };
 
@@ -12,7 +13,10 @@ export default async function SettingsPage() {
   const member = await requirePageMember('firm.read', '/app/settings');
   return (
     <>
-      <PageHeader title="Settings" description="Your firm’s name, defaults for new models, branding of widgets and snapshots, and the publishing rule." />
+      <PageHeader title="Settings" description="Your own e-mail notifications; your firm’s name, defaults for new models, branding of widgets and snapshots, and the publishing rule." />
+      <div className="mb-8">
+        <NotificationPrefs role={member.role} />
+      </div>
       <SettingsForm canEdit={can(member.role, 'settings.manage')} />
       <div className="mt-8">
         <LogoUpload firmId={member.firmId} canEdit={can(member.role, 'settings.manage')} />

@@ -190,6 +190,37 @@ describe('pass exchange and the embed API', () => {
     expect(w.branding.firmName).toBe('Test firm embed');
   });
 
+  it('sends the widget with a strong ETag: a matching If-None-Match gets 304 without a body, while the pass is still checked on every call', async () => {
+    const c = await newClient();
+    const { pass, token, widgetId } = await grant(c.id);
+    const s = await exchange(pass.id, token);
+    const first = await widgetCall(pass.id, s.body.token);
+    const etag = first.headers.get('etag')!;
+    expect(etag).toMatch(/^"[A-Za-z0-9_-]{32}"$/);
+    expect(first.headers.get('cache-control')).toMatch(/no-cache/);
+    const body = await first.text();
+    // The same representation twice gives the same validator and the same bytes.
+    const again = await widgetCall(pass.id, s.body.token);
+    expect(again.headers.get('etag')).toBe(etag);
+    expect(await again.text()).toBe(body);
+    const cond = (tag: string) => anon.request('GET', `/api/embed/passes/${pass.id}/widget`, undefined, { ...bearer(s.body.token), 'if-none-match': tag });
+    const notModified = await cond(etag);
+    expect(notModified.status).toBe(304);
+    expect(notModified.headers.get('etag')).toBe(etag);
+    expect(await notModified.text()).toBe('');
+    expect((await cond(`W/${etag}, "other"`)).status).toBe(304);
+    expect((await cond('"something-else"')).status).toBe(200);
+    // A presentation change is a new representation: a new ETag and a full answer to the old one.
+    db.prepare('update widgets set title = ? where id = ?').run('Shaft float (revised)', widgetId);
+    const changed = await cond(etag);
+    expect(changed.status).toBe(200);
+    expect(changed.headers.get('etag')).not.toBe(etag);
+    expect(((await changed.json()) as { widget: { title: string } }).widget.title).toBe('Shaft float (revised)');
+    // Revoked: refused even when the client holds the current ETag.
+    expect((await author.json('POST', `/api/passes/${pass.id}/revoke`)).status).toBe(200);
+    expect((await cond(changed.headers.get('etag')!)).status).toBe(401);
+  });
+
   it('answers a tampered token 401, a snippet with a wrong id 403, a host not allowed 403', async () => {
     const c = await newClient();
     const { pass, token } = await grant(c.id);
@@ -293,6 +324,9 @@ describe('dial events and analytics', () => {
     const s = await exchange(pass.id, token);
     await exchange(pass.id, token);
     expect((await dialCall(pass.id, s.body.token, { kind: 'dial', dialId: 'spacer_length', value: 24.2 })).status).toBe(204);
+    // Loads and dial moves are written in batches after the response (EVENT_FLUSH_MS, 250 ms by default).
+    const passCounts = async () => (await checker.json<{ pass: PassJson }>('GET', `/api/passes/${pass.id}`)).body.pass.counts;
+    await expect.poll(passCounts, { timeout: 5000 }).toEqual({ load: 2, dial: 1, snapshot: 0 });
     const before = count('pass_events');
     const out = await dialCall(pass.id, s.body.token, { kind: 'dial', dialId: 'spacer_length', value: 30 });
     expect(out.status).toBe(422);
@@ -301,6 +335,8 @@ describe('dial events and analytics', () => {
     expect((await dialCall(pass.id, s.body.token, { kind: 'dial', dialId: 'housing_k', value: 3 })).status).toBe(422);
     expect((await dialCall(pass.id, s.body.token, { kind: 'dial', dialId: 'spacer_length', value: 'wide' })).status).toBe(422);
     expect((await dialCall(pass.id, s.body.token, { kind: 'snapshot', dialId: 'spacer_length', value: 24.1 })).status).toBe(422);
+    // Give a wrongly queued event the time to be written before checking that nothing was stored.
+    await new Promise((r) => setTimeout(r, 1000));
     expect(count('pass_events')).toBe(before);
     const detail = await checker.json<{ pass: PassJson & { daily: { day: string; load: number; dial: number }[] } }>('GET', `/api/passes/${pass.id}`);
     expect(detail.body.pass.counts).toEqual({ load: 2, dial: 1, snapshot: 0 });

@@ -1,8 +1,9 @@
 /* eslint-disable @typescript-eslint/no-explicit-any -- these tests edit model JSON freely to build variants and bad inputs */
 /**
- * The engine in a real Chromium web worker gives the same numbers, bit for bit, as the
- * engine in Node: every statistic of the three example models and a hash of every sample
- * column. The worker and the page are bundled with esbuild and served from 127.0.0.1.
+ * The engine on a pool of 1, 2 or 4 real Chromium web workers gives the same numbers, bit
+ * for bit, as the engine in Node on one thread (what the server runs): every statistic of
+ * the example models and a hash of every sample column. The worker and the page are
+ * bundled with esbuild and served from 127.0.0.1.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { build } from 'esbuild';
@@ -21,7 +22,8 @@ const root = path.resolve(__dirname, '../../..');
 const clone = <T>(x: T): T => JSON.parse(JSON.stringify(x));
 function variant(model: object, settings: object, edit?: (m: any) => void) {
   const m = clone(model) as any;
-  m.settings = { ...m.settings, ...settings, trials: 20_000 };
+  // 40,000 trials: two full chunks and a short one, so every pool size splits the run.
+  m.settings = { ...m.settings, ...settings, trials: 40_000 };
   edit?.(m);
   return m;
 }
@@ -79,17 +81,23 @@ afterAll(async () => {
   if (dir) rmSync(dir, { recursive: true, force: true });
 });
 
-describe('engine worker in Chromium', () => {
-  it('matches the Node run bit for bit for every example model and sampler', async () => {
+const nodeRuns: Record<string, Fingerprint> = {};
+
+describe('engine worker pool in Chromium', () => {
+  beforeAll(() => {
+    for (const [name, model] of Object.entries(MODELS)) nodeRuns[name] = fingerprint(runModelSync(model, { samples: 'all' }));
+  });
+
+  it.each([1, 2, 4])('%i workers match the Node run bit for bit for every example model and sampler', async (workers) => {
     const page = await browser.newPage();
     const errors: string[] = [];
     page.on('pageerror', (e) => errors.push(e.message));
     await page.goto(base);
     await page.waitForFunction(() => 'engineParity' in window);
-    const inBrowser = (await page.evaluate((models) => window.engineParity.run(models), MODELS)) as Record<string, Fingerprint>;
+    const inBrowser = (await page.evaluate(([models, w]) => window.engineParity.run(models, w), [MODELS, workers] as const)) as Record<string, Fingerprint>;
     expect(errors).toEqual([]);
-    for (const [name, model] of Object.entries(MODELS)) {
-      const node = fingerprint(runModelSync(model, { samples: 'all' }));
+    for (const name of Object.keys(MODELS)) {
+      const node = nodeRuns[name];
       expect(inBrowser[name].sampleKinds.every((k) => k === '[object Float64Array]')).toBe(true);
       expect({ model: name, columns: inBrowser[name].columns }).toEqual({ model: name, columns: node.columns });
       expect(inBrowser[name].samples).toBe(node.samples);

@@ -162,3 +162,18 @@ describe('spreadGeometry', () => {
     expect(spreadScene(empty).description).toMatch(/No results/);
   });
 });
+
+describe('the noun of a histogram', () => {
+  it('says trials for a simulation and takes the caller’s noun for measured data', async () => {
+    const { describeSpread } = await import('@/lib/charts/spread');
+    const bins = binValues(normals(400, 'noun', 12, 0.02));
+    const sim = spreadGeometry({ bins, name: 'Gap', unit: 'mm', width: 600, limits: { lower: 11.97 } });
+    expect(sim.yAxis.title).toBe('Share of trials');
+    expect(describeSpread(sim)).toMatch(/% of trials\./);
+    const data = spreadGeometry({ bins, name: 'Bore', unit: 'mm', width: 600, noun: 'measurements', limits: { lower: 11.97 } });
+    expect(data.yAxis.title).toBe('Share of measurements');
+    expect(describeSpread(data)).toMatch(/% of measurements\./);
+    expect(describeSpread(data)).toMatch(/of measurements fall beyond the limit/);
+    expect(describeSpread(data)).not.toMatch(/trials/);
+  });
+});

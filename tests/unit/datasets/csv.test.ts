@@ -47,6 +47,38 @@ describe('reading an uploaded CSV', () => {
     expect(latin1.ok).toBe(false);
   });
 
+  it('reads a sheet saved as "Unicode text": UTF-16 with a byte-order mark, tab-separated, decimal commas', () => {
+    const text = 'Part\tLength, mm\tNote\r\nA\t12,01\tµ-check\r\nB\t11,98\t\r\nC\t12,03\tok\r\n';
+    const le = new Uint8Array(2 + text.length * 2);
+    le.set([0xff, 0xfe]);
+    const be = new Uint8Array(2 + text.length * 2);
+    be.set([0xfe, 0xff]);
+    for (let i = 0; i < text.length; i++) {
+      const c = text.charCodeAt(i);
+      le[2 + 2 * i] = c & 0xff;
+      le[3 + 2 * i] = c >> 8;
+      be[2 + 2 * i] = c >> 8;
+      be[3 + 2 * i] = c & 0xff;
+    }
+    for (const [name, b] of [['sheet-le.txt', le], ['sheet-be.txt', be]] as const) {
+      const r = readCsv(b, name);
+      if (!r.ok) throw new Error(`${name}: ${r.message}`);
+      expect(r.table.headers).toEqual(['Part', 'Length, mm', 'Note']);
+      const col = readColumn(r.table, 1);
+      expect(col.values).toEqual([12.01, 11.98, 12.03]);
+      expect(col.decimalComma).toBe(true);
+      expect(r.table.rows[0]!.cells[2]).toBe('µ-check');
+    }
+    // Without a byte-order mark, plain ASCII UTF-16LE is still recognised by its zero high bytes.
+    const ascii = 'x\n1.5\n2.5\n';
+    const bare = new Uint8Array(ascii.length * 2);
+    for (let i = 0; i < ascii.length; i++) bare[2 * i] = ascii.charCodeAt(i);
+    const r = readCsv(bare, 'bare.txt');
+    expect(r.ok && readColumn(r.table, 0).values).toEqual([1.5, 2.5]);
+    // An odd number of bytes after a UTF-16 mark is not text.
+    expect(readCsv(new Uint8Array([0xff, 0xfe, 0x31, 0x00, 0x0a]), 'cut.txt').ok).toBe(false);
+  });
+
   it('refuses a formula-injection cell anywhere in the file, naming row and column', () => {
     for (const [cell, ch] of [['=HYPERLINK("http://x")', '='], ['+cmd|x', '+'], ['-2+3', '-'], ['@SUM(A1)', '@']] as const) {
       const r = readCsv(bytes(`note,length\nok,12.0\n"${cell.replace(/"/g, '""')}",12.1\n`), 'inj.csv');

@@ -35,12 +35,13 @@ describe('the empirical distribution of a dataset', () => {
 
   it('fitted-law choices are valid engine distributions and carry the dataset hash', () => {
     const ds = { id: 'ds1', hash: 'abc', name: 'Spacer', values: [1, 2, 3] };
-    const c = fittedChoice(ds, 'weibull', { shape: 2, scale: 3 })!;
+    const c = fittedChoice(ds, 'weibull', { shape: 2, scale: 3 });
     expect(distributionSchema.safeParse(c.distribution).success).toBe(true);
     expect(c.source).toEqual({ datasetId: 'ds1', hash: 'abc', name: 'Spacer', method: 'weibull' });
-    expect(fittedChoice(ds, 'normal', { mean: 2, sd: 1 })!.stackDistribution).toEqual({ type: 'normal-fit', data: [1, 2, 3] });
-    // The engine has no gamma law.
-    expect(lawToDistribution('gamma', { shape: 2, scale: 1 })).toBeNull();
+    expect(fittedChoice(ds, 'normal', { mean: 2, sd: 1 }).stackDistribution).toEqual({ type: 'normal-fit', data: [1, 2, 3] });
+    // A gamma fit feeds a model with its shape and scale.
+    expect(lawToDistribution('gamma', { shape: 2, scale: 1 })).toEqual({ type: 'gamma', shape: 2, scale: 1 });
+    expect(distributionSchema.safeParse(fittedChoice(ds, 'gamma', { shape: 2.5, scale: 0.4 }).distribution).success).toBe(true);
     expect(distributionSchema.safeParse(empiricalChoice(ds).distribution).success).toBe(true);
   });
 });

@@ -134,7 +134,7 @@ describe('every bad input is refused with its path and a plain message', () => {
     );
     expect(issuesOf(exampleFormula, (m) => (m.inputs[4].distribution.points[1].y = -1))).toContain('inputs[4].distribution.points[1].y: A density cannot be negative (found -1).');
     expect(issuesOf(exampleFormula, (m) => (m.inputs[4].distribution.points[2].x = 0.9))[0]).toMatch(/^inputs\[4\]\.distribution\.points\[2\]\.x: Points must go left to right/);
-    expect(issuesOf(exampleFormula, (m) => (m.inputs[0].distribution = { type: 'gamma', shape: 2 }))[0]).toMatch(/^inputs\[0\]\.distribution\.type: Choose a distribution type/);
+    expect(issuesOf(exampleFormula, (m) => (m.inputs[0].distribution = { type: 'beta', shape: 2 }))[0]).toMatch(/^inputs\[0\]\.distribution\.type: Choose a distribution type/);
     expect(issuesOf(exampleFormula, (m) => (m.inputs[0].distribution.mean = 'abc'))).toContain('inputs[0].distribution.mean: The mean must be a finite number.');
     expect(issuesOf(exampleFormula, (m) => (m.template = 'spreadsheet'))[0]).toMatch(/^template: The template is/);
   });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { exampleCostRange, exampleFormula, exampleLinearStack, runModelSync, type RunResult } from '@/lib/engine';
-import { headlineFigure } from '@/lib/results/headline';
+import { normalEstimateNote, headlineFigure } from '@/lib/results/headline';
 import { HEADLINES } from '@/lib/models/widget-options';
 import { formatPercent, formatPpm, formatValue } from '@/lib/charts/format';
 
@@ -65,4 +65,16 @@ describe('sample budget of the results preview', () => {
     expect(SAMPLE_BUDGET).toBe(4_000_000);
     expect(samplesFor(null)).toBe('all');
   });
+
+  it('says what the normal estimate assumes and why it differs from the count', () => {
+    const h = headlineFigure(stack, 'ppm');
+    const mc = stack.stack!.monteCarlo;
+    expect(h.sub).toContain(`a normal gap with this mean and standard deviation would give ${formatPpm(mc.ppmNormal!)}`);
+    // The figures from the demo report: 8580 counted, 18 900 from a normal curve: bounded contributors.
+    expect(normalEstimateNote(8580, 18_900)).toMatch(/the count is lower because the simulated gap’s tails are shorter than a bell curve’s/);
+    expect(normalEstimateNote(18_900, 8580)).toMatch(/the count is higher because .* longer/);
+    expect(normalEstimateNote(1000, 1100)).toMatch(/close to the count/);
+    expect(normalEstimateNote(10, null)).toBeNull();
+  });
 });
+

@@ -61,5 +61,5 @@ export async function viewerFor(s: { firmId: string; passId: string; clientId: s
   const pass = (await getPassForEmbed(s.passId))!;
   const client = (await getClientById(s.clientId))!;
   const widget = (await getPublishedWidget(s.firmId, s.widgetId))!;
-  return { ok: true, pass, client, widget, passJti: randomUUID(), passExpiresAt: 0, session: {} as Viewer['session'] };
+  return { ok: true, pass, client, widget, logoHash: null, passJti: randomUUID(), passExpiresAt: 0, session: {} as Viewer['session'] };
 }

@@ -36,7 +36,7 @@ export const POST = route(async (req) => {
     origin = o.origin;
   }
   const session = await mintSessionToken({ passId: r.pass.id, passJti: r.passJti, keyVersion: r.client.keyVersion, origin }, r.passExpiresAt);
-  await noteLoad(r.pass);
+  noteLoad(r.pass);
   const res: EmbedSessionResponse = { token: session.token, expiresAt: session.expiresAt, passId: r.pass.id };
   return NextResponse.json(res, { headers: { 'Cache-Control': 'no-store' } });
 });

@@ -1,0 +1,106 @@
+import 'server-only';
+import fs from 'node:fs';
+import path from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { Piscina } from 'piscina';
+import type { RunResult } from '@/lib/engine';
+import { runLimits } from './limits';
+import type { RunFailure, RunTask } from './pool-worker';
+
+// Every server-side run goes through this pool of worker threads (piscina), never the request thread: a big run
+// of one firm leaves the event loop free for everyone else's requests. One pool per process.
+
+/** The run passed its time limit; its thread was stopped (and replaced). */
+export class RunTimeoutError extends Error {
+  constructor(readonly limitMs: number) {
+    super(`The run did not finish within ${limitMs / 1000} s and was stopped.`);
+    this.name = 'RunTimeoutError';
+  }
+}
+
+/** Every thread is busy and the queue is full. */
+export class RunQueueFullError extends Error {
+  constructor() {
+    super('Every run thread is busy and the queue is full.');
+    this.name = 'RunQueueFullError';
+  }
+}
+
+export type PoolReply = { ok: true; json: Uint8Array } | { ok: true; result: RunResult } | { ok: false; failure: RunFailure };
+
+interface PoolState {
+  pool: Piscina;
+  file: string;
+  /** Tasks handed to the pool and not yet settled (queued or running). */
+  pending: number;
+}
+
+const g = globalThis as unknown as { __stochosRunPool?: PoolState };
+
+/** The bundled worker (lib/simulate/build-worker.mjs); SIMULATE_WORKER_FILE points elsewhere (tests). */
+export function workerFile(): string {
+  return path.resolve(process.env.SIMULATE_WORKER_FILE || path.join(process.cwd(), '.next/workers/simulate-worker.mjs'));
+}
+
+function state(): PoolState {
+  const file = workerFile();
+  if (g.__stochosRunPool && g.__stochosRunPool.file === file) return g.__stochosRunPool;
+  if (!fs.existsSync(file)) throw new Error(`The run worker ${file} is missing: run \`npm run build\` (or node lib/simulate/build-worker.mjs).`);
+  const l = runLimits();
+  const pool = new Piscina({
+    filename: pathToFileURL(file).href,
+    minThreads: 1,
+    maxThreads: l.threads,
+    maxQueue: l.maxQueue,
+    idleTimeout: 60_000,
+    concurrentTasksPerWorker: 1,
+  });
+  g.__stochosRunPool = { pool, file, pending: 0 };
+  return g.__stochosRunPool;
+}
+
+/** Runs a task on the pool; past `timeLimitMs` (counted from now, queue wait included) the task is aborted. */
+export async function runOnPool(task: RunTask, timeLimitMs = runLimits().timeLimitMs): Promise<PoolReply> {
+  const s = state();
+  const controller = new AbortController();
+  const timer = setTimeout(() => controller.abort(), timeLimitMs);
+  s.pending++;
+  try {
+    const out = (await s.pool.run(task, { signal: controller.signal })) as Uint8Array | PoolReply;
+    // A JSON body arrives as bare bytes (moved, not copied).
+    return out instanceof Uint8Array ? { ok: true, json: out } : out;
+  } catch (err) {
+    // piscina rejects an aborted task with its AbortError and terminates the thread that was running it.
+    if (controller.signal.aborted) throw new RunTimeoutError(timeLimitMs);
+    if (err instanceof Error && /queue is at limit/i.test(err.message)) throw new RunQueueFullError();
+    throw err;
+  } finally {
+    clearTimeout(timer);
+    s.pending--;
+  }
+}
+
+export interface PoolStats {
+  /** Threads alive now (idle ones stop after a minute; one stays). */
+  threads: number;
+  maxThreads: number;
+  /** Runs on a thread now. */
+  running: number;
+  /** Runs waiting for a thread. */
+  queued: number;
+}
+
+export function poolStats(): PoolStats {
+  const l = runLimits();
+  const s = g.__stochosRunPool;
+  if (!s) return { threads: 0, maxThreads: l.threads, running: 0, queued: 0 };
+  const queued = s.pool.queueSize;
+  return { threads: s.pool.threads.length, maxThreads: l.threads, running: Math.max(0, s.pending - queued), queued };
+}
+
+/** Stops the pool's threads (tests, shutdown). */
+export async function closePool(): Promise<void> {
+  const s = g.__stochosRunPool;
+  g.__stochosRunPool = undefined;
+  if (s) await s.pool.destroy();
+}

@@ -1,0 +1,31 @@
+/**
+ * Node worker_threads entry for the engine's chunks (the bench's parallel R1 and the
+ * worker-threads parity test): the same runChunks the browser workers run. Bundled with
+ * esbuild by node-engine-pool.ts.
+ */
+import { parentPort } from 'node:worker_threads';
+import { ChunkRunner, prepareRun, type ChunkPart } from '@/lib/engine/chunks';
+
+export interface NodeChunksRequest {
+  id: number;
+  model: unknown;
+  dialValues?: Record<string, number>;
+  chunkIndices: number[];
+  inputWindow: number;
+}
+
+export type NodeChunksResponse = { id: number; parts: ChunkPart[]; error?: undefined } | { id: number; parts?: undefined; error: string };
+
+const runner = new ChunkRunner({ cache: true });
+
+parentPort?.on('message', (req: NodeChunksRequest) => {
+  try {
+    const prep = prepareRun(req.model, req.dialValues);
+    runner.beginRun();
+    const parts = runner.run(prep, req.chunkIndices, { inputWindow: req.inputWindow });
+    const transfer = parts.flatMap((p) => Object.values(p.outputs).map((a) => a.buffer as ArrayBuffer));
+    parentPort?.postMessage({ id: req.id, parts } satisfies NodeChunksResponse, transfer);
+  } catch (err) {
+    parentPort?.postMessage({ id: req.id, error: err instanceof Error ? err.message : String(err) } satisfies NodeChunksResponse);
+  }
+});
