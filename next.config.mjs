@@ -14,7 +14,7 @@ const nextConfig = {
   // `npm test` type-checks the whole project with `tsc --noEmit` first; the build need not do it twice.
   typescript: { ignoreBuildErrors: true },
   // Native and Node-only packages stay out of the server bundle.
-  serverExternalPackages: ['better-sqlite3', 'knex', 'pdfkit', 'svg-to-pdfkit', 'smtp-server', 'mailparser', 'nodemailer', 'piscina'],
+  serverExternalPackages: ['better-sqlite3', 'knex', 'pg', 'pdfkit', 'svg-to-pdfkit', 'smtp-server', 'mailparser', 'nodemailer', 'piscina'],
   async headers() {
     return [
       {

@@ -38,6 +38,21 @@ export default defineConfig({
           fileParallelism: false,
         },
       },
+      // Only under `npm run test:postgres` (tests/postgres/run.sh), which starts the PostgreSQL cluster these need.
+      ...(process.env.STOCHOS_TEST_PG_URL
+        ? [
+            {
+              resolve: { alias },
+              test: {
+                name: 'postgres',
+                include: ['tests/postgres/**/*.test.ts'],
+                environment: 'node',
+                testTimeout: 300_000,
+                hookTimeout: 300_000,
+              },
+            },
+          ]
+        : []),
     ],
   },
 });

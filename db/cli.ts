@@ -1,7 +1,7 @@
 import 'server-only';
 import { getDb, closeDb } from '@/db/knex';
 import { seedDemo } from '@/db/seed/demo';
-import { env } from '@/lib/env';
+import { databaseTarget } from '@/db/knex';
 
 // npm run db:migrate | db:rollback | db:seed [-- --reset]
 async function main(): Promise<void> {
@@ -22,7 +22,8 @@ async function main(): Promise<void> {
       console.error('Usage: tsx db/cli.ts migrate | rollback [--all] | seed [--reset]');
       process.exitCode = 2;
     }
-    console.log(`Database file: ${env().DATABASE_FILE}`);
+    // A URL's password is never printed.
+    console.log(`Database: ${databaseTarget().replace(/\/\/([^:@/]+):[^@/]*@/, '//$1:***@')}`);
   } finally {
     await closeDb();
   }

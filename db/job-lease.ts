@@ -2,6 +2,7 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { getDb, writeTransaction } from '@/db/knex';
 import { nowIso } from '@/db/ids';
+import { forUpdateSkipLocked, isPostgres } from '@/db/dialect';
 
 // Lease-based job rows shared by the outgoing-work queues (snapshot_jobs, mail_jobs). Each table has the columns
 // id, state, attempts, next_attempt_at, locked_by, locked_until, created_at, updated_at. A job moves
@@ -22,8 +23,8 @@ export interface Claim<R> {
 
 /** Takes the next due job for `workerId` with a lease until `leaseUntil`; `columns` are selected with alias `j`. */
 export async function claimNext(spec: LeaseSpec, columns: string[], workerId: string, leaseUntil: string, now = nowIso()): Promise<Claim<Record<string, unknown>> | null> {
-  return writeTransaction(async (trx) => {
-    const r = (await trx(`${spec.table} as j`)
+  const claim = async (trx: Knex.Transaction): Promise<Claim<Record<string, unknown>> | null> => {
+    const due = trx(`${spec.table} as j`)
       .where((w) =>
         w
           .where((a) => a.where('j.state', 'queued').where('j.next_attempt_at', '<=', now))
@@ -31,8 +32,8 @@ export async function claimNext(spec: LeaseSpec, columns: string[], workerId: st
       )
       .orderBy('j.next_attempt_at')
       .orderBy('j.created_at')
-      .select(columns)
-      .first()) as Record<string, unknown> | undefined;
+      .select(columns);
+    const r = (await forUpdateSkipLocked(trx, due).first()) as Record<string, unknown> | undefined;
     if (!r) return null;
     if (r.state === 'sending') {
       await trx(spec.table).where({ id: r.id, state: 'sending' }).update({ locked_by: workerId, locked_until: leaseUntil, updated_at: now });
@@ -41,7 +42,11 @@ export async function claimNext(spec: LeaseSpec, columns: string[], workerId: st
     const attempts = Number(r.attempts) + 1;
     await trx(spec.table).where({ id: r.id, state: r.state }).update({ state: spec.workState, attempts, locked_by: workerId, locked_until: leaseUntil, updated_at: now });
     return { row: { ...r, state: spec.workState, attempts, locked_by: workerId, locked_until: leaseUntil }, orphaned: false };
-  });
+  };
+  // SQLite: the write lock makes the read and the claim one step. PostgreSQL: any number of workers claim at once,
+  // each skipping the rows another has locked, in an ordinary transaction.
+  const db = getDb();
+  return isPostgres(db) ? db.transaction(claim) : writeTransaction(claim);
 }
 
 /** Moves a job this worker holds from one state to another; false when it no longer holds it. */

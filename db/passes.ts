@@ -2,6 +2,7 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';
+import { utcDay } from '@/db/dialect';
 
 // Passes (one client's access to one widget), the tokens issued for them, and their view events.
 
@@ -226,12 +227,15 @@ export interface DailyCounts {
 /** Events per UTC day over the last `days` days, oldest first, with empty days filled in. */
 export async function passDailyCounts(firmId: string, passId: string, days: number, now = new Date()): Promise<DailyCounts[]> {
   const start = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate() - (days - 1)));
-  const rows = await getDb()('pass_events')
+  const db = getDb();
+  const day = utcDay(db, 'at');
+  const rows = await db('pass_events')
     .where({ firm_id: firmId, pass_id: passId })
     .where('at', '>=', start.toISOString())
-    .select(getDb().raw('substr(at, 1, 10) as day'), 'kind')
+    .select(db.raw('? as day', [day]), 'kind')
     .count({ n: '*' })
-    .groupByRaw('substr(at, 1, 10), kind');
+    .groupBy(day)
+    .groupBy('kind');
   const out: DailyCounts[] = [];
   for (let i = 0; i < days; i++) {
     const d = new Date(start.getTime() + i * 86_400_000).toISOString().slice(0, 10);

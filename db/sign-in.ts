@@ -31,7 +31,9 @@ export async function consumeVerificationToken(identifier: string, tokenHash: st
   return getDb().transaction(async (trx) => {
     const row = await trx('verification_tokens').select('identifier', 'expires_at').where({ identifier: identifier.toLowerCase(), token_hash: tokenHash }).first();
     if (!row) return null;
-    await trx('verification_tokens').where({ identifier: identifier.toLowerCase(), token_hash: tokenHash }).delete();
+    // Only the request whose delete took the row may use it: two instances can read the same row at once.
+    const n = await trx('verification_tokens').where({ identifier: identifier.toLowerCase(), token_hash: tokenHash }).delete();
+    if (n !== 1) return null;
     return { identifier: row.identifier, expiresAt: row.expires_at };
   });
 }

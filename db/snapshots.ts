@@ -18,6 +18,8 @@ export interface SnapshotJob {
   versionId: string;
   recipient: string;
   dialValues: Record<string, number>;
+  /** A second, pinned view to show beside the first; null for a single view. */
+  pinnedDialValues: Record<string, number> | null;
   state: SnapshotState;
   attempts: number;
   nextAttemptAt: string;
@@ -41,6 +43,7 @@ const COLUMNS = [
   'j.version_id',
   'j.recipient',
   'j.dial_values',
+  'j.pinned_dial_values',
   'j.state',
   'j.attempts',
   'j.next_attempt_at',
@@ -65,6 +68,7 @@ function toJob(r: Record<string, unknown>): SnapshotJob {
     versionId: r.version_id as string,
     recipient: r.recipient as string,
     dialValues: JSON.parse(r.dial_values as string) as Record<string, number>,
+    pinnedDialValues: r.pinned_dial_values ? (JSON.parse(r.pinned_dial_values as string) as Record<string, number>) : null,
     state: r.state as SnapshotState,
     attempts: Number(r.attempts),
     nextAttemptAt: r.next_attempt_at as string,
@@ -90,6 +94,7 @@ export interface NewSnapshotJob {
   recipient: string;
   requesterHash: string;
   dialValues: Record<string, number>;
+  pinnedDialValues?: Record<string, number> | null;
   messageId: string;
   createdAt: string;
 }
@@ -105,6 +110,7 @@ export async function insertSnapshotJob(j: NewSnapshotJob, trx: Knex.Transaction
     recipient: j.recipient,
     requester_hash: j.requesterHash,
     dial_values: JSON.stringify(j.dialValues),
+    pinned_dial_values: j.pinnedDialValues ? JSON.stringify(j.pinnedDialValues) : null,
     state: 'queued',
     attempts: 0,
     next_attempt_at: j.createdAt,

@@ -45,12 +45,16 @@ export interface UserCredentials {
   name: string;
   passwordHash: string | null;
   sessionVersion: number;
+  /** Null until the owner of the address followed an e-mailed link (sign-up confirmation, sign-in link, reset). */
+  emailVerifiedAt: string | null;
 }
 
 /** Only the sign-in path reads the password hash; nothing else selects it. */
 export async function getUserCredentials(email: string): Promise<UserCredentials | null> {
-  const row = await getDb()('users').select('id', 'email', 'name', 'password_hash', 'session_version').where({ email: email.toLowerCase() }).first();
-  return row ? { id: row.id, email: row.email, name: row.name, passwordHash: row.password_hash, sessionVersion: row.session_version } : null;
+  const row = await getDb()('users').select('id', 'email', 'name', 'password_hash', 'session_version', 'email_verified_at').where({ email: email.toLowerCase() }).first();
+  return row
+    ? { id: row.id, email: row.email, name: row.name, passwordHash: row.password_hash, sessionVersion: row.session_version, emailVerifiedAt: row.email_verified_at ?? null }
+    : null;
 }
 
 export async function findUserIdByEmail(email: string, trx?: Knex.Transaction): Promise<string | null> {
@@ -84,6 +88,13 @@ export async function bumpSessionVersion(userId: string, trx?: Knex.Transaction)
   await (trx ?? getDb())('users').where({ id: userId }).increment('session_version', 1);
 }
 
+/** A new password ends every session of the user (their session version moves on). */
+export async function setPassword(userId: string, passwordHash: string, o: { verifyEmail: boolean }, trx: Knex.Transaction): Promise<void> {
+  await trx('users').where({ id: userId }).update({ password_hash: passwordHash });
+  await trx('users').where({ id: userId }).increment('session_version', 1);
+  if (o.verifyEmail) await trx('users').where({ id: userId }).whereNull('email_verified_at').update({ email_verified_at: nowIso() });
+}
+
 export async function touchLastActive(userId: string): Promise<void> {
   // At most once a minute per user, to keep writes off the hot path.
   const cutoff = new Date(Date.now() - 60_000).toISOString();
@@ -93,8 +104,8 @@ export async function touchLastActive(userId: string): Promise<void> {
     .update({ last_active_at: nowIso() });
 }
 
-export async function markEmailVerified(email: string): Promise<void> {
-  await getDb()('users').where({ email: email.toLowerCase() }).whereNull('email_verified_at').update({ email_verified_at: nowIso() });
+export async function markEmailVerified(userId: string): Promise<void> {
+  await getDb()('users').where({ id: userId }).whereNull('email_verified_at').update({ email_verified_at: nowIso() });
 }
 
 export async function hasActiveMembership(userId: string, trx?: Knex.Transaction): Promise<boolean> {

@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import { dropGuard, restrictValues } from '../db/dialect';
 
 // Firms, people, roles, invitations, sign-in tokens, attempts and the audit log.
 export async function up(knex: Knex): Promise<void> {
@@ -42,8 +43,7 @@ export async function up(knex: Knex): Promise<void> {
     t.unique(['firm_id', 'user_id']);
     t.index(['user_id', 'status']);
   });
-  await knex.raw(`CREATE TRIGGER memberships_role_check BEFORE INSERT ON memberships
-    WHEN NEW.role NOT IN ('owner','author','checker') BEGIN SELECT RAISE(ABORT, 'invalid role'); END`);
+  await restrictValues(knex, { table: 'memberships', column: 'role', values: ['owner', 'author', 'checker'], name: 'memberships_role_check', message: 'invalid role' });
 
   await knex.schema.createTable('invitations', (t) => {
     t.string('id', 36).primary();
@@ -79,7 +79,8 @@ export async function up(knex: Knex): Promise<void> {
     t.string('actor_user_id', 36).references('users.id').onDelete('SET NULL');
     t.string('action', 64).notNullable();
     t.string('target_type', 32);
-    t.string('target_id', 64);
+    // Stripe ids (checkout sessions, events) run past 64 characters; SQLite never checked the length, PostgreSQL does.
+    t.string('target_id', 255);
     t.text('detail');
     t.timestamp('at').notNullable();
     t.index(['firm_id', 'at']);
@@ -87,6 +88,7 @@ export async function up(knex: Knex): Promise<void> {
 }
 
 export async function down(knex: Knex): Promise<void> {
+  await dropGuard(knex, 'memberships', 'memberships_role_check');
   for (const table of ['audit_log', 'sign_in_attempts', 'verification_tokens', 'invitations', 'memberships', 'users', 'firms', 'write_lock']) {
     await knex.schema.dropTableIfExists(table);
   }

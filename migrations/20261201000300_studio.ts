@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import { dropGuard, refuseUpdate, restrictValues } from '../db/dialect';
 
 // Authoring studio: models, their immutable versions with the checker's decision, and published widgets.
 export async function up(knex: Knex): Promise<void> {
@@ -16,8 +17,7 @@ export async function up(knex: Knex): Promise<void> {
     t.timestamp('archived_at');
     t.index(['firm_id', 'archived_at']);
   });
-  await knex.raw(`CREATE TRIGGER models_template_check BEFORE INSERT ON models
-    WHEN NEW.template NOT IN ('linear-stack','cost-range','formula') BEGIN SELECT RAISE(ABORT, 'invalid template'); END`);
+  await restrictValues(knex, { table: 'models', column: 'template', values: ['linear-stack', 'cost-range', 'formula'], name: 'models_template_check', message: 'invalid template' });
 
   await knex.schema.createTable('model_versions', (t) => {
     t.string('id', 36).primary();
@@ -37,19 +37,27 @@ export async function up(knex: Knex): Promise<void> {
     t.unique(['model_id', 'number']);
     t.index(['firm_id', 'check_state']);
   });
-  await knex.raw(`CREATE TRIGGER model_versions_state_check BEFORE INSERT ON model_versions
-    WHEN NEW.check_state NOT IN ('unchecked','signed_off','sent_back') BEGIN SELECT RAISE(ABORT, 'invalid check state'); END`);
+  await restrictValues(knex, {
+    table: 'model_versions',
+    column: 'check_state',
+    values: ['unchecked', 'signed_off', 'sent_back'],
+    name: 'model_versions_state_check',
+    message: 'invalid check state',
+  });
   // A saved version is immutable: only the checker's decision may be written to it afterwards, once.
   // (A deleted user's id may still be cleared by the foreign key's SET NULL.)
-  await knex.raw(`CREATE TRIGGER model_versions_immutable BEFORE UPDATE ON model_versions
-    WHEN NEW.model_json IS NOT OLD.model_json OR NEW.number IS NOT OLD.number OR NEW.model_id IS NOT OLD.model_id
+  await refuseUpdate(knex, {
+    table: 'model_versions',
+    name: 'model_versions_immutable',
+    message: 'model versions are immutable',
+    when: `NEW.model_json IS NOT OLD.model_json OR NEW.number IS NOT OLD.number OR NEW.model_id IS NOT OLD.model_id
       OR NEW.firm_id IS NOT OLD.firm_id OR NEW.created_at IS NOT OLD.created_at OR NEW.note IS NOT OLD.note
       OR (NEW.author_id IS NOT NULL AND NEW.author_id IS NOT OLD.author_id)
       OR NEW.check_state NOT IN ('unchecked','signed_off','sent_back')
       OR (OLD.check_state <> 'unchecked' AND (NEW.check_state IS NOT OLD.check_state OR NEW.checked_at IS NOT OLD.checked_at
         OR NEW.check_note IS NOT OLD.check_note OR NEW.check_comments IS NOT OLD.check_comments
-        OR (NEW.checker_id IS NOT NULL AND NEW.checker_id IS NOT OLD.checker_id)))
-    BEGIN SELECT RAISE(ABORT, 'model versions are immutable'); END`);
+        OR (NEW.checker_id IS NOT NULL AND NEW.checker_id IS NOT OLD.checker_id)))`,
+  });
 
   await knex.schema.createTable('widgets', (t) => {
     t.string('id', 36).primary();
@@ -76,8 +84,8 @@ export async function up(knex: Knex): Promise<void> {
 
 export async function down(knex: Knex): Promise<void> {
   await knex.raw('DROP INDEX IF EXISTS widgets_one_live_per_model');
-  await knex.raw('DROP TRIGGER IF EXISTS model_versions_immutable');
-  await knex.raw('DROP TRIGGER IF EXISTS model_versions_state_check');
-  await knex.raw('DROP TRIGGER IF EXISTS models_template_check');
+  await dropGuard(knex, 'model_versions', 'model_versions_immutable');
+  await dropGuard(knex, 'model_versions', 'model_versions_state_check');
+  await dropGuard(knex, 'models', 'models_template_check');
   for (const table of ['widgets', 'model_versions', 'models']) await knex.schema.dropTableIfExists(table);
 }

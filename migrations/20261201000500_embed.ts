@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import { dropGuard, restrictValues } from '../db/dialect';
 
 // Embedding: the firm's clients (allowed origins and e-mail domains, key version), passes granting one client
 // one widget, the signed tokens issued for each pass (revoking one denylists its jti), and view analytics.
@@ -63,12 +64,11 @@ export async function up(knex: Knex): Promise<void> {
     t.index(['pass_id', 'at']);
     t.index(['firm_id', 'at']);
   });
-  await knex.raw(`CREATE TRIGGER pass_events_kind_check BEFORE INSERT ON pass_events
-    WHEN NEW.kind NOT IN ('load','dial','snapshot') BEGIN SELECT RAISE(ABORT, 'invalid pass event'); END`);
+  await restrictValues(knex, { table: 'pass_events', column: 'kind', values: ['load', 'dial', 'snapshot'], name: 'pass_events_kind_check', message: 'invalid pass event' });
 }
 
 export async function down(knex: Knex): Promise<void> {
-  await knex.raw('DROP TRIGGER IF EXISTS pass_events_kind_check');
+  await dropGuard(knex, 'pass_events', 'pass_events_kind_check');
   await knex.raw('DROP INDEX IF EXISTS clients_firm_name');
   for (const table of ['pass_events', 'pass_tokens', 'passes', 'clients']) await knex.schema.dropTableIfExists(table);
 }

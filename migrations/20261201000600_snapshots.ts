@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import { dropGuard, restrictValues } from '../db/dialect';
 
 // Snapshot jobs: a viewer's request for a PDF of the view they explored, queued and delivered by the worker.
 // States: queued → rendering → sending → sent, or failed. A lease (locked_until) lets another worker take over a
@@ -34,14 +35,18 @@ export async function up(knex: Knex): Promise<void> {
     t.index(['pass_id', 'created_at']);
     t.index(['requester_hash', 'created_at']);
   });
-  await knex.raw(`CREATE TRIGGER snapshot_jobs_state_check BEFORE INSERT ON snapshot_jobs
-    WHEN NEW.state NOT IN ('queued','rendering','sending','sent','failed') BEGIN SELECT RAISE(ABORT, 'invalid snapshot state'); END`);
-  await knex.raw(`CREATE TRIGGER snapshot_jobs_state_update_check BEFORE UPDATE OF state ON snapshot_jobs
-    WHEN NEW.state NOT IN ('queued','rendering','sending','sent','failed') BEGIN SELECT RAISE(ABORT, 'invalid snapshot state'); END`);
+  await restrictValues(knex, {
+    table: 'snapshot_jobs',
+    column: 'state',
+    values: ['queued', 'rendering', 'sending', 'sent', 'failed'],
+    name: 'snapshot_jobs_state_check',
+    onUpdate: 'snapshot_jobs_state_update_check',
+    message: 'invalid snapshot state',
+  });
 }
 
 export async function down(knex: Knex): Promise<void> {
-  await knex.raw('DROP TRIGGER IF EXISTS snapshot_jobs_state_update_check');
-  await knex.raw('DROP TRIGGER IF EXISTS snapshot_jobs_state_check');
+  await dropGuard(knex, 'snapshot_jobs', 'snapshot_jobs_state_update_check');
+  await dropGuard(knex, 'snapshot_jobs', 'snapshot_jobs_state_check');
   await knex.schema.dropTableIfExists('snapshot_jobs');
 }

@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # npm test: installs what the tests need (Debian's Chromium when missing), then type check, lint,
-# production build, vitest (unit, integration, API) and Playwright end-to-end in Chromium.
+# production build, vitest (unit, integration, API) and Playwright end-to-end in Chromium on SQLite,
+# then the database and API tests on PostgreSQL (tests/postgres/run.sh installs postgresql when missing).
 set -euo pipefail
 cd "$(dirname "$0")/.."
 export NEXT_TELEMETRY_DISABLED=1
@@ -26,5 +27,8 @@ echo "== Playwright end-to-end in Chromium"
 status=0
 NODE_OPTIONS=--conditions=react-server PLAYWRIGHT_JSON_OUTPUT_NAME=.data/test-reports/playwright.json \
   npx playwright test --reporter=list,json || status=$?
-node tests/support/summarise.mjs
+echo "== PostgreSQL: the database and API tests again, on a throwaway cluster (npm run test:postgres)"
+bash tests/postgres/run.sh || status=$?
+r=.data/test-reports
+node tests/support/summarise.mjs --vitest $r/vitest.json --playwright $r/playwright.json --vitest $r/postgres-vitest.json --vitest $r/postgres-instances.json
 exit "$status"

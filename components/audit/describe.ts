@@ -19,6 +19,10 @@ export function describeAction(e: AuditEntry): string {
   switch (e.action) {
     case 'user.signed_in':
       return 'Signed in';
+    case 'user.password_changed':
+      return 'Changed their password (other sessions signed out)';
+    case 'user.password_reset':
+      return 'Set a new password with an e-mailed link (other sessions signed out)';
     case 'firm.created':
       return d.seeded ? 'Created the firm’s account (demo data)' : 'Created the firm’s account';
     case 'member.invited':
@@ -51,7 +55,7 @@ export function describeAction(e: AuditEntry): string {
   }
 }
 
-const TARGET_TYPE: Record<string, string> = { firm: 'Firm', member: 'Member', invitation: 'Invitation', model: 'Model', version: 'Version', widget: 'Widget', client: 'Client', pass: 'Pass' };
+const TARGET_TYPE: Record<string, string> = { user: 'Account', firm: 'Firm', member: 'Member', invitation: 'Invitation', model: 'Model', version: 'Version', widget: 'Widget', client: 'Client', pass: 'Pass' };
 
 /** What the action was about: the person's e-mail, the firm's name, or the kind of record. */
 export function describeTarget(e: AuditEntry): string {

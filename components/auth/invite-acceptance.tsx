@@ -8,7 +8,7 @@ import { signIn } from 'next-auth/react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
-import { nameField, passwordField } from '@/lib/auth/schemas';
+import { PASSWORD_RULE, nameField, passwordField } from '@/lib/auth/schemas';
 import { ApiError, api, applyServerErrors, fetcher } from '@/lib/client/api';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
@@ -88,7 +88,7 @@ function AcceptForm({ token, invitation }: { token: string; invitation: Invitati
         label="Password"
         type="password"
         autoComplete={existing ? 'current-password' : 'new-password'}
-        hint={existing ? 'The password of your existing Stochos account.' : 'Choose one: at least 10 characters.'}
+        hint={existing ? 'The password of your existing Stochos account.' : `Choose one. ${PASSWORD_RULE}`}
         error={errors.password?.message}
         {...register('password')}
       />

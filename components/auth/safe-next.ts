@@ -1,10 +1,4 @@
-/** Only same-site paths may follow sign-in; anything else goes to the dashboard. */
-export function safeNext(value: unknown, fallback = '/app'): string {
-  if (typeof value !== 'string') return fallback;
-  if (!value.startsWith('/') || value.startsWith('//') || value.startsWith('/\\')) return fallback;
-  return value;
-}
-
+export { safeNext } from '@/lib/auth/next-path';
 /** next-auth's `?error=` codes in plain words. */
 export const SIGN_IN_ERRORS: Record<string, string> = {
   Verification: 'That sign-in link has expired or was already used. Ask for a new one.',

@@ -54,6 +54,11 @@ function PasswordForm({ next, defaultEmail }: { next: string; defaultEmail: stri
       <FormError messages={messages} />
       <TextField label="E-mail" type="email" autoComplete="username" error={errors.email?.message} {...register('email')} />
       <TextField label="Password" type="password" autoComplete="current-password" error={errors.password?.message} {...register('password')} />
+      <p className="-mt-2 text-right text-sm">
+        <Link href="/reset-password" className="font-medium text-accent-800 underline">
+          Forgot your password?
+        </Link>
+      </p>
       <Button type="submit" className="w-full" pending={isSubmitting || leaving} pendingLabel="Signing in…">
         Sign in
       </Button>

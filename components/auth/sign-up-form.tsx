@@ -2,26 +2,22 @@
 
 import Link from 'next/link';
 import { useState } from 'react';
-import { useRouter } from 'next/navigation';
-import { signIn } from 'next-auth/react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { signUpSchema } from '@/lib/auth/schemas';
+import { PASSWORD_RULE, signUpSchema } from '@/lib/auth/schemas';
 import { api, applyServerErrors } from '@/lib/client/api';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';
-import { Banner } from '@/components/ui/banner';
+import { MailboxNotice } from './mailbox-notice';
 
 type In = z.input<typeof signUpSchema>;
 type Out = z.output<typeof signUpSchema>;
 
 export function SignUpForm() {
-  const router = useRouter();
   const [messages, setMessages] = useState<string[]>([]);
-  const [createdButNotSignedIn, setCreatedButNotSignedIn] = useState<string | null>(null);
-  const [leaving, setLeaving] = useState(false);
+  const [sent, setSent] = useState<{ email: string; firmName: string } | null>(null);
   const {
     register,
     handleSubmit,
@@ -37,21 +33,28 @@ export function SignUpForm() {
       setMessages(applyServerErrors(err, setError, ['firmName', 'name', 'email', 'password']));
       return;
     }
-    const res = await signIn('credentials', { email: values.email, password: values.password, redirect: false }).catch(() => null);
-    if (!res || res.error) {
-      setCreatedButNotSignedIn(res?.error && res.error !== 'CredentialsSignin' ? res.error : 'Signing in straight away did not work.');
-      return;
-    }
-    setLeaving(true);
-    router.replace('/app');
-    router.refresh();
+    setSent({ email: values.email, firmName: values.firmName });
   });
 
-  if (createdButNotSignedIn) {
+  if (sent) {
     return (
-      <Banner tone="warn" title="Your firm’s account is ready" action={<Link href="/sign-in">Sign in</Link>}>
-        {createdButNotSignedIn} Sign in with the e-mail and password you just chose.
-      </Banner>
+      <div className="space-y-4">
+        <h2 className="text-base font-semibold text-ink-900">Check your mailbox</h2>
+        <MailboxNotice email={sent.email}>
+          <p>
+            Open the link in it within 24 hours and enter the password you just chose: that confirms the address is yours and opens the account of {sent.firmName}. Until then,
+            nothing is created.
+          </p>
+          <p>If this address already has a Stochos account, the message says so instead: sign in, or set a new password if you forgot it.</p>
+          <p>
+            No message after a few minutes? Look in your spam folder, or{' '}
+            <button type="button" className="font-medium text-accent-800 underline" onClick={() => setSent(null)}>
+              try again
+            </button>
+            .
+          </p>
+        </MailboxNotice>
+      </div>
     );
   }
 
@@ -60,12 +63,18 @@ export function SignUpForm() {
       <FormError messages={messages} />
       <TextField label="Firm name" autoComplete="organization" hint="Your consultancy, as clients know it." error={errors.firmName?.message} {...register('firmName')} />
       <TextField label="Your name" autoComplete="name" error={errors.name?.message} {...register('name')} />
-      <TextField label="E-mail" type="email" autoComplete="email" hint="Your work address. You sign in with it." error={errors.email?.message} {...register('email')} />
-      <TextField label="Password" type="password" autoComplete="new-password" hint="At least 10 characters. A short sentence is easy to remember and hard to guess." error={errors.password?.message} {...register('password')} />
-      <Button type="submit" className="w-full" pending={isSubmitting || leaving} pendingLabel="Creating the account…">
+      <TextField label="E-mail" type="email" autoComplete="email" hint="Your work address. We send a link to it to confirm it is yours." error={errors.email?.message} {...register('email')} />
+      <TextField label="Password" type="password" autoComplete="new-password" hint={`${PASSWORD_RULE} A short sentence is easy to remember and hard to guess.`} error={errors.password?.message} {...register('password')} />
+      <Button type="submit" className="w-full" pending={isSubmitting} pendingLabel="Sending the confirmation…">
         Create account
       </Button>
-      <p className="text-xs text-ink-600">You become the account owner: you invite authors and checkers and manage seats. The owner takes no paid seat.</p>
+      <p className="text-xs text-ink-600">
+        You become the account owner: you invite authors and checkers and manage seats. The owner takes no paid seat. Already asked?{' '}
+        <Link href="/sign-in" className="underline">
+          Sign in
+        </Link>
+        .
+      </p>
     </form>
   );
 }

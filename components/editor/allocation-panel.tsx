@@ -124,7 +124,7 @@ export function AllocationPanel() {
   const issueFor = (row: number, field: string) => (outcome && !outcome.ok ? outcome.issues.find((i) => i.path[0] === 'rows' && i.path[1] === row && i.path.slice(2).join('.') === field) : undefined);
   const targetIssue = outcome && !outcome.ok ? outcome.issues.find((i) => i.path[0] === 'target') : undefined;
 
-  const targetText2 = (kind: 'ppm' | 'ppk', v: number) => (kind === 'ppm' ? `at most ${formatPpm(v)} ppm out of specification` : `a Ppk of at least ${formatFixed(v, 2)}`);
+  const targetText2 = (kind: 'ppm' | 'ppk', v: number) => (kind === 'ppm' ? `at most ${formatPpm(v)} out of specification` : `a Ppk of at least ${formatFixed(v, 2)}`);
   const confirmVerdict = (() => {
     if (!outcome?.ok || !mc) return null;
     if (outcome.target.kind === 'ppm') {
@@ -360,13 +360,13 @@ export function AllocationPanel() {
                 <div className="rounded-md border border-ink-200 px-3 py-2">
                   <dt className="text-xs text-ink-600">Predicted now (RSS, normal gap)</dt>
                   <dd className="num mt-0.5">
-                    {outcome.before.ppm === null ? '—' : `${formatPpm(outcome.before.ppm)} ppm`} · Ppk {outcome.before.ppk === null ? '—' : formatFixed(outcome.before.ppk, 2)}
+                    {outcome.before.ppm === null ? '—' : formatPpm(outcome.before.ppm)} · Ppk {outcome.before.ppk === null ? '—' : formatFixed(outcome.before.ppk, 2)}
                   </dd>
                 </div>
                 <div className="rounded-md border border-accent-200 bg-accent-50 px-3 py-2">
                   <dt className="text-xs text-ink-600">Predicted with the proposal</dt>
                   <dd className="num mt-0.5 font-semibold" data-testid="allocation-predicted">
-                    {outcome.after.ppm === null ? '—' : `${formatPpm(outcome.after.ppm)} ppm`} · Ppk {outcome.after.ppk === null ? '—' : formatFixed(outcome.after.ppk, 2)}
+                    {outcome.after.ppm === null ? '—' : formatPpm(outcome.after.ppm)} · Ppk {outcome.after.ppk === null ? '—' : formatFixed(outcome.after.ppk, 2)}
                   </dd>
                 </div>
                 <div className="rounded-md border border-ink-200 px-3 py-2">
@@ -374,7 +374,7 @@ export function AllocationPanel() {
                   <dd className="num mt-0.5" data-testid="allocation-confirm">
                     {mc ? (
                       <>
-                        {mc.ppmObserved === null ? '—' : `${formatPpm(mc.ppmObserved)} ppm`}
+                        {mc.ppmObserved === null ? '—' : formatPpm(mc.ppmObserved)}
                         {mc.ppmObservedCi ? ` (95 % ${formatPpm(mc.ppmObservedCi.low)} to ${formatPpm(mc.ppmObservedCi.high)})` : ''} · Ppk {mc.ppk === null ? '—' : formatFixed(mc.ppk, 2)}
                         {confirmVerdict ? (
                           <span className="mt-0.5 block">

@@ -86,7 +86,7 @@ function LineItems({ currency }: { currency: string }) {
                 <tr>
                   <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
                   <Td>
-                    <TextInput path={`${p}.name`} label={`Name of line item ${i + 1}`} hideLabel />
+                    <TextInput path={`${p}.name`} label={`Name of line item ${i + 1}`} hideLabel wrap />
                     <KeyInput path={`${p}.id`} label={`Key of line item ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
                   </Td>
                   <Td>
@@ -343,7 +343,7 @@ function RiskRegister({ currency }: { currency: string }) {
                 <tr>
                   <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
                   <Td>
-                    <TextInput path={`${p}.name`} label={`Name of risk ${i + 1}`} hideLabel />
+                    <TextInput path={`${p}.name`} label={`Name of risk ${i + 1}`} hideLabel wrap />
                     <KeyInput path={`${p}.id`} label={`Key of risk ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
                   </Td>
                   <Td>

@@ -104,19 +104,15 @@ export function DialsEditor({ model }: { model: StochosModel }) {
       {fields.length === 0 ? (
         <EmptyRows>No dials: viewers see the model exactly as set here. Add a dial for each question a client is likely to ask.</EmptyRows>
       ) : (
-        <ScrollTable caption="Dials" minWidth={1060}>
+        <ScrollTable caption="Dials" minWidth={600}>
           <thead>
             <tr>
-              <Th className="min-w-48">Label and key</Th>
-              <Th className="min-w-60">Moves</Th>
-              <Th className="w-20">Unit</Th>
-              <Th className="w-24">Minimum</Th>
-              <Th className="w-24">Maximum</Th>
-              <Th className="w-24">Step</Th>
-              <Th className="w-24">Default</Th>
-              <Th className="w-24">
-                <span className="sr-only">Row actions</span>
-              </Th>
+              <Th className="min-w-48">Label, key and what it moves</Th>
+              <Th className="w-14">Unit</Th>
+              <Th className="w-22">Minimum</Th>
+              <Th className="w-22">Maximum</Th>
+              <Th className="w-22">Step</Th>
+              <Th className="w-22">Default</Th>
             </tr>
           </thead>
           <tbody>
@@ -127,11 +123,15 @@ export function DialsEditor({ model }: { model: StochosModel }) {
                 <InlineMessages.Provider key={f._key} value={false}>
                 <tr>
                   <Td>
-                    <TextInput path={`${p}.label`} label={`Label of dial ${i + 1}`} hideLabel />
-                    <KeyInput path={`${p}.id`} label={`Key of dial ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
-                  </Td>
-                  <Td>
-                    <TargetSelect index={i} options={options} what={what} />
+                    {/* Label, key and target share one cell so a dial row fits a narrow editor column. */}
+                    <TextInput path={`${p}.label`} label={`Label of dial ${i + 1}`} hideLabel wrap />
+                    <div className="mt-1 flex items-start gap-1">
+                      <KeyInput path={`${p}.id`} label={`Key of dial ${i + 1}`} hideLabel className="min-w-0 flex-1" inputClassName="h-6! text-xs! text-ink-600" />
+                      <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} />
+                    </div>
+                    <div className="mt-1">
+                      <TargetSelect index={i} options={options} what={what} />
+                    </div>
                   </Td>
                   <Td>
                     <TextInput path={`${p}.unit`} label={`Unit of ${what}`} hideLabel mono maxLength={24} />
@@ -148,12 +148,9 @@ export function DialsEditor({ model }: { model: StochosModel }) {
                   <Td>
                     <NumberInput path={`${p}.default`} label={`Default of ${what}`} hideLabel />
                   </Td>
-                  <Td>
-                    <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => remove(i)} />
-                  </Td>
                 </tr>
                 </InlineMessages.Provider>,
-                <RowMessages key={`${f._key}-msg`} prefix={p} labels={DIAL_LABELS} colSpan={8} />,
+                <RowMessages key={`${f._key}-msg`} prefix={p} labels={DIAL_LABELS} colSpan={6} />,
               ];
             })}
           </tbody>

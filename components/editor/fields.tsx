@@ -185,16 +185,50 @@ interface TextInputProps {
   toValue?: (text: string) => unknown;
   /** Called after each change with the value before and after (e.g. to carry a renamed key to its references). */
   onValueChange?: (prev: unknown, next: unknown) => void;
+  /**
+   * A one-line value that wraps onto more lines instead of scrolling out of sight (long names in narrow table
+   * cells): a textarea that grows with its text and takes no line breaks.
+   */
+  wrap?: boolean;
 }
 
-export function TextInput({ path, label, hideLabel, hint, className, inputClassName, placeholder, dense = true, mono, maxLength, toValue, onValueChange }: TextInputProps) {
+export function TextInput({ path, label, hideLabel, hint, className, inputClassName, placeholder, dense = true, mono, maxLength, toValue, onValueChange, wrap }: TextInputProps) {
   const { control } = useFormContext();
   const { readOnly } = useEditor();
   const { field } = useController({ name: path, control });
   const value = field.value === undefined || field.value === null ? '' : String(field.value);
   return (
     <FieldShell path={path} label={label} hideLabel={hideLabel} hint={hint} className={className}>
-      {({ id, invalid, describedBy }) => (
+      {({ id, invalid, describedBy }) =>
+        wrap ? (
+          <textarea
+            id={id}
+            ref={field.ref}
+            name={field.name}
+            rows={1}
+            autoComplete="off"
+            spellCheck={mono ? false : undefined}
+            value={value}
+            readOnly={readOnly}
+            placeholder={placeholder}
+            maxLength={maxLength}
+            aria-invalid={invalid || undefined}
+            aria-describedby={describedBy}
+            // A name is one line of text: Enter does not break it, pasted line breaks become spaces.
+            onKeyDown={(e) => {
+              if (e.key === 'Enter') e.preventDefault();
+            }}
+            onChange={(e) => {
+              const prev = field.value;
+              const text = e.target.value.replace(/\s*[\r\n]+\s*/g, ' ');
+              const next = toValue ? toValue(text) : text;
+              field.onChange(next);
+              onValueChange?.(prev, next);
+            }}
+            onBlur={field.onBlur}
+            className={controlClasses(invalid, cx('block min-h-8 resize-none overflow-hidden px-2 py-[0.3125rem] text-sm leading-5 [field-sizing:content]', mono && 'num', inputClassName))}
+          />
+        ) : (
         <input
           id={id}
           ref={field.ref}
@@ -217,7 +251,8 @@ export function TextInput({ path, label, hideLabel, hint, className, inputClassN
           onBlur={field.onBlur}
           className={controlClasses(invalid, cx(dense ? 'h-8 px-2 text-sm' : 'h-10', mono && 'num', inputClassName))}
         />
-      )}
+        )
+      }
     </FieldShell>
   );
 }

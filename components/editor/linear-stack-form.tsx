@@ -94,7 +94,7 @@ export function LinearStackForm() {
             <thead>
               <tr>
                 <Th className="w-8">#</Th>
-                <Th className="min-w-56">Name and key</Th>
+                <Th className="min-w-60">Name and key</Th>
                 <Th className="w-28">Nominal</Th>
                 <Th className="w-24">Plus tol.</Th>
                 <Th className="w-24">Minus tol.</Th>
@@ -123,7 +123,7 @@ export function LinearStackForm() {
                   <tr className="group">
                     <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
                     <Td>
-                      <TextInput path={`${p}.name`} label={`Name of contributor ${i + 1}`} hideLabel />
+                      <TextInput path={`${p}.name`} label={`Name of contributor ${i + 1}`} hideLabel wrap />
                       <KeyInput path={`${p}.id`} label={`Key of contributor ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
                     </Td>
                     <Td>

@@ -261,7 +261,7 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
           )}
         </Card>
       ) : (
-        <div className="grid gap-5 xl:grid-cols-2">
+        <div className="grid gap-5 xl:grid-cols-[minmax(0,5fr)_minmax(0,3fr)]">
           <section aria-label="Model" className="min-w-0 space-y-4">
             {canEdit ? (
               <Card>

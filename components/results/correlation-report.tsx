@@ -12,8 +12,8 @@ export function StackCorrelationTerms({ a, format }: { a: StackAnalysis; format:
     { label: 'Standard deviation of the gap', without: format(a.independent.sd), with: format(a.statistical.sd) },
     {
       label: 'Out of specification, normal estimate',
-      without: a.independent.ppmNormal === null ? '—' : `${formatPpm(a.independent.ppmNormal)} ppm`,
-      with: a.statistical.ppmNormal === null ? '—' : `${formatPpm(a.statistical.ppmNormal)} ppm`,
+      without: a.independent.ppmNormal === null ? '—' : formatPpm(a.independent.ppmNormal),
+      with: a.statistical.ppmNormal === null ? '—' : formatPpm(a.statistical.ppmNormal),
     },
     { label: 'Ppk, normal estimate', without: a.independent.ppk === null ? '—' : formatFixed(a.independent.ppk, 2), with: a.statistical.ppk === null ? '—' : formatFixed(a.statistical.ppk, 2) },
   ];

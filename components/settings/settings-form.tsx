@@ -34,6 +34,7 @@ const PAPER_OPTIONS = [
 ];
 
 function BrandPreview({ colour }: { colour: string }) {
+  // The swatch's text is large (24 px bold), so WCAG AA asks 3:1 of it; the verdict below names both levels.
   const white = contrastRatio(colour, '#ffffff');
   const dark = contrastRatio(colour, '#141c22');
   if (white === null || dark === null) {
@@ -55,7 +56,7 @@ function BrandPreview({ colour }: { colour: string }) {
     <div className="flex flex-wrap items-center gap-3">
       <div
         aria-hidden="true"
-        className="num flex h-12 w-20 flex-none items-center justify-center rounded-md border border-ink-300 text-xl font-semibold shadow-inner"
+        className="num flex h-12 w-20 flex-none items-center justify-center rounded-md border border-ink-300 text-2xl font-bold shadow-inner"
         style={{ backgroundColor: colour, color: best.text }}
       >
         P80

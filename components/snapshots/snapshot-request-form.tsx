@@ -1,13 +1,14 @@
 'use client';
 
-import { useId, useState, type FormEvent } from 'react';
+import { useContext, useId, useState, type FormEvent } from 'react';
+import { PinnedViewContext } from '@/components/widget/pin-context';
 
 // "E-mail this view" inside the embed: an address, a send button, and the server's answer in plain words
 // (domain refusals, limits with their retry time). `send` posts with the embed page's bearer token.
 
 export interface SnapshotRequestFormProps {
-  /** Posts { email, dialValues, version } to /api/embed/passes/[id]/snapshots with the bearer; resolves to the Response. */
-  send: (body: { email: string; dialValues: Record<string, number>; version?: number }) => Promise<Response>;
+  /** Posts { email, dialValues, pinnedDialValues?, version } to /api/embed/passes/[id]/snapshots with the bearer; resolves to the Response. */
+  send: (body: { email: string; dialValues: Record<string, number>; pinnedDialValues?: Record<string, number>; version?: number }) => Promise<Response>;
   dialValues: Record<string, number>;
   version?: number;
 }
@@ -19,12 +20,14 @@ export function SnapshotRequestForm({ send, dialValues, version }: SnapshotReque
   const [email, setEmail] = useState('');
   const [phase, setPhase] = useState<Phase>({ kind: 'idle' });
   const id = useId().replace(/[^a-zA-Z0-9_-]/g, '');
+  // With a pinned view, the PDF shows both views side by side.
+  const pinned = useContext(PinnedViewContext);
 
   async function submit(e: FormEvent) {
     e.preventDefault();
     setPhase({ kind: 'sending' });
     try {
-      const res = await send({ email, dialValues, version });
+      const res = await send({ email, dialValues, version, ...(pinned ? { pinnedDialValues: pinned } : {}) });
       const body = (await res.json().catch(() => ({}))) as { message?: string; error?: { message?: string; fields?: Record<string, string[]> } };
       if (res.status === 202) setPhase({ kind: 'sent', message: body.message ?? `On its way to ${email}.` });
       else setPhase({ kind: 'error', message: body.error?.fields?.email?.[0] && res.status === 422 ? body.error.fields.email[0] : (body.error?.message ?? 'The request could not be sent. Try again.') });
@@ -49,7 +52,7 @@ export function SnapshotRequestForm({ send, dialValues, version }: SnapshotReque
     <form onSubmit={submit} className="flex flex-wrap items-end gap-2" noValidate>
       <div className="flex flex-col">
         <label htmlFor={`${id}-email`} className="text-xs font-medium text-ink-700">
-          Send a PDF of this view to
+          {pinned ? 'Send a PDF of both views (pinned and current) to' : 'Send a PDF of this view to'}
         </label>
         <input
           id={`${id}-email`}

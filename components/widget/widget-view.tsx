@@ -1,7 +1,6 @@
 'use client';
 
 import { useCallback, useId, useMemo, useState, type CSSProperties, type ReactNode } from 'react';
-import { validateModel } from '@/lib/engine/schema';
 import { cautionsFor, lowTrialCaution } from '@/lib/cautions';
 import { formatCount, formatDuration } from '@/lib/charts/format';
 import { headlineFigure } from '@/lib/results/headline';
@@ -15,7 +14,11 @@ import { useSimulation } from '@/components/results/use-simulation';
 import { brandColors } from './brand';
 import { DialControl } from './dial-control';
 import { atDefaults, initialDialValues, type DialSpec } from './dial-values';
+import { modelOutline } from './model-outline';
 import { WidgetChart, type ChartPanel } from './widget-panels';
+import { CompareView } from './compare-view';
+import { PinnedViewContext } from './pin-context';
+import type { RunResult } from '@/lib/engine';
 
 export type WidgetPanel = 'spread' | 'cumulative' | 'drivers' | 'headline';
 
@@ -68,19 +71,22 @@ const CHART_PANELS = new Set<string>(['spread', 'cumulative', 'drivers']);
  * changes. No dashboard or sign-in code: the embed page uses this as it is.
  */
 export function WidgetView({ model, widget, branding, versionInfo, onDialChange, initialDialValues: given, actions, headingLevel: H = 'h2', className }: WidgetViewProps) {
-  const checked = useMemo(() => validateModel(model), [model]);
+  // Read, not validated, here: the engine validates where it runs (modelOutline says why).
+  const outline = useMemo(() => modelOutline(model), [model]);
   const dials = useMemo<DialSpec[]>(() => {
-    if (!checked.ok) return [];
-    const byId = new Map(checked.model.dials.map((d) => [d.id, d]));
+    if (!outline.ok) return [];
+    const byId = new Map(outline.dials.map((d) => [d.id, d]));
     return widget.dialIds.flatMap((id) => {
       const d = byId.get(id);
-      return d ? [{ id: d.id, label: d.label, unit: d.unit, min: d.min, max: d.max, step: d.step, default: d.default }] : [];
+      return d ? [d] : [];
     });
-  }, [checked, widget.dialIds]);
+  }, [outline, widget.dialIds]);
 
   const [values, setValues] = useState<Record<string, number>>(() => initialDialValues(dials, given));
   // Bumped by a reset so each dial's half-typed text and message are cleared too.
   const [resets, setResets] = useState(0);
+  // A view the viewer pinned to compare with: its result as computed on screen (the dial values are in it).
+  const [pin, setPin] = useState<RunResult | null>(null);
   // Dials can change with a new model; keep only theirs, with defaults for new ones.
   const current = useMemo(() => {
     const out: Record<string, number> = {};
@@ -89,7 +95,9 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   }, [dials, values]);
 
   // A dial move is one discrete step: a short wait is enough to merge a burst of key presses.
-  const sim = useSimulation(checked.ok ? model : null, current, { samples: 'none', debounceMs: 30 });
+  const sim = useSimulation(outline.ok ? model : null, current, { samples: 'none', debounceMs: 30 });
+  // A model the engine refuses at the author's own values cannot be shown at all (not just these settings).
+  const broken = !outline.ok ? outline.problem : sim.error && !sim.result && atDefaults(dials, current) ? (sim.error.issues[0]?.message ?? sim.error.message) : null;
   const colors = useMemo(() => brandColors(branding.brandColor), [branding.brandColor]);
 
   const setDial = useCallback(
@@ -104,19 +112,24 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
     const next = initialDialValues(dials);
     setValues(next);
     setResets((n) => n + 1);
+    setPin(null);
     onDialChange?.(next, null);
   }, [dials, onDialChange]);
 
   const result = sim.result;
   const panels = widget.panels.filter((p) => p === 'headline' || CHART_PANELS.has(p));
   const chartPanels = panels.filter((p): p is ChartPanel => CHART_PANELS.has(p));
-  const titleId = `${useId().replace(/[^a-zA-Z0-9_-]/g, '')}-title`;
+  const uid = useId().replace(/[^a-zA-Z0-9_-]/g, '');
+  const titleId = `${uid}-title`;
+  // Only a settled result can be pinned: its figures belong to the dial values on screen.
+  const canPin = Boolean(result) && !sim.stale && sim.status !== 'running' && sim.status !== 'waiting' && !sim.error;
+  const pinnedValues = useMemo(() => (pin ? { ...pin.run.dialValues } : null), [pin]);
   const headline = result && panels.includes('headline') ? headlineFigure(result, widget.headline) : null;
   const cautions = useMemo(() => {
-    const template = checked.ok ? checked.model.template : 'formula';
+    const template = outline.ok ? outline.template : 'formula';
     const low = result ? lowTrialCaution(result.outputs) : null;
     return [...(low ? [low] : []), ...cautionsFor(template)];
-  }, [checked, result]);
+  }, [outline, result]);
   const invalid = result ? result.outputs.reduce((s, o) => s + o.invalid.total, 0) : 0;
 
   const style = {
@@ -156,14 +169,14 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
             {widget.title}
           </H>
 
-          {!checked.ok ? (
+          {broken ? (
             <Banner tone="danger" title="This model cannot be shown">
-              <p>The published model did not pass its checks ({checked.issues[0]?.message ?? 'unknown problem'}). Ask the firm that shared it to publish it again.</p>
+              <p>The published model did not pass its checks ({broken}). Ask the firm that shared it to publish it again.</p>
             </Banner>
           ) : null}
 
           <div className={cx('grid grid-cols-1 gap-4', dials.length > 0 && panels.includes('headline') && '@3xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]')}>
-            {dials.length ? (
+            {dials.length && !broken ? (
               <fieldset className="min-w-0 space-y-3 rounded-lg border border-ink-200 bg-ink-50 px-3 pt-2 pb-3">
                 <legend className="px-1 text-sm font-semibold text-ink-900">Try other values</legend>
                 {dials.map((d) => (
@@ -181,6 +194,28 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
                   </svg>
                   Reset to the author’s values
                 </button>
+                <div className="flex flex-wrap items-center gap-2 border-t border-ink-200 pt-2">
+                  <button
+                    type="button"
+                    onClick={() => result && setPin(result)}
+                    disabled={!canPin}
+                    className="inline-flex h-8 items-center gap-1.5 rounded-md border border-ink-300 bg-white px-3 text-[0.8125rem] font-medium shadow-sm hover:bg-ink-50 disabled:cursor-not-allowed disabled:opacity-60"
+                    style={{ color: 'var(--st-brand-text)' }}
+                  >
+                    <svg aria-hidden="true" viewBox="0 0 16 16" className="h-3.5 w-3.5" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" strokeLinejoin="round">
+                      <path d="M6 2h4l-.5 4 2.5 2.5H4L6.5 6zM8 8.5V14" />
+                    </svg>
+                    {pin ? 'Pin this view instead' : 'Pin this view'}
+                  </button>
+                  {pin ? (
+                    <button type="button" onClick={() => setPin(null)} className="inline-flex h-8 items-center rounded-md px-2 text-[0.8125rem] font-medium text-ink-700 underline underline-offset-2 hover:text-ink-900">
+                      Clear the pin
+                    </button>
+                  ) : null}
+                  <p role="status" className="w-full text-xs text-ink-600">
+                    {pin ? 'A view is pinned: move the dials to see it beside the current view.' : 'Pin a view, then move the dials to compare the two.'}
+                  </p>
+                </div>
               </fieldset>
             ) : null}
 
@@ -204,7 +239,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
 
           {!panels.includes('headline') ? <WidgetProgress sim={sim} /> : null}
 
-          {sim.error ? (
+          {sim.error && !broken ? (
             <Banner
               tone="danger"
               title="These settings cannot be computed"
@@ -231,6 +266,8 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
             </div>
           ) : null}
 
+          {pin && result ? <CompareView pinned={pin} current={result} headline={widget.headline} dials={dials} titleId={`${uid}-compare`} /> : null}
+
           <CautionsList cautions={cautions} />
 
           <footer className="flex flex-wrap items-center justify-between gap-2 border-t border-ink-100 pt-2">
@@ -250,7 +287,11 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
                 'Computed in your browser'
               )}
             </p>
-            {actions ? <div className="flex flex-wrap gap-2">{actions}</div> : null}
+            {actions ? (
+              <PinnedViewContext.Provider value={pinnedValues}>
+                <div className="flex flex-wrap gap-2">{actions}</div>
+              </PinnedViewContext.Provider>
+            ) : null}
           </footer>
         </div>
       </div>

@@ -5,8 +5,9 @@ import { insertPass } from '@/db/passes';
 import { listWidgets } from '@/db/widgets';
 import { recordAudit } from '@/db/audit';
 
-// Two invented client organisations of the demo firm (reserved .example domains). The first allows the demo
-// host page's origin and gets a pass for every published demo widget, so the host page shows them all.
+// Two invented client organisations of the demo firm (reserved .example domains), each with only its own
+// widgets: the pump maker sees the pump models, the harbour trust the quay wall cost range. Both allow the demo
+// host page's origin, which serves one portal page per client (lib/dev/host-page.ts).
 
 const DAY = 86_400_000;
 
@@ -33,18 +34,17 @@ export async function seedClients(firmId: string): Promise<{ clients: number; pa
       {
         name: 'Saltmere Harbour Trust',
         note: 'Quay wall refurbishment: cost risk reviews.',
-        allowedOrigins: ['https://extranet.saltmere-harbour.example'],
+        allowedOrigins: [hostOrigin, 'https://extranet.saltmere-harbour.example'],
         allowedEmailDomains: ['saltmere-harbour.example', 'saltmere-engineering.example'],
       },
       trx,
     );
     let passes = 0;
+    // A cost range belongs to the harbour works; every other demo widget to the pump project.
     for (const w of widgets) {
-      await insertPass({ firmId, clientId: quillbrook, widgetId: w.id, userId, expiresAt: new Date(Date.now() + 90 * DAY).toISOString(), keyVersion: 1 }, trx);
-      passes++;
-    }
-    if (widgets[0]) {
-      await insertPass({ firmId, clientId: saltmere, widgetId: widgets[0].id, userId, expiresAt: new Date(Date.now() + 10 * DAY).toISOString(), keyVersion: 1 }, trx);
+      const clientId = w.template === 'cost-range' ? saltmere : quillbrook;
+      const days = clientId === saltmere ? 10 : 90;
+      await insertPass({ firmId, clientId, widgetId: w.id, userId, expiresAt: new Date(Date.now() + days * DAY).toISOString(), keyVersion: 1 }, trx);
       passes++;
     }
     await recordAudit({ firmId, actorUserId: userId, action: 'client.created', targetType: 'client', targetId: quillbrook, detail: { name: 'Quillbrook Pumps Ltd', seeded: true } }, trx);

@@ -14,6 +14,7 @@ import { linkMail, sendMail } from '@/lib/mail/send';
 import { AppError } from '@/lib/http/errors';
 import { clientAddressOfHeaders } from '@/lib/http/client-address';
 import { recordAudit } from '@/db/audit';
+import { safeNext } from '@/lib/auth/next-path';
 
 const credentialsSchema = z.object({ email: z.email().max(254), password: z.string().min(1).max(200) });
 
@@ -39,7 +40,8 @@ const adapter: Adapter = {
     return null;
   },
   async updateUser(user) {
-    if (user.email) await markEmailVerified(user.email);
+    // next-auth calls this with `{ id, emailVerified }` once a sign-in link was followed: that proves the address.
+    if (user.emailVerified) await markEmailVerified(user.id);
     const row = await getDb()('users').select('id', 'email', 'name').where({ id: user.id }).first();
     return { id: row.id, email: row.email, name: row.name, emailVerified: new Date() };
   },
@@ -60,6 +62,8 @@ export function authOptions(): NextAuthOptions {
   const e = env();
   return {
     secret: e.authSecret,
+    // Secure cookies whenever the app is served over https (always in production; see lib/env.ts).
+    useSecureCookies: new URL(e.APP_URL).protocol === 'https:',
     adapter,
     session: { strategy: 'jwt', maxAge: e.SESSION_MAX_AGE_SECONDS, updateAge: 15 * 60 },
     jwt: { maxAge: e.SESSION_MAX_AGE_SECONDS },
@@ -93,6 +97,10 @@ export function authOptions(): NextAuthOptions {
             return null;
           }
           await noteSignInSuccess(email);
+          // The password was right; but until the owner of the address has followed an e-mailed link, it is not enough.
+          if (!user.emailVerifiedAt) {
+            throw new Error('Confirm your e-mail address first: open the link in the message we sent when the account was created, or ask for a sign-in link below (it confirms the address too).');
+          }
           return { id: user.id, email: user.email, name: user.name };
         },
       }),
@@ -114,6 +122,8 @@ export function authOptions(): NextAuthOptions {
       }),
     ],
     callbacks: {
+      // Every callback URL (sign-in links, sign-out) is parsed against our own origin; anything else lands on the dashboard.
+      redirect: ({ url, baseUrl }) => new URL(safeNext(url, baseUrl), baseUrl).toString(),
       async signIn({ user, email }) {
         if (email?.verificationRequest) return true;
         const u = user.email ? await getUserCredentials(user.email) : null;

@@ -2,7 +2,14 @@ import { z } from 'zod';
 
 // Shared by the forms in the browser and the route handlers.
 export const emailField = z.email('Enter an e-mail address such as name@firm.com.').max(254, 'E-mail addresses are at most 254 characters.').transform((s) => s.toLowerCase());
-export const passwordField = z.string().min(10, 'Use at least 10 characters.').max(200, 'Use at most 200 characters.');
+/** bcrypt reads only the first 72 bytes of a password; longer ones are refused rather than silently cut. */
+export const PASSWORD_MAX_BYTES = 72;
+export const utf8Length = (s: string): number => new TextEncoder().encode(s).length;
+export const PASSWORD_RULE = 'At least 10 characters and at most 72 bytes: 72 plain letters, fewer with accented letters, symbols or emoji (they take 2 to 4 bytes each).';
+export const passwordField = z
+  .string()
+  .min(10, 'Use at least 10 characters.')
+  .refine((s) => utf8Length(s) <= PASSWORD_MAX_BYTES, 'Use at most 72 bytes: 72 plain letters, fewer with accented letters, symbols or emoji (they take 2 to 4 bytes each).');
 export const nameField = z.string().trim().min(1, 'Enter a name.').max(120, 'Use at most 120 characters.');
 
 export const signUpSchema = z.object({
@@ -10,6 +17,19 @@ export const signUpSchema = z.object({
   name: nameField,
   email: emailField,
   password: passwordField,
+});
+
+const tokenField = z.string().min(20, 'This link is incomplete: open the whole link from the e-mail.').max(200, 'This link is not one of ours.');
+
+export const confirmSignUpSchema = z.object({ token: tokenField, password: z.string().min(1, 'Enter the password you chose when signing up.').max(200) });
+
+export const passwordResetRequestSchema = z.object({ email: emailField });
+
+export const resetPasswordSchema = z.object({ token: tokenField, password: passwordField });
+
+export const changePasswordSchema = z.object({
+  currentPassword: z.string().min(1, 'Enter your current password.').max(200),
+  newPassword: passwordField,
 });
 
 export const inviteSchema = z.object({

@@ -1,10 +1,9 @@
 import 'server-only';
 import Stripe from 'stripe';
-import { env } from '@/lib/env';
+import { env, FAKE_STRIPE_KEY } from '@/lib/env';
 
 // The one Stripe client. With STRIPE_SECRET_KEY set it talks to Stripe; without it, to the local fake
 // (FAKE_STRIPE_URL) with a test key the fake accepts. Everything else in the app is the same either way.
-const FAKE_KEY = 'sk_test_local_fake';
 
 let cached: { signature: string; client: Stripe } | null = null;
 
@@ -23,7 +22,7 @@ export function stripe(): Stripe {
   } else {
     const u = new URL(e.FAKE_STRIPE_URL);
     const protocol = u.protocol === 'https:' ? 'https' : 'http';
-    client = new Stripe(FAKE_KEY, { ...common, host: u.hostname, port: Number(u.port || (protocol === 'https' ? 443 : 80)), protocol });
+    client = new Stripe(FAKE_STRIPE_KEY, { ...common, host: u.hostname, port: Number(u.port || (protocol === 'https' ? 443 : 80)), protocol });
   }
   cached = { signature, client };
   return client;

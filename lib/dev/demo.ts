@@ -14,6 +14,8 @@ async function main(): Promise<void> {
     stripePort: port('DEMO_STRIPE_PORT', 12111),
     hostPagePort: port('DEMO_HOST_PORT', 4100),
     seed: true,
+    // One JSON line per request would bury the sign-in table below; LOG_LEVEL=info shows them.
+    extraEnv: { LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn' },
   });
   const lines = [
     '',
@@ -23,7 +25,7 @@ async function main(): Promise<void> {
     `  Sign in at      ${stack.appUrl}/sign-in   (password for every demo person: ${DEMO_PASSWORD})`,
     ...DEMO_PEOPLE.map((p) => `    ${p.role.padEnd(8)} ${p.email.padEnd(28)} ${p.name}`),
     `  Mailbox (local) ${stack.appUrl}/dev/mailbox   every e-mail the app sends lands here`,
-    ...(stack.hostPageUrl ? [`  Client portal   ${stack.hostPageUrl}   an invented client's portal (another origin) embedding the published widgets`] : []),
+    ...(stack.hostPageUrl ? [`  Client portal   ${stack.hostPageUrl}   invented clients' portals (another origin), one page per client with only its own widgets`] : []),
     `  Payments        local test Stripe at ${stack.stripeUrl} (card 4242 4242 4242 4242 succeeds, 4000 0000 0000 0002 is declined)`,
     '',
     '  Press Ctrl+C to stop.',

@@ -5,9 +5,10 @@ import { mintPassToken } from '@/lib/embed/tokens';
 import { embedSnippet } from '@/lib/embed/snippet';
 
 /**
- * The demo host page: a page of an invented client portal on a second local origin, embedding every live
- * widget granted to a client that allows this origin, through the same snippet an integrator pastes.
- * `?pass=<id>,<id>` narrows it to some passes; `?client=<id>` to one client.
+ * The demo host page: invented client portals on a second local origin, each embedding only the live widgets
+ * granted to that client, through the same snippet an integrator pastes. With several clients, `/` lists their
+ * portals and `?client=<id>` is one client's portal page; `?pass=<id>,<id>` narrows to some passes (one client's
+ * portal when they all belong to one client).
  */
 export interface HostPage {
   url: string;
@@ -77,6 +78,48 @@ export function renderHostPage(o: { passes: HostPass[]; snippets: string[]; appU
 </html>`;
 }
 
+/** Groups passes by client, in the order they came (the query sorts by client name). */
+export function groupByClient(passes: HostPass[]): HostPass[][] {
+  const groups = new Map<string, HostPass[]>();
+  for (const p of passes) groups.set(p.clientId, [...(groups.get(p.clientId) ?? []), p]);
+  return [...groups.values()];
+}
+
+/** The list of client portals served on this origin: each client's own page, never one page mixing them. */
+export function renderPortalIndex(o: { groups: HostPass[][]; origin: string; query?: string }): string {
+  const items = o.groups
+    .map((g) => {
+      const c = g[0]!;
+      const href = `/?client=${encodeURIComponent(c.clientId)}${o.query ? `&${o.query}` : ''}`;
+      return `<li><a href="${esc(href)}">${esc(c.clientName)}</a> <span class="meta">${g.length} shared ${g.length === 1 ? 'model' : 'models'} from ${esc(c.firmName)}</span></li>`;
+    })
+    .join('\n');
+  return `<!doctype html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<title>Demo client portals</title>
+<style>
+  body { margin: 0; font: 16px/1.5 Verdana, sans-serif; color: #1f2430; background: #f4efe6; }
+  main { max-width: 720px; margin: 0 auto; padding: 32px 16px; }
+  h1 { font-size: 24px; margin: 0 0 8px; }
+  ul { padding: 0; list-style: none; }
+  li { background: #fff; border: 1px solid #d9d2c3; border-radius: 4px; padding: 12px 16px; margin: 0 0 12px; }
+  a { color: #1d2a4d; font-weight: 700; }
+  .meta { display: block; font-size: 14px; color: #555; }
+</style>
+</head>
+<body>
+<main>
+  <h1>Demo client portals</h1>
+  <p>Each invented client organisation has its own portal page on ${esc(o.origin)}, showing only the models granted to it.</p>
+  <ul>${items}</ul>
+</main>
+</body>
+</html>`;
+}
+
 export async function startHostPage(o: { port: number; appUrl: string; host?: string }): Promise<HostPage> {
   const host = o.host ?? 'localhost';
   const origin = `http://${host}:${o.port}`;
@@ -94,8 +137,15 @@ export async function startHostPage(o: { port: number; appUrl: string; host?: st
       const only = url.searchParams.get('pass')?.split(',').filter(Boolean);
       const client = url.searchParams.get('client');
       const passes = (await listLivePassesForOrigin(origin)).filter((p) => (!only || only.includes(p.passId)) && (!client || p.clientId === client));
+      const groups = groupByClient(passes);
+      const head = { 'content-type': 'text/html; charset=utf-8', 'cache-control': 'no-store' };
+      if (groups.length > 1) {
+        const query = only ? `pass=${encodeURIComponent(only.join(','))}` : undefined;
+        res.writeHead(200, head).end(renderPortalIndex({ groups, origin, query }));
+        return;
+      }
       const snippets = await Promise.all(passes.map((p) => snippetFor(p, o.appUrl)));
-      res.writeHead(200, { 'content-type': 'text/html; charset=utf-8', 'cache-control': 'no-store' }).end(renderHostPage({ passes, snippets, appUrl: o.appUrl, origin }));
+      res.writeHead(200, head).end(renderHostPage({ passes, snippets, appUrl: o.appUrl, origin }));
     } catch (err) {
       console.error('[host page]', err);
       res.writeHead(500, { 'content-type': 'text/plain' }).end('The demo host page failed; see the demo console.');

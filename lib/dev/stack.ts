@@ -2,13 +2,15 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import fs from 'node:fs';
+import { randomBytes } from 'node:crypto';
 import { startFakeSmtp } from '@/lib/fakes/smtp/server';
 import { startFakeStripe } from '@/lib/fakes/stripe/server';
 import { startHostPage } from '@/lib/dev/host-page';
 
 /**
  * Starts everything the product needs on one machine: the local SMTP fake, the local Stripe fake,
- * a migrated (and optionally seeded) SQLite database and `next start`. Used by `npm run demo` and the tests.
+ * a migrated (and optionally seeded) database and `next start`. Used by `npm run demo` and the tests.
+ * The database is a SQLite file in `dataDir`, or the PostgreSQL database named by `databaseUrl`.
  */
 export interface StackOptions {
   dataDir: string;
@@ -18,6 +20,8 @@ export interface StackOptions {
   stripePort: number;
   hostPagePort?: number;
   seed: boolean;
+  /** postgres://… to run on PostgreSQL instead of SQLite (an empty database gets migrated). */
+  databaseUrl?: string;
   extraEnv?: Record<string, string>;
   quiet?: boolean;
   /** Extra Node.js flags for the `next start` process (e.g. --cpu-prof for a load benchmark). */
@@ -26,6 +30,8 @@ export interface StackOptions {
 
 export interface Stack {
   appUrl: string;
+  /** The `next start` process (a load benchmark reads its CPU time). */
+  appPid: number | undefined;
   /** The demo host page (an invented client portal on a second origin), when hostPagePort was given. */
   hostPageUrl: string | null;
   mailboxUrl: string;
@@ -42,8 +48,11 @@ export async function startStack(o: StackOptions): Promise<Stack> {
   const appUrl = `http://localhost:${o.appPort}`;
   const env: Record<string, string> = {
     DATABASE_FILE: path.join(o.dataDir, 'stochos.sqlite'),
+    // Always set, so a DATABASE_URL in the caller's environment never leaks into a SQLite stack.
+    DATABASE_URL: o.databaseUrl ?? '',
     APP_URL: appUrl,
     NEXTAUTH_URL: appUrl,
+    AUTH_SECRET: dataFolderSecret(o.dataDir),
     STOCHOS_DEMO: '1',
     SMTP_HOST: '127.0.0.1',
     SMTP_PORT: String(o.smtpPort),
@@ -68,16 +77,11 @@ export async function startStack(o: StackOptions): Promise<Stack> {
     publicUrl: `http://localhost:${o.stripePort}`,
   });
 
-  // The preload stamps each request's socket address (lib/http/socket-peer.mjs), as `npm start` does.
-  const next = spawn(process.execPath, [...(o.nodeArgs ?? []), '--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.appPort)], {
-    env: { ...process.env, ...env, NODE_ENV: 'production', NODE_OPTIONS: '' },
-    stdio: o.quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
-  });
+  let next: ChildProcess;
   try {
-    await waitForHttp(`${appUrl}/`, next);
+    next = await startAppProcess({ ...process.env, ...env }, o.appPort, o.quiet, o.nodeArgs);
   } catch (err) {
     // Leave nothing behind holding the ports when start-up fails.
-    next.kill('SIGTERM');
     await Promise.allSettled([smtp.close(), stripe.close()]);
     throw err;
   }
@@ -87,6 +91,7 @@ export async function startStack(o: StackOptions): Promise<Stack> {
 
   return {
     appUrl,
+    appPid: next.pid,
     hostPageUrl: hostPage?.url ?? null,
     mailboxUrl: `http://127.0.0.1:${o.mailboxPort}`,
     stripeUrl: `http://127.0.0.1:${o.stripePort}`,
@@ -103,6 +108,20 @@ export async function startStack(o: StackOptions): Promise<Stack> {
   };
 }
 
+/** The demo's own AUTH_SECRET: random, made once per data folder and kept there (readable by its owner only). */
+export function dataFolderSecret(dataDir: string): string {
+  const file = path.join(dataDir, 'auth-secret');
+  try {
+    const existing = fs.readFileSync(file, 'utf8').trim();
+    if (existing.length >= 32) return existing;
+  } catch {
+    // first start of this data folder
+  }
+  const secret = randomBytes(32).toString('base64url');
+  fs.writeFileSync(file, `${secret}\n`, { mode: 0o600 });
+  return secret;
+}
+
 function runCli(args: string[], childEnv: NodeJS.ProcessEnv): Promise<string> {
   return new Promise((resolve, reject) => {
     const child = spawn(process.execPath, [path.resolve('node_modules/tsx/dist/cli.mjs'), '--conditions=react-server', 'db/cli.ts', ...args], {
@@ -114,6 +133,26 @@ function runCli(args: string[], childEnv: NodeJS.ProcessEnv): Promise<string> {
     child.stderr.on('data', (d) => (out += d));
     child.on('exit', (code) => (code === 0 ? resolve(out.trim()) : reject(new Error(`db/cli.ts ${args.join(' ')} failed:\n${out}`))));
   });
+}
+
+/**
+ * One `next start` of the production build on `port`, answered once it serves. Several of them over one PostgreSQL
+ * database are the scale-out setup (tests/postgres/two-instances.test.ts starts a second one this way).
+ */
+export async function startAppProcess(childEnv: NodeJS.ProcessEnv, port: number, quiet?: boolean, nodeArgs: string[] = []): Promise<ChildProcess> {
+  // Loopback only: the demo's mailbox and fakes are for the person at this machine. The preload stamps each
+  // request's socket address (lib/http/socket-peer.mjs), as `npm start` does.
+  const child = spawn(process.execPath, [...nodeArgs, '--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(port)], {
+    env: { ...childEnv, NODE_ENV: 'production', NODE_OPTIONS: '' },
+    stdio: quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
+  });
+  try {
+    await waitForHttp(`http://localhost:${port}/`, child);
+  } catch (err) {
+    child.kill('SIGTERM');
+    throw err;
+  }
+  return child;
 }
 
 async function waitForHttp(url: string, child: ChildProcess, timeoutMs = 60_000): Promise<void> {
@@ -139,7 +178,7 @@ export function startSnapshotWorkerProcess(childEnv: NodeJS.ProcessEnv, quiet?: 
   });
 }
 
-async function stopChild(child: ChildProcess): Promise<void> {
+export async function stopChild(child: ChildProcess): Promise<void> {
   if (child.exitCode !== null || child.signalCode !== null) return;
   const exited = new Promise<void>((r) => child.once('exit', () => r()));
   child.kill('SIGTERM');

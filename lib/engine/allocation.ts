@@ -148,9 +148,12 @@ export function costAt(c: CostCurve, t: number): number {
   return c.a + c.b / t ** c.k;
 }
 
+/** Relative slack for rounding in the last bits (a target met exactly must not fail by 1e-16). */
+const SLACK = 1e-9;
+
 function meets(target: AllocationTarget, p: AllocationPrediction): boolean {
-  if (target.kind === 'ppm') return p.ppm !== null && p.ppm <= target.value;
-  return p.ppk !== null && p.ppk >= target.value;
+  if (target.kind === 'ppm') return p.ppm !== null && p.ppm <= target.value * (1 + SLACK);
+  return p.ppk !== null && p.ppk >= target.value * (1 - SLACK);
 }
 
 /** Round towards zero to four significant figures (tighter never breaks the target). */

@@ -272,6 +272,9 @@ export const CACHE_LIMIT_VALUES = 8_000_000;
 
 const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
+/** Moments of input columns, computed once per column (cached columns are reused across runs). */
+const momentsByColumn = new WeakMap<Float64Array, Moments>();
+
 /**
  * Runs chunks on one thread. With `cache`, it keeps each input's chunk columns between
  * runs keyed by what they depend on, so after a dial move only the moved inputs are
@@ -391,7 +394,12 @@ export class ChunkRunner {
       outputMoments[o.id] = finiteMoments(col);
     }
     const inputMoments: Record<string, Moments> = {};
-    for (const inp of plan.inputs) inputMoments[inp.id] = momentsOf(cols.get(inp.id) as Float64Array);
+    for (const inp of plan.inputs) {
+      const col = cols.get(inp.id) as Float64Array;
+      let m = momentsByColumn.get(col);
+      if (!m) momentsByColumn.set(col, (m = momentsOf(col)));
+      inputMoments[inp.id] = m;
+    }
     const inputs: Record<string, Float64Array> = {};
     if (start < (options.inputWindow ?? 0)) {
       for (const inp of plan.inputs) inputs[inp.id] = cols.get(inp.id) as Float64Array;

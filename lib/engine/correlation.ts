@@ -31,7 +31,7 @@ const { normalCdfPair, normalCdfPairUpper, normalQuantilePQ } = special;
 // Bound once: module interop in some runtimes turns each imported call into a getter call.
 const { asin, exp, sin } = detMath;
 
-const BLOCK = 4096;
+const BLOCK = 1024;
 
 interface CopulaRow {
   /** Constant term and the nonzero coefficients of the member's score in the z_j. */

@@ -455,9 +455,26 @@ function compileNode(node: FormulaNode, env: FormulaEnvironment): Compiled {
       const c0 = node.constant;
       if (cols.length === 0) return { scalar: true, value: c0 };
       const buf = new Float64Array(FORMULA_BLOCK);
+      const unit = coefs.every((w) => w === 1 || w === -1);
       return vec((s, c) => {
         buf.fill(c0, 0, c);
-        for (let i = 0; i < cols.length; i++) {
+        let i = 0;
+        if (unit) {
+          // Four +-1 terms per pass over the buffer, added one after another in term order,
+          // so the sum rounds exactly as the one-term-at-a-time loop.
+          for (; i + 3 < cols.length; i += 4) {
+            const a = cols[i];
+            const b = cols[i + 1];
+            const d = cols[i + 2];
+            const e = cols[i + 3];
+            const wa = coefs[i];
+            const wb = coefs[i + 1];
+            const wd = coefs[i + 2];
+            const we = coefs[i + 3];
+            for (let k = 0; k < c; k++) buf[k] = buf[k] + wa * a[s + k] + wb * b[s + k] + wd * d[s + k] + we * e[s + k];
+          }
+        }
+        for (; i < cols.length; i++) {
           const col = cols[i];
           const w = coefs[i];
           if (w === 1) for (let k = 0; k < c; k++) buf[k] += col[s + k];

@@ -348,6 +348,16 @@ export class RejectionSampler implements ColumnSampler {
   }
 }
 
+/** The method createColumnSampler picks, without building the sampler (for reports). */
+export function samplingMethodOf(marginal: Marginal, ctx: Pick<SamplerContext, 'design' | 'normalMethod'>): SamplingMethod {
+  if (marginal.natural === 'constant') return 'constant';
+  if (ctx.design === 'monte-carlo') {
+    if (marginal.fromZ && (marginal.natural === 'normal' || marginal.natural === 'lognormal')) return ctx.normalMethod;
+    if (marginal.natural === 'rejection' && marginal.envelope) return 'rejection';
+  }
+  return 'inverse-cdf';
+}
+
 /**
  * The independent sampler of one input. Plain Monte Carlo uses the marginal's natural
  * method (normal generator, rejection, inverse CDF); Latin hypercube uses the inverse CDF

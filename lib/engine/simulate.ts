@@ -6,13 +6,13 @@
  * bit-identical results.
  */
 import { evaluateCost, evaluateStack, type CostAnalysis, type StackAnalysis } from './analytic';
-import { CHUNK_SIZE, ChunkRunner, EMPTY_MOMENTS, inputWindow, mergeMoments, prepareRun, type ChunkPart, type Moments, type PreparedRun } from './chunks';
+import { ChunkRunner, EMPTY_MOMENTS, inputWindow, mergeMoments, prepareRun, type ChunkPart, type Moments, type PreparedRun } from './chunks';
 import { achievedCorrelation, type AchievedCorrelation } from './correlation';
 import type { DistributionType, Marginal } from './distributions';
 import { RunCancelledError } from './errors';
 import type { NormalMethod } from './normal-gen';
 import { RNG_NAME } from './rng';
-import { createColumnSampler, type Design, type SamplingReport } from './samplers';
+import { samplingMethodOf, type Design, type SamplingReport } from './samplers';
 import type { Template } from './schema';
 import { fractionAtOrBelow, PERCENTILE_DEFINITION, percentileEstimates, RankCache, RankStore, type PercentileEstimate } from './stats';
 import {
@@ -267,7 +267,6 @@ function summarize(
   const groupOf = new Map<string, 'gaussian-copula' | 'iman-conover'>();
   for (const u of prep.units) if (u.kind !== 'single') for (const id of u.ids) groupOf.set(id, u.kind === 'copula' ? 'gaussian-copula' : 'iman-conover');
   const s = prep.settings;
-  const ctx = { seed: s.seed, design: s.design, normalMethod: s.normalMethod, trials: Math.min(s.trials, CHUNK_SIZE), chunk: 0 };
   const inputs: InputReport[] = plan.inputs.map((inp) => {
     const w = inMoments.get(inp.id) as Moments;
     const m = prep.marginals.get(inp.id) as Marginal;
@@ -275,7 +274,7 @@ function summarize(
     let sampling: SamplingReport;
     if (corr === 'gaussian-copula') sampling = { method: 'gaussian-copula', scores: s.design === 'latin-hypercube' ? 'inverse-cdf' : s.normalMethod };
     else {
-      const method = createColumnSampler(m, ctx, inp.streamId, inp.id).method;
+      const method = samplingMethodOf(m, s);
       const r = rejection.get(inp.id);
       sampling =
         method === 'rejection' && r && m.envelope

@@ -271,12 +271,11 @@ export function summarizeOutput(id: string, label: string, unit: string, column:
  */
 export function computeDrivers(output: Float64Array, drivers: { id: string; label: string; column: Float64Array }[], cache: RankCache = new RankCache()): DriverReport {
   const limit = Math.min(output.length, DRIVER_TRIAL_LIMIT);
-  const keep: number[] = [];
-  for (let k = 0; k < limit; k++) {
-    const x = output[k];
-    if (x - x === 0) keep.push(k);
-  }
-  const m = keep.length;
+  let m = 0;
+  for (let k = 0; k < limit; k++) if (output[k] - output[k] === 0) m++;
+  // Indices of the finite outputs, needed only when some are not.
+  const keep = new Uint32Array(m === limit ? 0 : m);
+  if (m !== limit) for (let k = 0, j = 0; k < limit; k++) if (output[k] - output[k] === 0) keep[j++] = k;
   if (m < 3 || drivers.length === 0) return { method: 'spearman', trials: m, items: drivers.map((d) => ({ id: d.id, label: d.label, spearman: 0, share: 0 })) };
   // Every trial in the window is valid: rank the leading segment (shared with other reports).
   const ranksOf = (col: Float64Array) => {

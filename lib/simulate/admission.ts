@@ -72,8 +72,8 @@ export async function admitRun(c: RunCaller, now = Date.now()): Promise<Admissio
 }
 
 /** Runs of the firm in progress on any instance. */
-export function firmRunsInProgress(firmId: string): Promise<number> {
-  return countLiveLeases(firmId, new Date().toISOString());
+export function firmRunsInProgress(firmId: string, now = Date.now()): Promise<number> {
+  return countLiveLeases(firmId, new Date(now).toISOString());
 }
 
 // Old counter windows and dead leases go at most once a minute per process.

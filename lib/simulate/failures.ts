@@ -29,7 +29,10 @@ export function poolError(err: unknown): never {
       `The run did not finish within ${err.limitMs / 1000} s, the time limit of a server run, and was stopped. Lower model.settings.trials or the number of inputs, or run it in the browser.`,
     );
   }
-  if (err instanceof RunQueueFullError) throw new AppError('unavailable', 'The server is running as many models as it can queue. Try again in a few seconds.', { retryAfter: 5 });
+  if (err instanceof RunQueueFullError) {
+    const why = err.waitedMs === null ? 'is running as many models as it can queue' : `had no free thread for ${err.waitedMs / 1000} s, so the run was not started`;
+    throw new AppError('unavailable', `The server ${why}. Try again in a few seconds.`, { retryAfter: 5 });
+  }
   throw err;
 }
 

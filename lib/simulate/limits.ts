@@ -11,8 +11,10 @@ const int = (min: number, max: number) => z.coerce.number().int().min(min).max(m
 const schema = z.object({
   /** Trials × sampled columns of one run. */
   SIMULATE_MAX_WORK: int(1_000, 1_000_000_000).default(20_000_000),
-  /** Wall-clock limit of one run, from the moment it is queued; over it the thread is stopped. */
+  /** Wall-clock limit of one run on its thread; over it the thread is stopped. */
   SIMULATE_TIME_LIMIT_MS: int(100, 600_000).default(30_000),
+  /** How long a run may wait for a thread (the queue, a thread starting); over it the run is dropped unstarted. */
+  SIMULATE_MAX_WAIT_MS: int(100, 600_000).default(30_000),
   /** Worker threads; by default one fewer than the cores (at least one), so requests keep a core. */
   SIMULATE_THREADS: int(1, 64).optional(),
   /** Runs waiting for a thread, all firms together; beyond it the server answers 503 with Retry-After. */
@@ -30,6 +32,7 @@ const schema = z.object({
 export interface RunLimits {
   maxWork: number;
   timeLimitMs: number;
+  maxWaitMs: number;
   threads: number;
   maxQueue: number;
   concurrentPerKey: number;
@@ -53,6 +56,7 @@ export function runLimits(): RunLimits {
   cached = {
     maxWork: e.SIMULATE_MAX_WORK,
     timeLimitMs: e.SIMULATE_TIME_LIMIT_MS,
+    maxWaitMs: e.SIMULATE_MAX_WAIT_MS,
     threads: e.SIMULATE_THREADS ?? Math.max(1, os.availableParallelism() - 1),
     maxQueue: e.SIMULATE_MAX_QUEUE,
     concurrentPerKey: e.SIMULATE_MAX_CONCURRENT_PER_KEY,

@@ -2,6 +2,7 @@ import 'server-only';
 import fs from 'node:fs';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import type { RunResult } from '@/lib/engine';
 import { runLimits } from './limits';
@@ -18,10 +19,10 @@ export class RunTimeoutError extends Error {
   }
 }
 
-/** Every thread is busy and the queue is full. */
+/** Every thread is busy and the queue is full, or the run waited too long for a thread. */
 export class RunQueueFullError extends Error {
-  constructor() {
-    super('Every run thread is busy and the queue is full.');
+  constructor(readonly waitedMs: number | null = null) {
+    super(waitedMs === null ? 'Every run thread is busy and the queue is full.' : `The run waited ${waitedMs / 1000} s for a thread and was dropped unstarted.`);
     this.name = 'RunQueueFullError';
   }
 }
@@ -59,23 +60,42 @@ function state(): PoolState {
   return g.__stochosRunPool;
 }
 
-/** Runs a task on the pool; past `timeLimitMs` (counted from now, queue wait included) the task is aborted. */
-export async function runOnPool(task: RunTask, timeLimitMs = runLimits().timeLimitMs): Promise<PoolReply> {
+/**
+ * Runs a task on the pool. The time limit counts from the moment the task has a thread (the worker says so through a
+ * message port); waiting for a thread has its own limit. Past either, the task is aborted: piscina drops it from
+ * the queue, or ends the thread running it and starts a fresh one.
+ */
+export async function runOnPool(task: RunTask, timeLimitMs = runLimits().timeLimitMs, maxWaitMs = runLimits().maxWaitMs): Promise<PoolReply> {
   const s = state();
   const controller = new AbortController();
-  const timer = setTimeout(() => controller.abort(), timeLimitMs);
+  let overrun: 'wait' | 'run' | null = null;
+  const abort = (why: 'wait' | 'run') => {
+    overrun = why;
+    controller.abort();
+  };
+  let runTimer: ReturnType<typeof setTimeout> | null = null;
+  const waitTimer = setTimeout(() => abort('wait'), maxWaitMs);
+  const { port1, port2 } = new MessageChannel();
+  port1.once('message', () => {
+    clearTimeout(waitTimer);
+    runTimer = setTimeout(() => abort('run'), timeLimitMs);
+  });
+  port1.unref();
   s.pending++;
   try {
-    const out = (await s.pool.run(task, { signal: controller.signal })) as Uint8Array | PoolReply;
+    const out = (await s.pool.run({ ...task, started: port2 }, { signal: controller.signal, transferList: [port2] })) as Uint8Array | PoolReply;
     // A JSON body arrives as bare bytes (moved, not copied).
     return out instanceof Uint8Array ? { ok: true, json: out } : out;
   } catch (err) {
-    // piscina rejects an aborted task with its AbortError and terminates the thread that was running it.
-    if (controller.signal.aborted) throw new RunTimeoutError(timeLimitMs);
+    // piscina rejects an aborted task with its AbortError.
+    if (overrun === 'run') throw new RunTimeoutError(timeLimitMs);
+    if (overrun === 'wait') throw new RunQueueFullError(maxWaitMs);
     if (err instanceof Error && /queue is at limit/i.test(err.message)) throw new RunQueueFullError();
     throw err;
   } finally {
-    clearTimeout(timer);
+    clearTimeout(waitTimer);
+    if (runTimer) clearTimeout(runTimer);
+    port1.close();
     s.pending--;
   }
 }

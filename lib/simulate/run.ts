@@ -33,10 +33,12 @@ export function checkUpFront(req: SimulateRequest): void {
   const w = workOf(req.model);
   if (w && w.work > l.maxWork) throw fieldError('model.settings.trials', budgetMessage(w, l.maxWork));
   if (w && req.samples) {
-    const m = req.model as { outputs?: unknown[] };
-    // Output columns: one for stack and cost models, one per formula output; inputs add their sampled columns.
-    const outputs = Array.isArray(m.outputs) ? m.outputs.length : 1;
-    const columns = outputs + (req.samples.which === 'all' ? w.columns : 0);
+    const m = req.model as { template?: unknown; outputs?: unknown[]; riskEvents?: unknown[] };
+    // Output columns: one for stack and cost models, one per formula output. 'all' adds the sampled columns and,
+    // for a cost range, each risk event's cost (occurs × impact).
+    const outputs = m.template === 'formula' && Array.isArray(m.outputs) ? m.outputs.length : 1;
+    const derived = m.template === 'cost-range' && Array.isArray(m.riskEvents) ? m.riskEvents.length : 0;
+    const columns = outputs + (req.samples.which === 'all' ? w.columns + derived : 0);
     const values = req.samples.limit * columns;
     if (values > l.maxSampleValues) {
       const most = Math.floor(l.maxSampleValues / columns);

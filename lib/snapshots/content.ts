@@ -9,6 +9,7 @@ import { formatCount, formatFixed, formatPercent, formatValue } from '@/lib/char
 import { headlineFigure, type HeadlineFigure } from '@/lib/results/headline';
 import { dialDisplay, type DialSpec } from '@/components/widget/dial-values';
 import { CHART_PANELS, type ChartPanel } from './panels';
+import { compareFigures, type CompareRow } from '@/lib/results/compare';
 
 export interface SnapshotMeta {
   firmName: string;
@@ -51,6 +52,8 @@ export interface SnapshotContent {
   convergence: { output: string; verdict: string; enough: boolean }[];
   cautions: Caution[];
   trialsText: string;
+  /** Present when the viewer pinned a view: its dial values and both views' figures with the difference. */
+  compare: { pinnedDials: { label: string; value: string; unit: string }[]; rows: CompareRow[] } | null;
 }
 
 const DATE = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
@@ -77,6 +80,32 @@ function distributionText(d: Distribution, unit: string): [string, string] {
     .filter((k) => typeof (d as Record<string, unknown>)[k] === 'number')
     .map((k) => `${names[k] ?? k} ${typed((d as unknown as Record<string, number>)[k]!, unitless.has(k) ? '' : unit)}`);
   return [d.type.charAt(0).toUpperCase() + d.type.slice(1), parts.join(', ')];
+}
+
+/** Correlated stack contributors, pair by pair (nonzero only). */
+function stackCorrelationTable(m: Extract<StochosModel, { template: 'linear-stack' }>): Table[] {
+  const c = m.correlation;
+  if (!c) return [];
+  const names = new Map(m.contributors.map((x) => [x.id, x.name]));
+  const rows: string[][] = [];
+  for (let i = 0; i < c.inputs.length; i++)
+    for (let j = i + 1; j < c.inputs.length; j++) {
+      const rho = c.matrix[i]?.[j] ?? 0;
+      if (rho !== 0) rows.push([names.get(c.inputs[i]!) ?? c.inputs[i]!, names.get(c.inputs[j]!) ?? c.inputs[j]!, formatFixed(rho, 2)]);
+    }
+  if (!rows.length) return [];
+  return [
+    {
+      title: 'Correlated contributors',
+      columns: [
+        { header: 'Contributor', weight: 3 },
+        { header: 'With', weight: 3 },
+        { header: 'Correlation', align: 'right', weight: 1.4 },
+      ],
+      rows,
+      note: 'Drawn through a Gaussian copula; RSS and the normal estimate include the correlation terms.',
+    },
+  ];
 }
 
 function assumptionTables(m: StochosModel): Table[] {
@@ -108,6 +137,7 @@ function assumptionTables(m: StochosModel): Table[] {
         ]),
         note: `Gap limits: ${limits}.`,
       },
+      ...stackCorrelationTable(m),
     ];
   }
   if (m.template === 'cost-range') {
@@ -217,18 +247,20 @@ const NORMAL: Record<string, string> = { 'box-muller': 'Box–Muller transform (
 const CORR: Record<string, string> = { copula: 'Gaussian copula', 'iman-conover': 'Rank correlation by Iman & Conover (1982)' };
 
 /** The PDF's content from a run of the widget's model with the viewer's dial values. */
-export function snapshotContent(model: unknown, result: RunResult, meta: SnapshotMeta): SnapshotContent {
+export function snapshotContent(model: unknown, result: RunResult, meta: SnapshotMeta, pinned: RunResult | null = null): SnapshotContent {
   const checked = validateModel(model);
   if (!checked.ok) throw new Error(`The published model does not validate: ${checked.issues[0]?.message ?? 'unknown problem'}`);
   const applied = applyDials(checked.model, result.run.dialValues).model;
   const byId = new Map(checked.model.dials.map((d) => [d.id, d]));
-  const dials = meta.dialIds.flatMap((id) => {
-    const d = byId.get(id);
-    if (!d) return [];
-    const spec: DialSpec = { id: d.id, label: d.label, unit: d.unit, min: d.min, max: d.max, step: d.step, default: d.default };
-    const v = result.run.dialValues[id] ?? d.default;
-    return [{ label: d.label, value: dialDisplay(spec, v), unit: d.unit }];
-  });
+  const dialsOf = (r: RunResult) =>
+    meta.dialIds.flatMap((id) => {
+      const d = byId.get(id);
+      if (!d) return [];
+      const spec: DialSpec = { id: d.id, label: d.label, unit: d.unit, min: d.min, max: d.max, step: d.step, default: d.default };
+      const v = r.run.dialValues[id] ?? d.default;
+      return [{ label: d.label, value: dialDisplay(spec, v), unit: d.unit }];
+    });
+  const dials = dialsOf(result);
   const panels = meta.panels.filter((p) => p === 'headline' || (CHART_PANELS as readonly string[]).includes(p));
   const low = lowTrialCaution(result.outputs);
   const signOff =
@@ -261,5 +293,6 @@ export function snapshotContent(model: unknown, result: RunResult, meta: Snapsho
     convergence: result.outputs.map((o) => ({ output: o.label, verdict: o.convergence.verdict, enough: o.convergence.enough })),
     cautions: [...(low ? [low] : []), ...cautionsFor(checked.model.template)],
     trialsText: `${formatCount(result.run.trials)} trials`,
+    compare: pinned ? { pinnedDials: dialsOf(pinned), rows: compareFigures(pinned, result, meta.headline) } : null,
   };
 }

@@ -31,6 +31,7 @@ export function composeSnapshotMail(to: string, c: SnapshotContent, requestedAt:
     `Here is the snapshot of “${c.title}” you asked for, as you set it up on ${c.dateText}.`,
     ...(h ? [`${h.label}: ${h.value}${h.sub ? ` (${h.sub})` : ''}`] : []),
     ...(c.dials.length ? ['Values chosen:', ...c.dials.map((d) => `  ${d.label}: ${d.value}${d.unit ? ` ${d.unit}` : ''}`)] : []),
+    ...(c.compare ? ['You pinned another view to compare: the PDF shows both views side by side, with the difference of each figure.'] : []),
     `${c.versionText}. ${c.trialsText}.`,
     'The attached PDF has the charts, the assumptions, the method and the cautions that go with these figures.',
   ];

@@ -11,6 +11,9 @@ import path from 'node:path';
 import { CHART_PDF_FONTS, chartFontCallback, registerChartFonts, woffToSfnt } from '@/lib/charts/pdf-fonts';
 import { brandColors } from '@/components/widget/brand';
 import { panelSpec } from './panels';
+import { compareCurvesScene, compareSpreadsScene, COMPARE_STYLES } from '@/lib/charts/compare';
+import { compareInput, CURRENT_LABEL, PINNED_LABEL } from '@/lib/results/compare';
+import type { Scene } from '@/lib/charts/scene';
 import type { SnapshotContent, Table } from './content';
 
 // The snapshot PDF: pdfkit with the shipped IBM Plex faces, charts drawn from the same scenes as the browser
@@ -32,7 +35,7 @@ export interface RenderedPdf {
 }
 
 /** `logo`: the firm's re-encoded PNG, drawn in the header when the widget keeps the logo slot. */
-export async function renderSnapshotPdf(c: SnapshotContent, result: RunResult, logo: Buffer | null = null): Promise<RenderedPdf> {
+export async function renderSnapshotPdf(c: SnapshotContent, result: RunResult, logo: Buffer | null = null, pinned: RunResult | null = null): Promise<RenderedPdf> {
   const doc = new PDFDocument({
     size: c.paperSize === 'Letter' ? 'LETTER' : 'A4',
     margins: { top: MARGIN, bottom: MARGIN + FOOTER, left: MARGIN, right: MARGIN },
@@ -121,6 +124,74 @@ export async function renderSnapshotPdf(c: SnapshotContent, result: RunResult, l
   }
   doc.x = MARGIN;
   doc.y = Math.max(leftBottom, rightBottom) + 14;
+
+  const drawScene = (scene: Scene, title: string, idPrefix: string) => {
+    const scale = W / scene.width;
+    const h = scene.height * scale;
+    need(h + 24);
+    heading(doc, title, MARGIN, doc.y, W);
+    const y = doc.y + 2;
+    doc.save();
+    doc.translate(MARGIN, y).scale(scale);
+    SVGtoPDF(doc, sceneToSvgString(scene, { idPrefix }), 0, 0, { width: scene.width, height: scene.height, fontCallback: chartFontCallback, assumePt: true });
+    doc.restore();
+    doc.x = MARGIN;
+    doc.y = y + h + 12;
+  };
+
+  // Two views: the pinned one beside the current one, figures with the difference and the overlaid charts,
+  // the same strings and scenes as the widget's comparison.
+  if (c.compare && pinned) {
+    need(120);
+    section(doc, 'Two views side by side', W);
+    doc
+      .font(F.sans)
+      .fontSize(8.5)
+      .fillColor(INK[700])
+      .text(
+        `The ${CURRENT_LABEL.toLowerCase()} is the one above (values chosen). The ${PINNED_LABEL.toLowerCase()} is the one the viewer pinned before moving the dials. Both are re-run with the same seed and trials. In the charts the current view is a ${COMPARE_STYLES.current.legend} and the pinned view a ${COMPARE_STYLES.pinned.legend}.`,
+        MARGIN,
+        doc.y,
+        { width: W },
+      );
+    doc.moveDown(0.4);
+    table(
+      doc,
+      {
+        title: 'Figures of both views (difference = current − pinned)',
+        columns: [
+          { header: 'Figure', weight: 4 },
+          { header: PINNED_LABEL, align: 'right', weight: 1.8 },
+          { header: CURRENT_LABEL, align: 'right', weight: 1.8 },
+          { header: 'Difference', align: 'right', weight: 1.8 },
+        ],
+        rows: c.compare.rows.map((r) => [r.label, r.pinned, r.current, r.difference]),
+      },
+      W,
+      bottom,
+    );
+    if (c.dials.length)
+      table(
+        doc,
+        {
+          title: 'Dial values of both views',
+          columns: [
+            { header: 'Dial', weight: 4 },
+            { header: PINNED_LABEL, align: 'right', weight: 1.8 },
+            { header: CURRENT_LABEL, align: 'right', weight: 1.8 },
+          ],
+          rows: c.dials.map((d, i) => [d.label, `${c.compare!.pinnedDials[i]?.value ?? '—'}${d.unit ? ` ${d.unit}` : ''}`, `${d.value}${d.unit ? ` ${d.unit}` : ''}`]),
+        },
+        W,
+        bottom,
+      );
+    const input = compareInput(pinned, result, CHART_PX);
+    drawScene(compareCurvesScene(input), 'S-curves of both views', 'cmp-curves-');
+    drawScene(compareSpreadsScene(input), 'Spreads of both views', 'cmp-spreads-');
+    doc.moveDown(0.3);
+    need(40);
+    heading(doc, `Charts of the ${CURRENT_LABEL.toLowerCase()}`, MARGIN, doc.y, W);
+  }
 
   // Charts from the browser's scenes, scaled to the text width.
   for (const panel of c.charts) {

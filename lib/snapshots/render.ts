@@ -14,6 +14,8 @@ import { getLogo } from '@/db/logos';
 export interface RenderedSnapshot {
   content: SnapshotContent;
   result: RunResult;
+  /** The pinned view's run, when the viewer asked for two views. */
+  pinned: RunResult | null;
   pdf: Buffer;
   pages: number;
   renderMs: number;
@@ -22,6 +24,8 @@ export interface RenderedSnapshot {
 export async function renderSnapshot(ctx: SnapshotContext): Promise<RenderedSnapshot> {
   const start = performance.now();
   const result = await runForServer(ctx.model, ctx.job.dialValues);
+  // The pinned view: the same model, seed and trials with its own dial values, as the browser ran it when pinned.
+  const pinned = ctx.job.pinnedDialValues ? await runForServer(ctx.model, ctx.job.pinnedDialValues) : null;
   const content = snapshotContent(ctx.model, result, {
     firmName: ctx.firm.name,
     brandColor: ctx.widget.brandColor || ctx.firm.brandColor,
@@ -37,8 +41,8 @@ export async function renderSnapshot(ctx: SnapshotContext): Promise<RenderedSnap
     panels: ctx.widget.panels,
     headline: ctx.widget.headline,
     dialIds: ctx.widget.dialIds,
-  });
+  }, pinned);
   const logo = ctx.widget.showLogo ? await getLogo(ctx.job.firmId) : null;
-  const pdf = await renderSnapshotPdf(content, result, logo?.bytes ?? null);
-  return { content, result, pdf: pdf.bytes, pages: pdf.pages, renderMs: Math.round(performance.now() - start) };
+  const pdf = await renderSnapshotPdf(content, result, logo?.bytes ?? null, pinned);
+  return { content, result, pinned, pdf: pdf.bytes, pages: pdf.pages, renderMs: Math.round(performance.now() - start) };
 }

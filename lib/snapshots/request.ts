@@ -52,6 +52,19 @@ export function checkDialValues(model: unknown, dialIds: readonly string[], give
   return out;
 }
 
+/** Field paths of the pinned view's dial values say so (pinnedDialValues.<id>). */
+function prefixed<T>(fn: () => T): T {
+  try {
+    return fn();
+  } catch (err) {
+    if (err instanceof AppError && err.fields) {
+      const fields = Object.fromEntries(Object.entries(err.fields).map(([k, v]) => [k.replace(/^dialValues\./, 'pinnedDialValues.'), v]));
+      throw new AppError('validation_failed', 'Some dial values of the pinned view cannot be used for this widget.', { fields });
+    }
+    throw err;
+  }
+}
+
 export async function requestSnapshot(v: Viewer, input: SnapshotRequestInput, requester: string): Promise<SnapshotAccepted> {
   const email = normaliseEmail(input.email);
   if (!email.ok) throw fieldError('email', email.message);
@@ -70,15 +83,18 @@ export async function requestSnapshot(v: Viewer, input: SnapshotRequestInput, re
     throw new AppError('conflict', `This widget was updated to version ${v.widget.versionNumber} while you were viewing it. Reload the page, then ask for the snapshot again.`);
   }
   const dialValues = checkDialValues(v.widget.model, v.widget.dialIds, input.dialValues);
+  const pinnedDialValues = input.pinnedDialValues ? prefixed(() => checkDialValues(v.widget.model, v.widget.dialIds, input.pinnedDialValues!)) : null;
 
+  const keys: [LimitKind, RateKey][] = [
+    ['recipient', { recipient: email.address.toLowerCase() }],
+    ['requester', { requesterHash: requester }],
+    ['pass', { passId: v.pass.id }],
+  ];
+  // The three limits are checked and the job inserted under a lock per limit key, held by every instance alike.
+  const locks = keys.map(([kind, key]) => `snapshot-limit:${kind}:${Object.values(key)[0]}`);
   return writeTransaction(async (trx) => {
     const now = Date.now();
     const since = new Date(now - SNAPSHOT_WINDOW_MS).toISOString();
-    const keys: [LimitKind, RateKey][] = [
-      ['recipient', { recipient: email.address.toLowerCase() }],
-      ['requester', { requesterHash: requester }],
-      ['pass', { passId: v.pass.id }],
-    ];
     for (const [kind, key] of keys) {
       const c = await countRequestsSince(key, since, trx);
       if (c.count >= SNAPSHOT_LIMITS[kind]) {
@@ -98,6 +114,7 @@ export async function requestSnapshot(v: Viewer, input: SnapshotRequestInput, re
         recipient: email.address.toLowerCase(),
         requesterHash: requester,
         dialValues,
+        pinnedDialValues,
         messageId: snapshotMessageId(id),
         createdAt: nowIso(),
       },
@@ -105,5 +122,5 @@ export async function requestSnapshot(v: Viewer, input: SnapshotRequestInput, re
     );
     await recordPassEvent({ passId: v.pass.id, firmId: v.pass.firmId, kind: 'snapshot' }, trx);
     return { id, state: 'queued', recipient: email.address.toLowerCase(), message: `On its way to ${email.address.toLowerCase()}. It usually arrives within a minute.` };
-  });
+  }, { locks });
 }

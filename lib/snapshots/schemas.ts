@@ -29,6 +29,10 @@ export const snapshotRequestSchema = z
     dialValues: z
       .record(z.string().max(64), z.number({ message: 'Each dial value must be a finite number.' }).refine(Number.isFinite, 'Each dial value must be a finite number.'))
       .default({}),
+    /** The dial values of a view the viewer pinned to compare with: the PDF then shows both views side by side. */
+    pinnedDialValues: z
+      .record(z.string().max(64), z.number({ message: 'Each dial value must be a finite number.' }).refine(Number.isFinite, 'Each dial value must be a finite number.'))
+      .optional(),
     /** The version number on the viewer's screen; a republished widget is refused so the PDF matches the screen. */
     version: z.number().int().positive().optional(),
   })

@@ -1,7 +1,7 @@
 import 'server-only';
 import { z } from 'zod';
 import { writeTransaction } from '@/db/knex';
-import { findUserIdByEmail, hasActiveMembership, insertFirmWithOwner, insertUser, bumpSessionVersion, getUserCredentials, type Role } from '@/db/users';
+import { findUserIdByEmail, hasActiveMembership, insertUser, bumpSessionVersion, getUserCredentials, type Role } from '@/db/users';
 import {
   countActiveByRole,
   getInvitationByToken,
@@ -20,27 +20,15 @@ import { AppError, conflict, fieldError, notFound } from '@/lib/http/errors';
 import { linkMail, sendMail } from '@/lib/mail/send';
 import { env } from '@/lib/env';
 import type { Member } from '@/lib/auth/guard';
-import type { signUpSchema, inviteSchema, acceptInvitationSchema } from '@/lib/auth/schemas';
+import { passwordField, type inviteSchema, type acceptInvitationSchema } from '@/lib/auth/schemas';
 import { assertSeatAvailable } from '@/lib/team/seats';
+import { assertMailAllowed, noteMailSent } from '@/lib/auth/mail-limits';
 
 export const INVITATION_DAYS = 7;
 
-export async function signUp(input: z.infer<typeof signUpSchema>): Promise<{ firmId: string; userId: string }> {
-  const passwordHash = await hashPassword(input.password);
-  return writeTransaction(async (trx) => {
-    if (await findUserIdByEmail(input.email, trx)) {
-      throw new AppError('conflict', 'An account with this e-mail already exists.', {
-        fields: { email: ['An account with this e-mail already exists. Sign in instead, or use another address.'] },
-      });
-    }
-    const userId = await insertUser({ email: input.email, name: input.name, passwordHash, verified: false }, trx);
-    const firmId = await insertFirmWithOwner({ name: input.firmName }, userId, trx);
-    await recordAudit({ firmId, actorUserId: userId, action: 'firm.created', targetType: 'firm', targetId: firmId, detail: { name: input.firmName } }, trx);
-    return { firmId, userId };
-  });
-}
-
 export async function inviteMember(actor: Member, input: z.infer<typeof inviteSchema>): Promise<{ id: string; email: string; role: Role; expiresAt: string }> {
+  // Invitations are e-mails to any address a firm types: limited per firm, withdrawn ones included.
+  await assertMailAllowed('invitation', { firm: actor.firmId });
   const token = newSecret();
   const expiresAt = new Date(Date.now() + INVITATION_DAYS * 86_400_000).toISOString();
   const id = await writeTransaction(async (trx) => {
@@ -55,6 +43,7 @@ export async function inviteMember(actor: Member, input: z.infer<typeof inviteSc
     await recordAudit({ firmId: actor.firmId, actorUserId: actor.userId, action: 'member.invited', targetType: 'invitation', targetId: invId, detail: { email: input.email, role: input.role } }, trx);
     return invId;
   });
+  await noteMailSent('invitation', { firm: actor.firmId });
   const url = `${env().APP_URL}/invite/${token}`;
   await sendMail(
     linkMail(input.email, `${actor.name} invited you to ${actor.firmName} on Stochos`, [
@@ -134,7 +123,8 @@ export async function acceptInvitation(input: z.infer<typeof acceptInvitationSch
     if (!creds.passwordHash || !(await verifyPassword(input.password, creds.passwordHash))) throw fieldError('password', 'That is not the password of this account.');
   } else {
     if (!input.name) throw fieldError('name', 'Enter your name.');
-    if (input.password.length < 10) throw fieldError('password', 'Use at least 10 characters.');
+    const pw = passwordField.safeParse(input.password);
+    if (!pw.success) throw fieldError('password', pw.error.issues[0]!.message);
   }
   const passwordHash = creds ? null : await hashPassword(input.password);
   await writeTransaction(async (trx) => {

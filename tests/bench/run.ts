@@ -4,10 +4,13 @@
  *
  *  - draws per second for each distribution and sampling method;
  *  - R1: 10 correlated normals (mu_i = 10 i, sigma_i = 1 + i/10, rho^|i-j| with rho = 0.6),
- *    output = sum, 1,000,000 trials, plain Monte Carlo, through the real model path;
+ *    output = sum, 1,000,000 trials, plain Monte Carlo, through the real model path: the
+ *    chunks on one thread (single) and on a pool of Node worker threads, one per core
+ *    (parallel); both merge the output column and select P5/P50/P95 on this thread;
  *  - R2: cost range, 40 beta-PERT items (90, 100, 130), items 1-20 pairwise 0.3 through the
  *    copula, 10 risk events (p 0.1, impact triangular 5, 10, 30), 200,000 trials;
- *  - R3: 20-contributor linear stack, 50,000 trials, one dial moved.
+ *  - R3: 20-contributor linear stack, 50,000 trials, one dial moved: the interactive path
+ *    (a runner that keeps the unchanged contributors' columns and ranks), full report.
  *
  * Times are reported as wall clock and as this process's CPU time (user + system): on a
  * shared machine the CPU time is the steadier figure. When python3 with NumPy is present,
@@ -16,11 +19,12 @@
 import { spawnSync } from 'node:child_process';
 import os from 'node:os';
 import path from 'node:path';
+import { ChunkRunner, EMPTY_MOMENTS, mergeMoments, prepareRun, type ChunkPart, type Moments } from '@/lib/engine/chunks';
 import { createMarginal, type DistributionSpec } from '@/lib/engine/distributions';
 import { createColumnSampler, type SamplerContext } from '@/lib/engine/samplers';
-import { runModelSync, Simulation } from '@/lib/engine/simulate';
-import { sortedCopy } from '@/lib/engine/sort';
-import { percentileSorted } from '@/lib/engine/stats';
+import { mergeParts, runModelSync } from '@/lib/engine/simulate';
+import { percentilesBySelection, RankStore } from '@/lib/engine/stats';
+import { createNodeEnginePool } from '@/tests/support/node-engine-pool';
 
 const json = process.argv.includes('--json');
 const REPEATS = 5;
@@ -28,6 +32,22 @@ const REPEATS = 5;
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
   return s[Math.floor(s.length / 2)];
+}
+
+/** The same for an async function (the worker-thread pool). */
+async function timeAsync<T>(fn: () => Promise<T>): Promise<{ ms: number; cpuMs: number; value: T }> {
+  let value = await fn();
+  const walls: number[] = [];
+  const cpus: number[] = [];
+  for (let i = 0; i < REPEATS; i++) {
+    const c0 = process.cpuUsage();
+    const t0 = performance.now();
+    value = await fn();
+    walls.push(performance.now() - t0);
+    const c = process.cpuUsage(c0);
+    cpus.push((c.user + c.system) / 1000);
+  }
+  return { ms: median(walls), cpuMs: median(cpus), value };
 }
 
 /** Warm up once, then time REPEATS runs; medians of wall and CPU milliseconds, and the last value. */
@@ -100,16 +120,28 @@ interface R1Figures {
   p95: number;
 }
 
-/** Sampling + formula + mean and the three percentiles (one sort): what NumPy's version does. */
+/**
+ * What NumPy's version does: sampling, correlation, the sum, then the mean and three
+ * percentiles. The chunks' output columns are merged in chunk order, the moments by the
+ * pairwise update, the percentiles by selection.
+ */
+function r1Figures(parts: ChunkPart[], trials: number): Omit<R1Figures, 'ms' | 'cpuMs'> {
+  parts.sort((a, b) => a.index - b.index);
+  const y = new Float64Array(trials);
+  let m: Moments = EMPTY_MOMENTS;
+  for (const p of parts) {
+    y.set(p.outputs.total, p.start);
+    m = mergeMoments(m, p.outputMoments.total);
+  }
+  const [p5, p50, p95] = percentilesBySelection(y, [0.05, 0.5, 0.95]);
+  return { mean: m.mean, p5, p50, p95 };
+}
+
 function r1Core(model: object): R1Figures {
   const r = time(() => {
-    const sim = new Simulation(model);
-    sim.step(sim.total);
-    const y = sim.column('total') as Float64Array;
-    let s = 0;
-    for (let i = 0; i < y.length; i++) s += y[i];
-    const sorted = sortedCopy(y);
-    return { mean: s / y.length, p5: percentileSorted(sorted, 0.05), p50: percentileSorted(sorted, 0.5), p95: percentileSorted(sorted, 0.95) };
+    const prep = prepareRun(model);
+    const parts = new ChunkRunner().run(prep, Array.from({ length: prep.chunkCount }, (_, k) => k));
+    return r1Figures(parts, prep.settings.trials);
   });
   return { ms: r.ms, cpuMs: r.cpuMs, ...r.value };
 }
@@ -134,12 +166,46 @@ function numpyR1(): (R1Figures & { numpy: string }) | null {
   return { numpy: j.numpy, ms: j.wallMs, cpuMs: j.cpuMs, mean: j.mean, p5: j.p5, p50: j.p50, p95: j.p95 };
 }
 
+async function r1Parallel(model: object, workers: number): Promise<R1Figures & { workers: number }> {
+  const pool = await createNodeEnginePool(workers, { cache: false });
+  try {
+    const r = await timeAsync(async () => {
+      const parts = await pool.parts(model, {}, 0);
+      return r1Figures(parts, 1_000_000);
+    });
+    return { ms: r.ms, cpuMs: r.cpuMs, workers, ...r.value };
+  } finally {
+    await pool.close();
+  }
+}
+
+async function r1FullParallel(model: object, workers: number): Promise<R1Figures> {
+  const pool = await createNodeEnginePool(workers, { cache: false });
+  try {
+    const r = await timeAsync(() => pool.run(model));
+    const o = r.value.outputs[0];
+    const pct = (p: number) => o.percentiles.find((x) => x.p === p)!.value;
+    return { ms: r.ms, cpuMs: r.cpuMs, mean: o.mean as number, p5: pct(0.05), p50: pct(0.5), p95: pct(0.95) };
+  } finally {
+    await pool.close();
+  }
+}
+
+async function main() {
+const cores = os.cpus().length;
+// Parallel, single and NumPy back to back, so the three share the machine's load.
+const parallel = await r1Parallel(r1Model('ziggurat'), cores);
+const single = r1Core(r1Model('ziggurat'));
+const numpy = numpyR1();
 const r1 = {
-  coreZiggurat: r1Core(r1Model('ziggurat')),
-  numpy: numpyR1(),
+  parallel,
+  single,
+  numpy,
+  ratioParallel: numpy ? parallel.ms / numpy.ms : null,
+  ratioSingle: numpy ? single.ms / numpy.ms : null,
   coreBoxMuller: r1Core(r1Model('box-muller')),
   fullZiggurat: r1Full(r1Model('ziggurat')),
-  fullBoxMuller: r1Full(r1Model('box-muller')),
+  fullParallelZiggurat: await r1FullParallel(r1Model('ziggurat'), cores),
   // Closed form: mean sum 10 i = 550; sd from the covariance (computed here for the table).
   expectedMean: 550,
   expectedSd: (() => {
@@ -184,9 +250,21 @@ const r3Model = {
   limits: { lower: 0.2, upper: 0.8 },
   dials: [{ id: 'part2', label: 'Part 2 nominal', unit: 'mm', min: 4.9, max: 5.1, step: 0.01, default: 5, target: { kind: 'input-param', inputId: 'c2', param: 'nominal' } }],
 };
+// The interactive path: the thread keeps its runner (input columns) and rank store between runs.
+const r3runner = new ChunkRunner({ cache: true });
+const r3ranks = new RankStore();
 let dial = 4.9;
-const r3run = time(() => runModelSync(r3Model, { dialValues: { part2: (dial = dial >= 5.1 ? 4.9 : +(dial + 0.01).toFixed(2)) } }));
-const r3 = { ms: r3run.ms, cpuMs: r3run.cpuMs, trials: 50_000, ppmObserved: r3run.value.outputs[0].limits!.ppmObserved };
+const r3run = time(() => {
+  dial = dial >= 5.1 ? 4.9 : +(dial + 0.01).toFixed(2);
+  const prep = prepareRun(r3Model, { part2: dial });
+  r3runner.beginRun();
+  r3ranks.beginRun();
+  const parts = r3runner.run(prep, Array.from({ length: prep.chunkCount }, (_, k) => k), { inputWindow: 25_000 });
+  return mergeParts(prep, parts, {}, { ranks: r3ranks });
+});
+// The same run from nothing (a fresh runner: every column sampled, every rank computed).
+const r3fresh = time(() => runModelSync(r3Model, { dialValues: { part2: 5.03 } }));
+const r3 = { ms: r3run.ms, cpuMs: r3run.cpuMs, freshMs: r3fresh.ms, trials: 50_000, ppmObserved: r3run.value.outputs[0].limits!.ppmObserved };
 
 // ---- Output ---------------------------------------------------------------------------------
 const fmt = (x: number, d = 1) => x.toFixed(d).padStart(9);
@@ -196,12 +274,14 @@ if (!json || process.argv.includes('--table')) {
   for (const d of draws) console.log(d.distribution.padEnd(56) + fmt(d.drawsPerSecond / 1e6));
   console.log('\nR1: 10 correlated normals, sum, 1,000,000 trials'.padEnd(57) + ' wall ms   CPU ms     mean       P5      P50      P95');
   const row = (name: string, f: R1Figures) => console.log(name.padEnd(56) + fmt(f.ms, 0) + fmt(f.cpuMs, 0) + fmt(f.mean, 3) + fmt(f.p5, 3) + fmt(f.p50, 3) + fmt(f.p95, 3));
-  row('  core path, ziggurat', r1.coreZiggurat);
+  row(`  parallel, ziggurat, ${r1.parallel.workers} worker threads`, r1.parallel);
+  row('  single thread, ziggurat', r1.single);
   if (r1.numpy) row(`  NumPy ${r1.numpy.numpy} (r1-numpy.py, same load)`, r1.numpy);
   else console.log('  NumPy: python3 with numpy not found, reference not run');
-  row('  core path, Box-Muller', r1.coreBoxMuller);
-  row('  full report, ziggurat', r1.fullZiggurat);
-  row('  full report, Box-Muller', r1.fullBoxMuller);
+  if (r1.ratioParallel !== null) console.log(`  ratio to NumPy: parallel ${r1.ratioParallel.toFixed(2)}, single ${r1.ratioSingle!.toFixed(2)} (wall)`);
+  row('  single thread, Box-Muller', r1.coreBoxMuller);
+  row('  full report, ziggurat, one thread', r1.fullZiggurat);
+  row(`  full report, ziggurat, ${r1.parallel.workers} worker threads`, r1.fullParallelZiggurat);
   const z = [1.6448536269514722, 0, 1.6448536269514722];
   console.log(
     '  closed form'.padEnd(56) + '                  ' + fmt(550, 3) + fmt(550 - z[0] * r1.expectedSd, 3) + fmt(550, 3) + fmt(550 + z[2] * r1.expectedSd, 3),
@@ -209,6 +289,16 @@ if (!json || process.argv.includes('--table')) {
   console.log('\nR2: 40 PERT items, 20 correlated, 10 risks, 200,000 trials'.padEnd(57) + ' wall ms   CPU ms      P50      P80      P90');
   console.log('  full report'.padEnd(56) + fmt(r2.ms, 0) + fmt(r2.cpuMs, 0) + fmt(r2.p50, 2) + fmt(r2.p80, 2) + fmt(r2.p90, 2));
   console.log('\nR3: 20-contributor stack, 50,000 trials, one dial moved'.padEnd(57) + ' wall ms   CPU ms');
-  console.log('  full report (target under 25 ms)'.padEnd(56) + fmt(r3.ms, 1) + fmt(r3.cpuMs, 1));
+  console.log('  full report, kept columns (target under 25 ms)'.padEnd(56) + fmt(r3.ms, 1) + fmt(r3.cpuMs, 1));
+  console.log('  full report, from nothing'.padEnd(56) + fmt(r3.freshMs, 1));
 }
-if (json) console.log(JSON.stringify({ node: process.version, repeats: REPEATS, load: os.loadavg(), draws, r1, r2, r3 }));
+if (json) console.log(JSON.stringify({ node: process.version, repeats: REPEATS, load: os.loadavg(), cores, draws, r1, r2, r3 }));
+}
+
+main().then(
+  () => process.exit(0),
+  (err) => {
+    console.error(err);
+    process.exit(1);
+  },
+);

@@ -1,4 +1,6 @@
 import { test, expect, type Page } from '@playwright/test';
+import { signUpAndConfirm } from '../support/sign-up';
+import { E2E_APP } from './support/ports';
 
 // Seat billing in Chromium: the app's Billing page, the local fake Stripe's hosted checkout and portal pages,
 // webhooks back into the app, and the seat limit on the Team page.
@@ -15,8 +17,8 @@ async function signIn(page: Page, email: string, password: string): Promise<void
 
 async function newOwner(page: Page, firmName: string): Promise<string> {
   const email = `billing-owner-${stamp()}@e2e-firm.example`;
-  const res = await page.request.post('/api/sign-up', { data: { firmName, name: 'Wren Halvorsen', email, password: PASSWORD } });
-  expect(res.status()).toBe(201);
+  // Sign-up sends a confirmation link; the local mailbox hands it over.
+  await signUpAndConfirm(E2E_APP, process.env.E2E_MAILBOX_URL!, { firmName, name: 'Wren Halvorsen', email, password: PASSWORD });
   await signIn(page, email, PASSWORD);
   return email;
 }

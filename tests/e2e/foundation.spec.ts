@@ -27,6 +27,13 @@ test('sign up, invite an author, accept from the mailbox, sign in as the author'
   await page.getByLabel(/e-mail/i).fill(ownerEmail);
   await page.getByLabel('Password', { exact: true }).fill(password);
   await page.getByRole('button', { name: /create account/i }).click();
+  // Nothing is signed in yet: the address must be proved first.
+  await expect(page.getByRole('heading', { name: 'Check your mailbox' })).toBeVisible();
+  await expect(page.getByText(ownerEmail)).toBeVisible();
+  const confirm = await waitForMail(ownerEmail, /Confirm your e-mail address/);
+  await page.goto(confirm.text.match(/http:\/\/localhost:\d+\/sign-up\/confirm\/[A-Za-z0-9_-]+/)![0]);
+  await page.getByLabel('Password', { exact: true }).fill(password);
+  await page.getByRole('button', { name: /confirm and open the account/i }).click();
   await expect(page).toHaveURL(/\/app\//);
   await expect(page.getByText('Fenwick Tolerance Studio').first()).toBeVisible();
 

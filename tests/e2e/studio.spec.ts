@@ -1,4 +1,6 @@
 import { test, expect, type Browser, type Page } from '@playwright/test';
+import { signUpAndConfirm } from '../support/sign-up';
+import { E2E_APP } from './support/ports';
 import fs from 'node:fs';
 import { runModelSync } from '../../lib/engine';
 import { decimalsForSignificant, formatPpm, formatValue } from '../../lib/charts/format';
@@ -225,8 +227,7 @@ test('a member of another firm cannot open the model', async ({ browser }) => {
   const ctx = await browser.newContext();
   const page = await ctx.newPage();
   const email = `studio-outsider-${Date.now().toString(36)}@other-firm.example`;
-  const res = await page.request.post('/api/sign-up', { data: { firmName: 'Other firm', name: 'Otto Outsider', email, password: 'correct horse battery' } });
-  expect(res.status()).toBe(201);
+  await signUpAndConfirm(E2E_APP, process.env.E2E_MAILBOX_URL!, { firmName: 'Other firm', name: 'Otto Outsider', email, password: 'correct horse battery' });
   await signIn(page, email, 'correct horse battery');
   const visit = await page.goto(`/app/models/${modelId}`);
   expect(visit?.status()).toBe(404);

@@ -3,7 +3,7 @@
  * worker-threads parity test): the same runChunks the browser workers run. Bundled with
  * esbuild by node-engine-pool.ts.
  */
-import { parentPort } from 'node:worker_threads';
+import { parentPort, workerData } from 'node:worker_threads';
 import { ChunkRunner, prepareRun, type ChunkPart } from '@/lib/engine/chunks';
 
 export interface NodeChunksRequest {
@@ -16,7 +16,8 @@ export interface NodeChunksRequest {
 
 export type NodeChunksResponse = { id: number; parts: ChunkPart[]; error?: undefined } | { id: number; parts?: undefined; error: string };
 
-const runner = new ChunkRunner({ cache: true });
+// The bench turns the cache off so repeated identical runs measure sampling, not the cache.
+const runner = new ChunkRunner({ cache: (workerData as { cache?: boolean } | undefined)?.cache !== false });
 
 parentPort?.on('message', (req: NodeChunksRequest) => {
   try {

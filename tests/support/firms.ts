@@ -1,14 +1,17 @@
+import { inject } from 'vitest';
 import { Client, uniqueEmail } from './http-client';
 import { waitForMessage, firstLink } from './mailbox';
+import { signUpAndConfirm } from './sign-up';
+
+export { signUpAndConfirm };
 
 export const PASSWORD = 'correct horse battery';
 
-/** Signs up a new firm through the API and returns its owner, signed in. */
-export async function newFirm(appUrl: string, tag = 'owner'): Promise<{ owner: Client; email: string }> {
+/** Signs up a new firm (confirmed through the local mailbox) and returns its owner, signed in. */
+export async function newFirm(appUrl: string, tag = 'owner', mailboxUrl: string = inject('mailboxUrl')): Promise<{ owner: Client; email: string }> {
   const owner = new Client(appUrl);
   const email = uniqueEmail(tag);
-  const res = await owner.post('/api/sign-up', { firmName: `Test firm ${tag}`, name: 'Olive Owner', email, password: PASSWORD });
-  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${await res.text()}`);
+  await signUpAndConfirm(appUrl, mailboxUrl, { firmName: `Test firm ${tag}`, name: 'Olive Owner', email, password: PASSWORD });
   const s = await owner.signIn(email, PASSWORD);
   if (!s.ok) throw new Error(`sign-in failed: ${s.error}`);
   return { owner, email };

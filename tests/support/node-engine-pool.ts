@@ -19,12 +19,12 @@ export interface NodeEnginePool {
   size: number;
   /** Sampling on the threads, merge and statistics here. */
   run(model: unknown, options?: RunOptions): Promise<RunResult>;
-  /** The parts only (no merge), for timing the parallel sampling. */
-  parts(model: unknown, options?: RunOptions): Promise<ChunkPart[]>;
+  /** The parts only (no merge), for timing the parallel sampling; window overrides the input columns returned. */
+  parts(model: unknown, options?: RunOptions, window?: number): Promise<ChunkPart[]>;
   close(): Promise<void>;
 }
 
-export async function createNodeEnginePool(size: number): Promise<NodeEnginePool> {
+export async function createNodeEnginePool(size: number, options: { cache?: boolean } = {}): Promise<NodeEnginePool> {
   const dir = mkdtempSync(path.join(tmpdir(), 'stochos-node-pool-'));
   const file = path.join(dir, 'engine-node-worker.cjs');
   await build({
@@ -38,7 +38,7 @@ export async function createNodeEnginePool(size: number): Promise<NodeEnginePool
     tsconfig: path.join(root, 'tsconfig.json'),
     logLevel: 'silent',
   });
-  const workers = Array.from({ length: size }, () => new Worker(file));
+  const workers = Array.from({ length: size }, () => new Worker(file, { workerData: { cache: options.cache !== false } }));
   await Promise.all(workers.map((w) => new Promise((resolve) => w.once('online', resolve))));
   let nextId = 1;
   const ranks = new RankStore();
@@ -56,11 +56,11 @@ export async function createNodeEnginePool(size: number): Promise<NodeEnginePool
     });
   }
 
-  async function parts(model: unknown, options: RunOptions = {}): Promise<ChunkPart[]> {
+  async function parts(model: unknown, options: RunOptions = {}, windowOverride?: number): Promise<ChunkPart[]> {
     const prep = prepareRun(model, options.dialValues);
     const assigned: number[][] = Array.from({ length: size }, () => []);
     for (let k = 0; k < prep.chunkCount; k++) assigned[k % size].push(k);
-    const window = inputWindow(prep, options.samples);
+    const window = windowOverride ?? inputWindow(prep, options.samples);
     const id = nextId++;
     const got = await Promise.all(
       assigned.map((chunkIndices, i) => (chunkIndices.length ? ask(workers[i], { id, model, dialValues: options.dialValues, chunkIndices, inputWindow: window }) : Promise.resolve([]))),

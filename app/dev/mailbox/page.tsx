@@ -2,11 +2,16 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { Logo } from '@/components/ui/logo';
 import { PageHeader } from '@/components/ui/page-header';
+import { headers } from 'next/headers';
+import { notFound } from 'next/navigation';
 import { MailboxView } from '@/components/mailbox/mailbox-view';
+import { mailboxOpenFor } from '@/lib/mail/dev-mailbox';
 
 export const metadata: Metadata = { title: 'Development mailbox', robots: { index: false, follow: false } };
 
-export default function DevMailboxPage() {
+export default async function DevMailboxPage() {
+  // Only on this machine, and only while mail goes to the local fake.
+  if (!mailboxOpenFor(await headers())) notFound();
   return (
     <div className="min-h-dvh">
       <header className="border-b border-ink-200 bg-white">

@@ -2,16 +2,56 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { EXAMPLE_MODELS, DISTRIBUTION_PARAMS, FORMULA_FUNCTIONS, FORMULA_CONSTANTS, MIN_TRIALS, MAX_TRIALS, PERCENTILE_DEFINITION, SCHEMA_ID } from '@/lib/engine';
 import { Logo } from '@/components/ui/logo';
+import { runLimits } from '@/lib/simulate/limits';
 
 export const metadata: Metadata = { title: 'Model JSON and the simulate API' };
+// The limits shown are the ones this server runs with (set by environment variables at start-up).
+export const dynamic = 'force-dynamic';
+
+function RunLimitsTable() {
+  const l = runLimits();
+  const n = (x: number) => x.toLocaleString('en');
+  const rows: [string, string, string, string][] = [
+    ['Work budget', `${n(l.maxWork)} draws (trials × sampled columns)`, 'SIMULATE_MAX_WORK', '422 naming model.settings.trials and the most trials the model may have'],
+    ['Time limit', `${n(l.timeLimitMs / 1000)} s per run, from the moment it has a thread`, 'SIMULATE_TIME_LIMIT_MS', '503: the run is stopped and its thread freed'],
+    ['Wait for a thread', `${n(l.maxWaitMs / 1000)} s`, 'SIMULATE_MAX_WAIT_MS', '503 with Retry-After; the run is not started'],
+    ['Runs in progress', `${n(l.concurrentPerKey)} per API key or member, ${n(l.concurrentPerFirm)} per firm`, 'SIMULATE_MAX_CONCURRENT_PER_KEY, _PER_FIRM', '429 with Retry-After'],
+    ['Runs started', `${n(l.ratePerKey)} per minute per API key or member, ${n(l.ratePerFirm)} per firm`, 'SIMULATE_RATE_PER_KEY, _PER_FIRM', '429 with Retry-After (seconds to the next minute)'],
+    ['Samples returned', `${n(l.maxSampleValues)} values (samples.limit × columns), at most ${n(100_000)} per column`, 'SIMULATE_MAX_SAMPLE_VALUES', '422 naming samples.limit'],
+    ['Server queue', `${n(l.maxQueue)} runs waiting for ${n(l.threads)} thread${l.threads === 1 ? '' : 's'}`, 'SIMULATE_MAX_QUEUE, SIMULATE_THREADS', '503 with Retry-After'],
+  ];
+  return (
+    <table className="mt-3 w-full border-collapse text-left text-sm">
+      <thead>
+        <tr className="border-b border-ink-200">
+          <th className="py-1 pr-3 font-medium">Limit</th>
+          <th className="py-1 pr-3 font-medium">On this server</th>
+          <th className="py-1 pr-3 font-medium">Set by</th>
+          <th className="py-1 font-medium">Answer when passed</th>
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map(([name, value, envName, answer]) => (
+          <tr key={name} className="border-b border-ink-100 align-top">
+            <td className="py-1 pr-3">{name}</td>
+            <td className="py-1 pr-3">{value}</td>
+            <td className="py-1 pr-3"><code className="text-xs">{envName}</code></td>
+            <td className="py-1">{answer}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
 
 const TEMPLATE_NOTES: Record<string, { name: string; fields: [string, string][] }> = {
   'linear-stack': {
     name: 'Linear stack (tolerance stack-up)',
     fields: [
       ['unit', 'length unit of every dimension, e.g. "mm"'],
-      ['contributors[]', 'id, name, nominal, plusTol, minusTol (both ≥ 0), direction (1 or −1 in the loop), distribution { type: normal (with k: tolerance = ±kσ, default 3) | uniform | triangular | empirical (data) }, meanShift'],
+      ['contributors[]', 'id, name, nominal, plusTol, minusTol (both ≥ 0), direction (1 or −1 in the loop), distribution { type: normal (with k: tolerance = ±kσ, default 3) | uniform | triangular | empirical (data) | normal-fit (data) }, meanShift'],
       ['limits', 'lower and/or upper limit on the gap'],
+      ['correlation', 'optional { inputs: [contributor ids], matrix: symmetric, unit diagonal, positive semi-definite }: contributors from one machine or batch, drawn through a Gaussian copula; RSS is reported with and without the correlation terms'],
     ],
   },
   'cost-range': {
@@ -86,7 +126,8 @@ export default function ModelJsonDocs() {
             ))}
           </dl>
           <h3 className="mt-4 font-medium text-ink-900">Complete example (invented scenario)</h3>
-          <pre className="num mt-2 max-h-[28rem] overflow-auto rounded-md bg-ink-900 p-4 text-xs text-ink-50">{JSON.stringify(EXAMPLE_MODELS[template as keyof typeof EXAMPLE_MODELS], null, 2)}</pre>
+          {/* The block scrolls, so it takes keyboard focus (arrow keys scroll it) and is named for screen readers. */}
+          <pre tabIndex={0} role="region" aria-label={`${note.name}: complete example model JSON`} className="num mt-2 max-h-[28rem] overflow-auto rounded-md bg-ink-900 p-4 text-xs text-ink-50">{JSON.stringify(EXAMPLE_MODELS[template as keyof typeof EXAMPLE_MODELS], null, 2)}</pre>
         </section>
       ))}
 
@@ -98,6 +139,16 @@ export default function ModelJsonDocs() {
         request body may be up to 4 MiB (other endpoints take 1 MiB of JSON); a larger one gets <code>413</code>.
       </p>
       <pre className="num mt-3 overflow-auto rounded-md bg-ink-900 p-4 text-xs text-ink-50">{curl}</pre>
+
+      <h3 className="mt-6 font-medium text-ink-900">Limits of server runs</h3>
+      <p className="mt-2">
+        Runs happen on a pool of worker threads, never on the thread that answers requests, so one large run does not slow anyone else down. Each run is measured in draws:
+        <code> settings.trials</code> × the sampled columns (one per contributor of a stack, per line item of a cost range plus two per risk event, per input of a formula model). A
+        model over the budget is refused before it runs. The counts of runs are kept in the database, so they hold across every server instance. Every refusal is a JSON error
+        <code> {'{ error: { code, message, fields?, retryAfter? } }'}</code> whose message says what to change; <code>GET /api/v1/simulate</code> returns the limits in force and your
+        firm&apos;s runs in progress.
+      </p>
+      <RunLimitsTable />
     </main>
   );
 }

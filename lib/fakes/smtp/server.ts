@@ -43,6 +43,7 @@ import path from 'node:path';
 import { randomBytes } from 'node:crypto';
 import { simpleParser, type AddressObject, type ParsedMail } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
+import { refuseUnlessLocal } from '../local-only';
 
 export interface MailboxAttachment {
   index: number;
@@ -268,6 +269,8 @@ export async function startFakeSmtp(options: FakeSmtpOptions = {}): Promise<Fake
       const parts = url.pathname.split('/').filter(Boolean);
       const method = req.method ?? 'GET';
       try {
+        const refused = refuseUnlessLocal(req, [`http://${host}:${(api.address() as AddressInfo | null)?.port ?? 0}`]);
+        if (refused) return sendJson(res, 403, { error: refused });
         if (method === 'GET' && url.pathname === '/health') return sendJson(res, 200, { ok: true, messages: mailbox.list({ limit: 1e9 }).length });
         if (parts[0] !== 'messages') return sendJson(res, 404, { error: 'Not found' });
         if (parts.length === 1) {

@@ -30,6 +30,7 @@ import { newId } from './ids';
 import { checkoutPage, invoicePage, layout, messagePage, portalPage } from './pages';
 import { Params } from './params';
 import { Deliverer } from './webhooks';
+import { refuseUnlessLocal } from '../local-only';
 
 export interface FakeStripeOptions {
   /** 0 picks a free port. Default 12111. */
@@ -407,6 +408,8 @@ export async function startFakeStripe(options: FakeStripeOptions = {}): Promise<
   }
 
   async function handleAdmin(req: http.IncomingMessage, res: http.ServerResponse, url: URL, body: string): Promise<void> {
+    const refused = refuseUnlessLocal(req, [`http://${host}:${port}`, settings.publicUrl || `http://${host}:${port}`]);
+    if (refused) return sendJson(res, 403, { error: { type: 'invalid_request_error', message: refused } });
     const q = { ...Object.fromEntries(url.searchParams), ...formStrings(body) };
     const method = req.method ?? 'GET';
     const path = url.pathname;
@@ -519,6 +522,8 @@ export async function startFakeStripe(options: FakeStripeOptions = {}): Promise<
     return sendHtml(res, 405, messagePage('Not allowed', 'That action is not available on this page.'));
   }
 
+  // Known once listening; the admin endpoints compare a request's Origin with it.
+  let port = 0;
   const server = http.createServer((req, res) => {
     void (async () => {
       const url = new URL(req.url ?? '/', 'http://fake.local');
@@ -552,7 +557,7 @@ export async function startFakeStripe(options: FakeStripeOptions = {}): Promise<
       resolve();
     });
   });
-  const port = (server.address() as AddressInfo).port;
+  port = (server.address() as AddressInfo).port;
   const url = `http://${host}:${port}`;
   if (!settings.publicUrl) settings.publicUrl = url;
   settings.publicUrl = settings.publicUrl.replace(/\/+$/, '');

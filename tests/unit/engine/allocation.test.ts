@@ -81,6 +81,20 @@ describe('tolerance allocation: proportional scaling and least cost', () => {
     expect(out.costAfter).toBeLessThan(ok(m, { method: 'proportional', target: { kind: 'ppk', value: 1.5 }, rows: rows(m, (i) => ({ a: 0, b: B[i], k })) }).costAfter);
   });
 
+  it('equal contributors under the RSS rule: ten parts for an assembly band of ±0.3162 get ±0.1 each', () => {
+    // RSS: T_asm = √(Σ Tᵢ²), so n equal tolerances share T_asm/√n each; ten at ±0.1 give ±0.316 (a widely restated
+    // illustration of the rule, common practice, no source opened). With the tolerance at ±3σ the band ±T_asm around a
+    // centred mean is Ppk 1.
+    const base = stack(Array.from({ length: 10 }, () => 0.05));
+    const tAsm = Math.sqrt(10) * 0.1;
+    const m = { ...base, limits: { lower: -40 - tAsm, upper: -40 + tAsm } };
+    for (const method of ['proportional', 'least-cost'] as const) {
+      const out = ok(m, { method, target: { kind: 'ppk', value: 1 }, rows: rows(m, () => ({ a: 0, b: 1, k: 1 })) });
+      out.rows.forEach((r) => expect(r.after).toBeCloseTo(0.1, 3));
+      expect(out.after.ppk!).toBeCloseTo(1, 9);
+    }
+  });
+
   it('the reciprocal form is the power form with k = 1', () => {
     const m = stack([0.1, 0.06, 0.04]);
     const base = { method: 'least-cost' as const, target: { kind: 'ppm' as const, value: 100 } };

@@ -7,6 +7,7 @@ import {
   histogram,
   orderStatisticRanks,
   percentileSorted,
+  percentilesBySelection,
   PERCENTILE_DEFINITION,
   spearman,
   welford,
@@ -138,5 +139,29 @@ describe('sorting and ranks', () => {
     const b = a.map((v) => Math.exp(3 * v));
     expect(spearman(a, b)).toBeCloseTo(1, 14);
     expect(spearman(a, b.map((v) => -v))).toBeCloseTo(-1, 14);
+  });
+});
+
+describe('percentiles by selection', () => {
+  it('equal the sorted-data percentiles exactly, with ties, negatives and tiny samples', () => {
+    const s = Stream.forInput('select', 'x');
+    const cases: Float64Array[] = [
+      Float64Array.from({ length: 100_001 }, () => s.uniform() * 10 - 5),
+      Float64Array.from({ length: 50_000 }, () => Math.floor(s.uniform() * 3)),
+      new Float64Array(20_000).fill(2.5),
+      Float64Array.from([3, 1, 2]),
+      Float64Array.from([7]),
+    ];
+    const levels = [0.95, 0.01, 0.5, 0.05, 0.999, 0.25, 0.0001];
+    for (const x of cases) {
+      const sorted = Float64Array.from(x).sort();
+      expect(percentilesBySelection(x, levels)).toEqual(levels.map((p) => percentileSorted(sorted, p)));
+    }
+  });
+});
+
+describe('percentiles by selection on the NIST data', () => {
+  it('give the NIST/SEMATECH e-Handbook §7.2.6.2 90th percentile, 95.1981', () => {
+    expect(percentilesBySelection(Float64Array.from(NIST), [0.9])[0]).toBeCloseTo(95.1981, 4);
   });
 });

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { exampleCostRange, exampleFormula, exampleLinearStack, runModelSync } from '@/lib/engine';
 import { workOf } from '@/lib/simulate/budget';
 import { resetRunLimits } from '@/lib/simulate/limits';
-import { closePool, poolStats, runOnPool, RunTimeoutError } from '@/lib/simulate/pool';
+import { closePool, poolStats, runOnPool, RunQueueFullError, RunTimeoutError } from '@/lib/simulate/pool';
 import { runTask } from '@/lib/simulate/pool-worker';
 
 // The server's worker-thread pool (piscina) with the real bundled worker (built by tests/support/run-worker-setup.ts).
@@ -75,5 +75,18 @@ describe('server run pool', () => {
     expect(small.ok).toBe(true);
     expect(poolStats()).toMatchObject({ running: 0, queued: 0 });
     expect(poolStats().threads).toBeGreaterThanOrEqual(1);
+  });
+
+  it('drops a run that waits too long for a thread, unstarted, and leaves nothing behind', async () => {
+    const big = withTrials(exampleFormula, 2_000_000);
+    // Both threads busy (each run stopped after 1.5 s); a third may wait 100 ms only.
+    const busy = [1, 2].map(() => runOnPool({ model: big, reply: 'json', maxWork: 1e9 }, 1500));
+    await new Promise((r) => setTimeout(r, 300));
+    const err = await runOnPool({ model: big, reply: 'json', maxWork: 1e9 }, 60_000, 100).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(RunQueueFullError);
+    expect((err as RunQueueFullError).waitedMs).toBe(100);
+    const settled = await Promise.allSettled(busy);
+    expect(settled.map((r) => r.status === 'rejected' && r.reason instanceof RunTimeoutError)).toEqual([true, true]);
+    expect(poolStats()).toMatchObject({ running: 0, queued: 0 });
   });
 });

@@ -105,6 +105,42 @@ describe('snapshot delivery', () => {
     expect(await worker.runOnce()).toBe(false);
   });
 
+  it('a pinned view goes into the same PDF beside the current one, each figure re-run with the same seed', async () => {
+    await startSmtp();
+    const s = await seedWidget();
+    const pinnedDials = { spacer_length: 24.08, float_max: 0.5 };
+    const accepted = await requestSnapshot(await viewerFor(s), { email: 'two-views@client.example', dialValues: dials, pinnedDialValues: pinnedDials }, 'requester-pin');
+    expect((await getSnapshotJob(accepted.id))!.pinnedDialValues).toMatchObject(pinnedDials);
+    const worker = startSnapshotWorker({ pollMs: 60_000, log: quiet });
+    await worker.stop();
+    expect(await worker.runOnce()).toBe(true);
+    const msg = smtp!.messages().find((m) => m.to.includes('two-views@client.example'))!;
+    expect(msg.text).toContain('both views side by side');
+    const text = await attachmentText(msg.id);
+    // What the browser shows for each view: the same engine, options and seed.
+    const current = runModelSync(STACK_MODEL, { dialValues: { ...dials }, samples: 'none' });
+    const pinned = runModelSync(STACK_MODEL, { dialValues: { ...pinnedDials }, samples: 'none' });
+    const { compareFigures } = await import('@/lib/results/compare');
+    const rows = compareFigures(pinned, current, 'mean');
+    expect(text).toContain('Two views side by side');
+    for (const r of rows) {
+      expect(text).toContain(norm(r.pinned));
+      expect(text).toContain(norm(r.current));
+      if (r.difference !== '—') expect(text).toContain(norm(r.difference));
+    }
+    expect(text).toContain('24.08 mm');
+    expect(text).toContain('24.20 mm');
+    expect(text).toContain('Pinned view (dashed line)');
+    expect(text).toContain('Current view (solid line)');
+  });
+
+  it('refuses a pinned view with a dial outside its range, naming the field', async () => {
+    const s = await seedWidget();
+    await expect(requestSnapshot(await viewerFor(s), { email: 'x@client.example', dialValues: dials, pinnedDialValues: { spacer_length: 999 } }, 'requester-bad-pin')).rejects.toMatchObject({
+      fields: { 'pinnedDialValues.spacer_length': [expect.stringMatching(/outside the dial's range/)] },
+    });
+  });
+
   it('retries with backoff while the mail server is down and delivers once when it is back', async () => {
     const s = await seedWidget();
     const accepted = await requestSnapshot(await viewerFor(s), { email: 'outage@client.example', dialValues: dials }, 'requester-b');

@@ -97,6 +97,22 @@ describe('snapshot request', () => {
     expect(Number((events as { n: number }).n)).toBe(SNAPSHOT_LIMITS.recipient);
   });
 
+  it('a simultaneous burst to one recipient still queues exactly five (on PostgreSQL the requests really overlap)', async () => {
+    const s = await seedWidget();
+    const v = await viewerFor(s);
+    const results = await Promise.all(
+      Array.from({ length: SNAPSHOT_LIMITS.recipient + 7 }, (_, i) =>
+        requestSnapshot(v, { email: 'together@client.example', dialValues: {} }, `together-${i}`).then(
+          () => 202,
+          (e: AppError) => e.status,
+        ),
+      ),
+    );
+    expect(results.filter((r) => r === 202)).toHaveLength(SNAPSHOT_LIMITS.recipient);
+    expect(results.filter((r) => r === 429)).toHaveLength(7);
+    expect(await jobs(s.passId)).toBe(SNAPSHOT_LIMITS.recipient);
+  });
+
   it('limits one requester across recipients', async () => {
     const s = await seedWidget();
     const v = await viewerFor(s);

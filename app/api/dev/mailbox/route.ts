@@ -1,9 +1,9 @@
 import { route, json } from '@/lib/http/handler';
 import { fetchMailbox } from '@/lib/mail/dev-mailbox';
 
-// Development only: open to anyone on this machine while mail goes to the local fake.
+// Development only: open on this machine (loopback) while mail goes to the local fake.
 export const GET = route(async (req) => {
   const to = req.nextUrl.searchParams.get('to');
-  const res = await fetchMailbox(to ? `/messages?to=${encodeURIComponent(to)}` : '/messages');
+  const res = await fetchMailbox(req, to ? `/messages?to=${encodeURIComponent(to)}` : '/messages');
   return json(await res.json());
 });

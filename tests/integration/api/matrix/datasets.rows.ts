@@ -34,7 +34,11 @@ export function insertBareModel(db: Database.Database, firmId: string): string {
 const PNG_1PX = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAIAAACQd1PeAAAADElEQVR4nGP4//8/AAX+Av4N70a4AAAAAElFTkSuQmCC', 'base64');
 
 export function insertLogo(db: Database.Database, firmId: string): void {
-  db.prepare('insert or replace into firm_logos (firm_id, bytes, content_type, hash, width, height, updated_at) values (?,?,?,?,?,?,?)').run(firmId, PNG_1PX, 'image/png', 'b'.repeat(64), 1, 1, now());
+  // ON CONFLICT … DO UPDATE: the upsert both SQLite and PostgreSQL understand.
+  db.prepare(
+    'insert into firm_logos (firm_id, bytes, content_type, hash, width, height, updated_at) values (?,?,?,?,?,?,?) ' +
+      'on conflict (firm_id) do update set bytes = excluded.bytes, content_type = excluded.content_type, hash = excluded.hash, width = excluded.width, height = excluded.height, updated_at = excluded.updated_at',
+  ).run(firmId, PNG_1PX, 'image/png', 'b'.repeat(64), 1, 1, now());
 }
 
 const readAll = { anonymous: 401, owner: 200, author: 200, checker: 200, outsider: 404 };

@@ -3,7 +3,8 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 
-// A throwaway PostgreSQL cluster in a temporary folder on a loopback port, for `npm run bench:load -- --postgres`.
+// A throwaway PostgreSQL cluster in a temporary folder on a loopback port, for `npm run bench:load -- --postgres`
+// and `npm run demo:scale -- --postgres`.
 // Debian's `postgresql` package is installed when its binaries are missing (as root). Run as the `postgres` user
 // when started as root, since PostgreSQL refuses to run as root.
 

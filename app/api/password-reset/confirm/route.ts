@@ -1,0 +1,9 @@
+import { route, readJson, json } from '@/lib/http/handler';
+import { resetPasswordSchema } from '@/lib/auth/schemas';
+import { resetPassword } from '@/lib/auth/password-change';
+
+// The e-mailed link's token and the new password; the token is the credential, so no session is needed.
+export const POST = route(async (req) => {
+  const input = await readJson(req, resetPasswordSchema);
+  return json(await resetPassword(input));
+});

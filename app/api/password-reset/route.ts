@@ -1,0 +1,11 @@
+import { route, readJson, json } from '@/lib/http/handler';
+import { passwordResetRequestSchema } from '@/lib/auth/schemas';
+import { requestPasswordReset } from '@/lib/auth/password-change';
+import { clientAddress } from '@/lib/http/client-address';
+
+// 202 and the same body whether or not the address has an account.
+export const POST = route(async (req) => {
+  const { email } = await readJson(req, passwordResetRequestSchema);
+  await requestPasswordReset(email, clientAddress(req));
+  return json({ email }, 202);
+});

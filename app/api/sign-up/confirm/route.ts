@@ -1,0 +1,10 @@
+import { route, readJson, json } from '@/lib/http/handler';
+import { confirmSignUpSchema } from '@/lib/auth/schemas';
+import { confirmSignUp } from '@/lib/auth/sign-up';
+import { clientAddress } from '@/lib/http/client-address';
+
+// The e-mailed link's token and the password chosen at sign-up: creates the firm and its owner.
+export const POST = route(async (req) => {
+  const input = await readJson(req, confirmSignUpSchema);
+  return json(await confirmSignUp(input, clientAddress(req)), 201);
+});

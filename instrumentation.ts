@@ -1,0 +1,8 @@
+// Runs once when the server starts: a server with a missing or unsafe setting refuses to start
+// (AUTH_SECRET, APP_URL, STRIPE_WEBHOOK_SECRET ...) instead of failing on the first request.
+export async function register(): Promise<void> {
+  if (process.env.NEXT_RUNTIME === 'nodejs' && process.env.NEXT_PHASE !== 'phase-production-build') {
+    const { checkEnvironmentOrExit } = await import('./lib/startup-check');
+    checkEnvironmentOrExit();
+  }
+}

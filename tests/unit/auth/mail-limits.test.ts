@@ -1,0 +1,56 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { useFreshDb } from '../../support/test-db';
+import { resetEnvCache } from '@/lib/env';
+import { getDb } from '@/db/knex';
+import { assertMailAllowed, noteMailSent, takeMailAllowance } from '@/lib/auth/mail-limits';
+import { AppError } from '@/lib/http/errors';
+
+// The e-mail limits against a real (temporary) database. Limits are common practice, no source.
+beforeAll(async () => {
+  process.env.MAIL_LIMIT_PER_CLIENT_HOUR = '8';
+  resetEnvCache();
+  await useFreshDb();
+});
+
+async function refusal(p: Promise<unknown>): Promise<AppError> {
+  const err = await p.then(
+    () => null,
+    (e: unknown) => e,
+  );
+  expect(err).toBeInstanceOf(AppError);
+  return err as AppError;
+}
+
+describe('e-mail limits', () => {
+  it('per client address, shared across kinds of e-mail and recipients', async () => {
+    for (let i = 0; i < 4; i++) await takeMailAllowance('sign-in-link', { recipient: `a${i}@x.example`, client: '198.51.100.7' });
+    for (let i = 0; i < 4; i++) await takeMailAllowance('password-reset', { recipient: `b${i}@x.example`, client: '198.51.100.7' });
+    const err = await refusal(takeMailAllowance('sign-up', { recipient: 'c@x.example', client: '198.51.100.7' }));
+    expect(err.status).toBe(429);
+    expect(err.message).toMatch(/Too many e-mails were requested from your network address. Try again in 60 minutes/);
+    expect(err.retryAfter).toBeGreaterThan(3500);
+    // Another client is not affected.
+    await takeMailAllowance('sign-up', { recipient: 'c@x.example', client: '198.51.100.8' });
+  });
+
+  it('per recipient, case-insensitive, and a refused request is not counted', async () => {
+    for (let i = 0; i < 5; i++) await takeMailAllowance('password-reset', { recipient: 'Someone@Firm.example', client: `203.0.113.${i}` });
+    const err = await refusal(takeMailAllowance('password-reset', { recipient: 'someone@firm.example', client: '203.0.113.99' }));
+    expect(err.message).toMatch(/Too many password-reset links/);
+    const n = await getDb()('mail_sends').where('key', 'like', 'mail:client:203.0.113.99').count({ n: '*' }).first();
+    expect(Number(n?.n)).toBe(0);
+  });
+
+  it('frees up as the window moves on', async () => {
+    const old = new Date(Date.now() - 2 * 3_600_000).toISOString();
+    await getDb()('mail_sends').insert(Array.from({ length: 10 }, () => ({ key: 'mail:sign-in-link:recipient:late@x.example', at: old })));
+    await assertMailAllowed('sign-in-link', { recipient: 'late@x.example' });
+  });
+
+  it('invitations per firm: 50 per 24 hours, with the wait in hours', async () => {
+    for (let i = 0; i < 50; i++) await noteMailSent('invitation', { firm: 'firm-1' });
+    const err = await refusal(assertMailAllowed('invitation', { firm: 'firm-1' }));
+    expect(err.message).toMatch(/50 invitations in the last 24 hours.*Try again in 24 hours/);
+    await assertMailAllowed('invitation', { firm: 'firm-2' });
+  });
+});
