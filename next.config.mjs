@@ -1,6 +1,7 @@
 /** @type {import('next').NextConfig} */
 
-// App-wide security headers. Embed pages (/embed/...) set their own frame-ancestors from the client's allowed origins.
+// App-wide security headers. Content-Security-Policy and HSTS of pages come from proxy.ts (a nonce per request);
+// embed pages (/embed/...) set their own, with frame-ancestors from the client's allowed origins.
 const common = [
   { key: 'X-Content-Type-Options', value: 'nosniff' },
   { key: 'Permissions-Policy', value: 'camera=(), microphone=(), geolocation=(), payment=()' },
@@ -20,11 +21,16 @@ const nextConfig = {
         source: '/((?!embed/).*)',
         headers: [
           ...common,
-          { key: 'Content-Security-Policy', value: "frame-ancestors 'none'; base-uri 'self'; form-action 'self' http://localhost:* http://127.0.0.1:*; object-src 'none'" },
           { key: 'X-Frame-Options', value: 'DENY' },
           { key: 'Referrer-Policy', value: 'strict-origin-when-cross-origin' },
           { key: 'Cross-Origin-Opener-Policy', value: 'same-origin' },
         ],
+      },
+      // Pages get a per-request policy with a script nonce from proxy.ts; API answers load nothing, so theirs
+      // allows nothing. (Static files carry none: the web worker's script would take it as its own policy.)
+      {
+        source: '/api/:path*',
+        headers: [{ key: 'Content-Security-Policy', value: "default-src 'none'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'" }],
       },
     ];
   },

@@ -1,18 +1,34 @@
 import { NextResponse, type NextRequest } from 'next/server';
 import { embedProxy } from '@/lib/embed/proxy';
+import { contentSecurityPolicy, hstsHeader, newNonce } from '@/lib/http/csp';
 
-// Redirects signed-out dashboard visitors to sign-in, and sets the per-client framing headers of embed pages.
-// Authorization happens in the server layer, not here.
+// Every page gets a Content-Security-Policy with a fresh script nonce (set on the request too, so Next puts the
+// nonce on its own scripts), and HSTS on an https deployment. Signed-out dashboard visitors are redirected to
+// sign-in, and embed pages get their per-client framing policy. Authorization happens in the server layer.
 export async function proxy(req: NextRequest) {
   const { pathname } = req.nextUrl;
   if (pathname.startsWith('/embed/')) return embedProxy(req);
-  const hasSession = req.cookies.has('next-auth.session-token') || req.cookies.has('__Secure-next-auth.session-token');
-  if (!hasSession) {
-    const url = new URL('/sign-in', req.url);
-    url.searchParams.set('next', pathname);
-    return NextResponse.redirect(url);
+  const appUrl = process.env.APP_URL || req.nextUrl.origin;
+  const development = process.env.NODE_ENV === 'development';
+  if (pathname === '/app' || pathname.startsWith('/app/')) {
+    const hasSession = req.cookies.has('next-auth.session-token') || req.cookies.has('__Secure-next-auth.session-token');
+    if (!hasSession) {
+      const url = new URL('/sign-in', req.url);
+      url.searchParams.set('next', pathname);
+      return NextResponse.redirect(url);
+    }
   }
-  return NextResponse.next();
+  const nonce = newNonce();
+  const csp = contentSecurityPolicy({ nonce, appUrl, development });
+  const forward = new Headers(req.headers);
+  forward.set('x-nonce', nonce);
+  forward.set('content-security-policy', csp);
+  const res = NextResponse.next({ request: { headers: forward } });
+  res.headers.set('Content-Security-Policy', csp);
+  const hsts = hstsHeader(appUrl, development);
+  if (hsts) res.headers.set('Strict-Transport-Security', hsts);
+  return res;
 }
 
-export const config = { matcher: ['/app/:path*', '/embed/:path*'] };
+// Pages only: API responses, static files and the icon take their headers from next.config.mjs.
+export const config = { matcher: ['/((?!api/|_next/static|_next/image|icon\\.svg|favicon\\.ico).*)'] };

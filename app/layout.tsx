@@ -1,5 +1,6 @@
 import type { Metadata, Viewport } from 'next';
 import localFont from 'next/font/local';
+import { headers } from 'next/headers';
 import './globals.css';
 
 // Fonts ship with the app (IBM Plex, SIL Open Font License); nothing is fetched at build or run time.
@@ -37,7 +38,10 @@ export const viewport: Viewport = {
   themeColor: '#141c22',
 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Reading the request makes every page render per request, so each response carries its own script nonce
+  // (proxy.ts); a page prerendered at build time could not.
+  await headers();
   return (
     <html lang="en" className={`${plexSans.variable} ${plexMono.variable}`}>
       <body className="bg-ink-50 font-sans text-ink-800 antialiased">{children}</body>

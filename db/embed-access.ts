@@ -23,7 +23,7 @@ export interface EmbedAccessRow {
   token: PassTokenRow | null;
 }
 
-const CLIENT = ['id', 'firm_id', 'name', 'note', 'allowed_origins', 'allowed_email_domains', 'key_version', 'not_before', 'created_at', 'updated_at', 'archived_at'];
+const CLIENT = ['id', 'firm_id', 'name', 'note', 'allowed_origins', 'allowed_email_domains', 'snapshot_any_address', 'key_version', 'not_before', 'created_at', 'updated_at', 'archived_at'];
 const TOKEN = ['jti', 'pass_id', 'key_version', 'issued_at', 'expires_at', 'revoked_at'];
 
 const pick = (r: Record<string, unknown>, prefix: string, cols: string[]) => Object.fromEntries(cols.map((c) => [c, r[prefix + c]]));

@@ -1,6 +1,8 @@
 // The loader an integrator's page includes once. It turns every placeholder of the Stochos snippet into an
 // iframe on the Stochos app and keeps each frame's height fitted to its content (iframe-resizer 4.4.5, parent
 // side, accepting messages only from the app's own origin). Several widgets on one page each get their own frame.
+// The pass token never goes into the frame's URL (where server logs and history would keep it): the frame asks
+// for it by postMessage, and gets it only when the message comes from that very frame at the app's origin.
 import iframeResize from 'iframe-resizer/js/iframeResizer.js';
 
 interface StochosEmbedApi {
@@ -16,6 +18,24 @@ declare global {
 }
 
 const SELECTOR = '[data-stochos-pass]';
+
+interface Mounted {
+  frame: HTMLIFrameElement;
+  passId: string;
+  token: string;
+}
+const mounted: Mounted[] = [];
+
+/** Hands a frame its pass when it asks: only to that frame's window, only at the app's origin. */
+function answerPassRequests(appOrigin: string): void {
+  window.addEventListener('message', (e: MessageEvent) => {
+    if (e.origin !== appOrigin) return;
+    const d = e.data as { type?: unknown; passId?: unknown } | null;
+    if (!d || typeof d !== 'object' || d.type !== 'stochos:ready') return;
+    const m = mounted.find((x) => x.frame.contentWindow === e.source && x.passId === d.passId);
+    m?.frame.contentWindow?.postMessage({ type: 'stochos:pass', passId: m.passId, token: m.token }, appOrigin);
+  });
+}
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 const LOADER_FILE = /\/embed\/stochos-embed\.js(\?.*)?$/;
 
@@ -48,8 +68,7 @@ function mount(el: HTMLElement, appOrigin: string): void {
     return;
   }
   const src = new URL(`/embed/${encodeURIComponent(passId)}`, appOrigin);
-  src.searchParams.set('pass', token);
-  // The page checks this against the client's allowed origins and answers resize messages only to it.
+  // The page checks this against the client's allowed origins and talks only to it.
   src.searchParams.set('origin', location.origin);
 
   const frame = document.createElement('iframe');
@@ -60,6 +79,7 @@ function mount(el: HTMLElement, appOrigin: string): void {
   frame.setAttribute('scrolling', 'no');
   frame.style.cssText = 'display:block;width:1px;min-width:100%;height:360px;border:0;overflow:hidden;background:transparent';
   el.replaceChildren(frame);
+  mounted.push({ frame, passId, token });
   iframeResize({ checkOrigin: [appOrigin], heightCalculationMethod: 'documentElementOffset', tolerance: 1, log: false }, frame);
 }
 
@@ -73,6 +93,7 @@ function mount(el: HTMLElement, appOrigin: string): void {
   if (!appOrigin) return;
   const scan = (root: ParentNode = document) => root.querySelectorAll<HTMLElement>(SELECTOR).forEach((el) => mount(el, appOrigin));
   window.StochosEmbed = { scan, appOrigin };
+  answerPassRequests(appOrigin);
   if (document.readyState === 'loading') document.addEventListener('DOMContentLoaded', () => scan());
   else scan();
 })();

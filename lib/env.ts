@@ -1,3 +1,4 @@
+import { isIP } from 'node:net';
 import { z } from 'zod';
 
 // Environment is read and validated once; every module imports `env()` from here.
@@ -42,7 +43,19 @@ const schema = z.object({
   // E-mails one client address may trigger per hour (sign-in links, password resets, sign-ups together).
   MAIL_LIMIT_PER_CLIENT_HOUR: z.coerce.number().int().min(1).max(1_000_000).default(30),
   // Reverse proxies whose forwarded header is believed (IPs or CIDRs, comma-separated); empty: the socket peer only.
-  TRUSTED_PROXIES: z.string().default(''),
+  TRUSTED_PROXIES: z
+    .string()
+    .default('')
+    .superRefine((list, ctx) => {
+      for (const entry of list.split(/[\s,]+/).filter(Boolean)) {
+        const [addr, bits, extra] = entry.split('/');
+        const v = isIP(addr ?? '');
+        const max = v === 6 ? 128 : 32;
+        if (!v || extra !== undefined || (bits !== undefined && (!/^\d+$/.test(bits) || Number(bits) > max))) {
+          ctx.addIssue({ code: 'custom', message: `"${entry}" is not an IP address or CIDR range (e.g. 10.0.0.0/8, 192.0.2.7, ::1)` });
+        }
+      }
+    }),
   TRUSTED_PROXY_HEADER: z.enum(['x-forwarded-for', 'forwarded']).default('x-forwarded-for'),
 });
 

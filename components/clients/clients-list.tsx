@@ -50,7 +50,14 @@ export function ClientsList({ canManage }: { canManage: boolean }) {
     {
       key: 'domains',
       header: 'E-mail domains',
-      cell: (c) => (c.allowedEmailDomains.length ? <span className="text-[0.8125rem] text-ink-700">{c.allowedEmailDomains.join(', ')}</span> : <span className="text-ink-500">None</span>),
+      cell: (c) =>
+        c.snapshotAnyAddress ? (
+          <span className="text-[0.8125rem] font-medium text-warn-700">Any address (not recommended)</span>
+        ) : c.allowedEmailDomains.length ? (
+          <span className="text-[0.8125rem] text-ink-700">{c.allowedEmailDomains.join(', ')}</span>
+        ) : (
+          <span className="text-ink-500">None</span>
+        ),
       hideBelow: 'lg',
     },
     { key: 'passes', header: 'Live passes', numeric: true, sortValue: (c) => c.activePasses, cell: (c) => `${c.activePasses} of ${c.totalPasses}` },

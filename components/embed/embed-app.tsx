@@ -1,35 +1,77 @@
 'use client';
 
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useRef, useState } from 'react';
 import { WidgetView } from '@/components/widget/widget-view';
 import { createEmbedEngine } from '@/lib/engine/embed-engine';
 import type { EmbedWidgetPayload } from '@/lib/embed/payload';
-import { createEmbedClient, EmbedAccessError } from './embed-client';
+import { viewerMessage } from '@/lib/embed/messages';
+import { createEmbedClient, EmbedAccessError, type EmbedClient } from './embed-client';
 import { EmbedNotice } from './embed-notice';
 import { SnapshotRequestForm } from '@/components/snapshots/snapshot-request-form';
 
-// The client viewer's page: exchange the pass in the URL for an in-memory bearer token, load the widget
-// through the embed API, and show it. Dial moves are counted (one event per settled move, not per tick).
+// The client viewer's page: receive the pass (from the loader by postMessage, or from the URL fragment of a
+// direct link), exchange it for an in-memory bearer token, load the widget through the embed API, and show
+// it. The pass is never in a URL the server sees. Dial moves are counted (one event per settled move).
 
 const DIAL_SETTLE_MS = 800;
+const PASS_WAIT_MS = 10_000;
 
 type State = { phase: 'loading' } | { phase: 'ready'; payload: EmbedWidgetPayload } | { phase: 'refused'; title: string; body: string };
 
-export function EmbedApp({ passId, origin, title, firmName, brandColor }: { passId: string; origin: string | null; title: string; firmName: string; brandColor: string }) {
+/**
+ * The pass for this frame. A fragment (`#pass=…`) is read and removed from the address at once. In a frame,
+ * the page asks its parent, and takes an answer only from the parent window at the host origin the server
+ * checked against the client's allowed origins, naming this pass.
+ */
+function receivePass(passId: string, origin: string | null): { promise: Promise<string | null>; cancel: () => void } {
+  const fromFragment = new URLSearchParams(window.location.hash.slice(1)).get('pass');
+  if (fromFragment) {
+    window.history.replaceState(window.history.state, '', window.location.pathname + window.location.search);
+    return { promise: Promise.resolve(fromFragment), cancel: () => undefined };
+  }
+  if (!origin || window.parent === window) return { promise: Promise.resolve(null), cancel: () => undefined };
+  let cleanup = () => undefined as void;
+  const promise = new Promise<string | null>((resolve) => {
+    const onMessage = (e: MessageEvent) => {
+      if (e.source !== window.parent || e.origin !== origin) return;
+      const d = e.data as { type?: unknown; passId?: unknown; token?: unknown } | null;
+      if (!d || typeof d !== 'object' || d.type !== 'stochos:pass' || d.passId !== passId || typeof d.token !== 'string') return;
+      cleanup();
+      resolve(d.token);
+    };
+    const timer = setTimeout(() => {
+      cleanup();
+      resolve(null);
+    }, PASS_WAIT_MS);
+    cleanup = () => {
+      clearTimeout(timer);
+      window.removeEventListener('message', onMessage);
+    };
+    window.addEventListener('message', onMessage);
+    window.parent.postMessage({ type: 'stochos:ready', passId }, origin);
+  });
+  return { promise, cancel: () => cleanup() };
+}
+
+export function EmbedApp({ passId, origin, firmName }: { passId: string; origin: string | null; firmName: string | null }) {
   const [state, setState] = useState<State>({ phase: 'loading' });
-  const client = useMemo(() => {
-    const pass = typeof window === 'undefined' ? '' : (new URLSearchParams(window.location.search).get('pass') ?? '');
-    return createEmbedClient({ passId, pass, origin });
-  }, [passId, origin]);
+  const [client, setClient] = useState<EmbedClient | null>(null);
   const pending = useRef(new Map<string, ReturnType<typeof setTimeout>>());
   // The view the viewer sees, for "E-mail this view"; empty means the author's values.
   const [dialValues, setDialValues] = useState<Record<string, number>>({});
 
   useEffect(() => {
     let live = true;
-    client
-      .loadWidget()
-      .then((payload) => live && setState({ phase: 'ready', payload }))
+    const wait = receivePass(passId, origin);
+    wait.promise
+      .then(async (pass) => {
+        if (!pass) throw new EmbedAccessError(401, `${viewerMessage('missing', null).title}. ${viewerMessage('missing', null).body}`);
+        const c = createEmbedClient({ passId, pass, origin });
+        const payload = await c.loadWidget();
+        if (!live) return;
+        setClient(c);
+        setState({ phase: 'ready', payload });
+      })
       .catch((err: unknown) => {
         if (!live) return;
         const e = err instanceof EmbedAccessError ? err : new EmbedAccessError(0, 'This widget cannot be shown. Check the connection and reload the page.');
@@ -38,9 +80,10 @@ export function EmbedApp({ passId, origin, title, firmName, brandColor }: { pass
     const timers = pending.current;
     return () => {
       live = false;
+      wait.cancel();
       for (const t of timers.values()) clearTimeout(t);
     };
-  }, [client]);
+  }, [passId, origin]);
 
   const onDialChange = useCallback((values: Record<string, number>, dialId: string | null) => {
     setDialValues(values);
@@ -54,7 +97,7 @@ export function EmbedApp({ passId, origin, title, firmName, brandColor }: { pass
       dialId,
       setTimeout(() => {
         timers.delete(dialId);
-        client.reportDial(dialId, value).catch((err: unknown) => {
+        client?.reportDial(dialId, value).catch((err: unknown) => {
           // A pass revoked while the viewer works: the next call says so, and the widget gives way to the notice.
           if (err instanceof EmbedAccessError && (err.status === 401 || err.status === 403)) setState({ phase: 'refused', title: err.title, body: err.body });
         });
@@ -63,12 +106,10 @@ export function EmbedApp({ passId, origin, title, firmName, brandColor }: { pass
   }, [client]);
 
   if (state.phase === 'refused') return <EmbedNotice title={state.title} body={state.body} firmName={firmName} />;
-  if (state.phase === 'loading') {
+  if (state.phase === 'loading' || !client) {
     return (
-      <div className="rounded-lg border border-ink-200 bg-white px-5 py-4" style={{ borderTopColor: brandColor, borderTopWidth: 3 }} aria-busy="true">
-        <p className="text-xs text-ink-600">{firmName}</p>
-        <h1 className="text-lg font-semibold text-ink-900">{title}</h1>
-        <p role="status" className="mt-2 text-sm text-ink-600">
+      <div className="rounded-lg border border-ink-200 bg-white px-5 py-4" aria-busy="true">
+        <p role="status" className="text-sm text-ink-600">
           Loading the model…
         </p>
       </div>

@@ -74,6 +74,30 @@ export async function checkPass(passId: string | null | undefined, token: string
   return checkState(await getEmbedAccess(v.token.passId, v.token.jti), v.token.clientId, v.token.keyVersion, v.token.issuedAt, v.token.jti);
 }
 
+export interface Framable {
+  ok: true;
+  pass: EmbedPass;
+  client: ClientRecord;
+  firmName: string | null;
+}
+
+/**
+ * The embed page's own check, by pass id alone: the pass token never travels in a URL (the loader hands it to
+ * the frame by postMessage, a direct link carries it in the fragment), so the page knows only which pass it
+ * shows. Pass-wide states (unknown, revoked, suspended, unpublished) are answered here; the token's own checks
+ * (signature, key, expiry) happen at the exchange (POST /api/embed/session). The page shows no widget data.
+ */
+export async function checkPassFrame(passId: string | null | undefined): Promise<Framable | Refused> {
+  if (!passId || !UUID.test(passId)) return refused('invalid', null);
+  const a = await getEmbedAccess(passId, '');
+  const client = a?.client;
+  if (!a || !client || client.firmId !== a.pass.firmId) return refused('invalid', null);
+  if (a.pass.revokedAt) return refused(a.pass.revokeReason === 'key_rotated' ? 'rotated' : 'revoked', client);
+  if (client.archivedAt) return refused('archived', client);
+  if (!(await getPublishedWidgetMeta(a.pass.firmId, a.pass.widgetId))) return refused('unpublished', client);
+  return { ok: true, pass: a.pass, client, firmName: (await getFirm(client.firmId))?.name ?? null };
+}
+
 export interface Viewer extends Granted {
   session: SessionClaims;
 }

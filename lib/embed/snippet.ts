@@ -20,10 +20,13 @@ export function embedSnippet(s: SnippetInput): string {
   ].join('\n');
 }
 
-/** The embed page address the loader builds; also handy for a direct check in a browser. */
+/**
+ * A direct link to the embed page, for a check in a browser. The pass rides in the fragment, which the browser
+ * never sends to a server (nor to its logs); the page reads it and removes it from the address at once.
+ */
 export function embedPageUrl(s: { appUrl: string; passId: string; token: string; origin?: string | null }): string {
   const u = new URL(`/embed/${encodeURIComponent(s.passId)}`, s.appUrl);
-  u.searchParams.set('pass', s.token);
   if (s.origin) u.searchParams.set('origin', s.origin);
+  u.hash = new URLSearchParams({ pass: s.token }).toString();
   return u.toString();
 }

@@ -113,6 +113,45 @@ test('the demo host page on the second origin shows the widget, sized to its con
   await expect.poll(async () => (await author.json<{ pass: { counts: { load: number; dial: number } } }>('GET', `/api/passes/${pass.id}`)).body.pass.counts).toMatchObject({ load: 1, dial: 1 });
 });
 
+test('the pass reaches the frame by postMessage: no request URL, frame address or history entry carries it', async ({ page }) => {
+  const clientId = await newClient();
+  const pass = await grant(clientId, 'Token stays out of URLs');
+  const urls: string[] = [];
+  page.on('request', (r) => urls.push(r.url()));
+  await page.goto(`${HOST}/?pass=${pass.id}`);
+  const f = page.frameLocator('iframe[title="Token stays out of URLs"]');
+  await expect(headline(f)).toBeVisible();
+  await expect(headline(f)).not.toContainText('Computing');
+  const frame = embedFrame(page, pass.id);
+  expect(frame.url()).not.toContain('pass=');
+  expect(frame.url()).not.toContain(pass.token);
+  expect(urls.some((u) => u.includes(`/embed/${pass.id}`))).toBe(true);
+  expect(urls.filter((u) => u.includes(pass.token))).toEqual([]);
+  // The exchange took the token in its body.
+  expect(await frame.evaluate(() => location.href)).not.toContain('#');
+});
+
+test('a direct link with the pass in the fragment works, and the page drops the fragment from its address', async ({ page }) => {
+  const clientId = await newClient();
+  const pass = await grant(clientId, 'Direct link');
+  const urls: string[] = [];
+  page.on('request', (r) => urls.push(r.url()));
+  await page.goto(`${APP}/embed/${pass.id}#pass=${encodeURIComponent(pass.token)}`);
+  await expect(page.locator(HEADLINE).first()).not.toContainText('Computing');
+  expect(page.url()).toBe(`${APP}/embed/${pass.id}`);
+  expect(urls.filter((u) => u.includes(pass.token))).toEqual([]);
+});
+
+test('a frame that a page at another allowed origin opens without the loader gets no pass from anyone else', async ({ page }) => {
+  // A hand-made frame with no loader on the parent: nobody answers the frame's request, so it explains itself.
+  const host = await customHost();
+  const clientId = await newClient([host.origin]);
+  const pass = await grant(clientId, 'No loader');
+  await host.show(page, `<iframe title="No loader" src="${APP}/embed/${pass.id}?origin=${encodeURIComponent(host.origin)}"></iframe>`);
+  await expect(page.frameLocator('iframe[title="No loader"]').getByRole('alert', { name: /This widget link is not valid/ })).toBeVisible({ timeout: 20_000 });
+  await host.close();
+});
+
 test('several widgets on one host page each load in their own frame', async ({ page }) => {
   const clientId = await newClient();
   const a = await grant(clientId, 'Spacer study A');
@@ -190,13 +229,16 @@ test('a pass revoked while the widget is open stops on the next call', async ({ 
 test('the embed page and its refusal message have no serious or critical accessibility violations', async ({ page }) => {
   const clientId = await newClient();
   const pass = await grant(clientId, 'Accessible widget');
-  await page.goto(`${APP}/embed/${pass.id}?pass=${encodeURIComponent(pass.token)}`);
+  // A direct link carries the pass in the fragment, which the browser never sends to the server.
+  await page.goto(`${APP}/embed/${pass.id}#pass=${encodeURIComponent(pass.token)}`);
   await expect(page.locator(HEADLINE).first()).not.toContainText('Computing');
   const results = await new AxeBuilder({ page }).analyze();
   const bad = results.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
   expect(bad.map((v) => `${v.id}: ${v.help} (${v.nodes.length})`)).toEqual([]);
 
-  await page.goto(`${APP}/embed/${pass.id}?pass=not.a.token`);
+  // A fresh load (a new fragment alone would not reload the page).
+  await page.goto('about:blank');
+  await page.goto(`${APP}/embed/${pass.id}#pass=not.a.token`);
   await expect(page.getByRole('alert', { name: /This widget link is not valid/ })).toBeVisible();
   const notice = await new AxeBuilder({ page }).analyze();
   expect(notice.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => v.id)).toEqual([]);

@@ -135,7 +135,8 @@ export default function ModelJsonDocs() {
       <p className="mt-2">
         Authenticate with a signed-in session or a firm API key (the owner creates and revokes keys in Settings). The answer holds the statistics of every output (mean, standard deviation,
         percentiles with order-statistic intervals, histogram, S-curve points, limits with probabilities and binomial intervals, drivers, convergence verdict) and, when asked, up to 100,000
-        samples per column. A bad model gets <code>422</code> with <code>error.fields</code> keyed by the path of every bad field, e.g. <code>model.contributors.1.minusTol</code>.
+        samples per column. A bad model gets <code>422</code> with <code>error.fields</code> keyed by the path of every bad field, e.g. <code>model.contributors.1.minusTol</code>; a number too large for a double (such as <code>1e309</code>) is refused like any other bad value. The
+        request body may be up to 4 MiB (other endpoints take 1 MiB of JSON); a larger one gets <code>413</code>.
       </p>
       <pre className="num mt-3 overflow-auto rounded-md bg-ink-900 p-4 text-xs text-ink-50">{curl}</pre>
 

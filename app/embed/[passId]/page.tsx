@@ -1,4 +1,4 @@
-import { checkPass } from '@/lib/embed/access';
+import { checkPassFrame } from '@/lib/embed/access';
 import { viewerMessage } from '@/lib/embed/messages';
 import { normaliseOrigin } from '@/lib/embed/schemas';
 import { EmbedNotice } from '@/components/embed/embed-notice';
@@ -6,6 +6,8 @@ import { EmbedApp } from '@/components/embed/embed-app';
 import { FrameFit } from '@/components/embed/frame-fit';
 
 // Headers (frame-ancestors = the client's allowed origins, Referrer-Policy: no-referrer) come from proxy.ts.
+// The pass token is not in this page's URL: the frame receives it from the loader by postMessage (or, for a
+// direct link, from the fragment, which the browser never sends), and exchanges it for a bearer token.
 export const dynamic = 'force-dynamic';
 
 type Search = Record<string, string | string[] | undefined>;
@@ -15,29 +17,22 @@ export default async function EmbedPage({ params, searchParams }: { params: Prom
   const { passId } = await params;
   const sp = await searchParams;
   const claimed = one(sp.origin);
-  const r = await checkPass(passId, one(sp.pass));
+  const r = await checkPassFrame(passId);
+  const o = claimed ? normaliseOrigin(claimed) : null;
+  const allowed = o?.ok && r.client?.allowedOrigins.includes(o.origin) ? o.origin : null;
   if (!r.ok) {
-    const allowed = claimed ? normaliseOrigin(claimed) : null;
-    const fitTo = allowed?.ok && r.client?.allowedOrigins.includes(allowed.origin) ? allowed.origin : null;
     return (
       <>
         <EmbedNotice {...viewerMessage(r.failure, r.firmName)} firmName={r.firmName} />
-        <FrameFit origin={fitTo} />
+        <FrameFit origin={allowed} />
       </>
     );
   }
-  let origin: string | null = null;
-  if (claimed) {
-    const o = normaliseOrigin(claimed);
-    if (!o.ok || !r.client.allowedOrigins.includes(o.origin)) {
-      return <EmbedNotice {...viewerMessage('origin', r.widget.firmName)} firmName={r.widget.firmName} />;
-    }
-    origin = o.origin;
-  }
+  if (claimed && !allowed) return <EmbedNotice {...viewerMessage('origin', r.firmName)} firmName={r.firmName} />;
   return (
     <>
-      <EmbedApp passId={r.pass.id} origin={origin} title={r.widget.title} firmName={r.widget.firmName} brandColor={r.widget.brandColor} />
-      <FrameFit origin={origin} />
+      <EmbedApp passId={r.pass.id} origin={allowed} firmName={r.firmName} />
+      <FrameFit origin={allowed} />
     </>
   );
 }

@@ -358,19 +358,22 @@ describe('headers', () => {
   it('sends exactly the client’s allowed origins and no-referrer on the embed page', async () => {
     const c = await newClient(author, [HOST, 'https://portal.second.example']);
     const { pass, token } = await grant(c.id);
-    const res = await anon.request('GET', `/embed/${pass.id}?pass=${encodeURIComponent(token)}&origin=${encodeURIComponent(HOST)}`);
+    // The page's address carries no pass: the loader hands the token over by postMessage.
+    const res = await anon.request('GET', `/embed/${pass.id}?origin=${encodeURIComponent(HOST)}`);
     expect(res.status).toBe(200);
     const csp = res.headers.get('content-security-policy') ?? '';
     expect(/frame-ancestors ([^;]*)/.exec(csp)![1]!.trim()).toBe(`${HOST} https://portal.second.example`);
     expect(res.headers.get('referrer-policy')).toBe('no-referrer');
     expect(res.headers.get('x-frame-options')).toBeNull();
     const html = await res.text();
-    // The page carries no sign-in client code.
+    // The page carries no sign-in client code, and no widget data before the pass is exchanged.
     expect(html).not.toMatch(/next-auth|SessionProvider/);
+    expect(html).not.toContain('Shaft float');
+    expect(html).not.toContain(token);
   });
 
   it('shows a friendly message, framable by nobody, when the pass names no known client', async () => {
-    const res = await anon.request('GET', `/embed/${randomUUID()}?pass=not.a.token`);
+    const res = await anon.request('GET', `/embed/${randomUUID()}`);
     expect(res.status).toBe(200);
     expect(res.headers.get('content-security-policy')).toMatch(/frame-ancestors 'none'/);
     expect(await res.text()).toMatch(/This widget link is not valid/);
@@ -378,9 +381,9 @@ describe('headers', () => {
 
   it('shows the revoked message, framable by the client’s origins so its viewers can read it', async () => {
     const c = await newClient();
-    const { pass, token } = await grant(c.id);
+    const { pass } = await grant(c.id);
     await author.json('POST', `/api/passes/${pass.id}/revoke`);
-    const res = await anon.request('GET', `/embed/${pass.id}?pass=${encodeURIComponent(token)}`);
+    const res = await anon.request('GET', `/embed/${pass.id}`);
     expect(/frame-ancestors ([^;]*)/.exec(res.headers.get('content-security-policy') ?? '')?.[1]?.trim()).toBe(HOST);
     expect(await res.text()).toMatch(/Access to this widget was withdrawn/);
   });

@@ -78,6 +78,13 @@ describe('request body limits', () => {
     expect(users()).toBe(before);
   });
 
+  it('answers 413 to an 8 MiB chunked sign-in form, which next-auth would otherwise read whole', async () => {
+    const b = chunkedJson(8 * MiB);
+    const r = await post(appUrl, '/api/auth/callback/credentials', b.body, { 'content-type': 'application/x-www-form-urlencoded' });
+    expect(r.status).toBe(413);
+    expect(r.body.error.message).toMatch(/sign-in form is larger than 64 KiB/);
+  });
+
   it('refuses a declared Content-Length over 1 MiB at once, and still reads a body just under it', async () => {
     const big = await post(appUrl, '/api/sign-up', JSON.stringify({ firmName: 'x'.repeat(MiB) }));
     expect(big.status).toBe(413);

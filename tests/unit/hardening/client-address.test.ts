@@ -45,3 +45,22 @@ describe('client address', () => {
     expect(() => parseTrustedProxies('10.0.0.0/33')).toThrow(/"10\.0\.0\.0\/33"/);
   });
 });
+
+describe('TRUSTED_PROXIES at start-up', () => {
+  it('a bad entry stops start-up with its name', async () => {
+    const { env, resetEnvCache } = await import('@/lib/env');
+    const before = process.env.TRUSTED_PROXIES;
+    try {
+      process.env.TRUSTED_PROXIES = '10.0.0.0/8, lb.internal';
+      resetEnvCache();
+      expect(() => env()).toThrow(/TRUSTED_PROXIES: "lb\.internal" is not an IP address or CIDR range/);
+      process.env.TRUSTED_PROXIES = '10.0.0.0/8, 2001:db8::/32';
+      resetEnvCache();
+      expect(env().TRUSTED_PROXIES).toBe('10.0.0.0/8, 2001:db8::/32');
+    } finally {
+      if (before === undefined) delete process.env.TRUSTED_PROXIES;
+      else process.env.TRUSTED_PROXIES = before;
+      resetEnvCache();
+    }
+  });
+});
