@@ -1,5 +1,8 @@
 import { test, expect, type Page, type ConsoleMessage } from '@playwright/test';
 import { E2E_APP, E2E_HOST } from './support/ports';
+import { Client } from '../support/http-client';
+import { openTestDb, firmIdOf } from '../support/db-direct';
+import { insertEmbedWidget } from '../integration/api/matrix/embed.rows';
 
 // The Content-Security-Policy with per-request script nonces, in Chromium: the landing page, sign-in, the
 // model docs, the studio and an embedded widget all hydrate and run their scripts (and the engine's web worker)
@@ -81,8 +84,16 @@ test('the studio runs its model in the web worker under the policy, with no viol
 test('an embedded widget on the host page gets its pass by postMessage and runs under its own policy', async ({ page }) => {
   await listenInPage(page);
   const violations = watchViolations(page);
-  const embedRes = page.waitForResponse((r) => r.url().startsWith(`${E2E_APP}/embed/`) && !r.url().endsWith('.js'));
-  await page.goto(`${E2E_HOST}/`);
+  // A pass of its own for a client that allows the host page's origin.
+  const db = openTestDb(process.env.E2E_DATA_DIR!);
+  const author = new Client(E2E_APP);
+  expect((await author.signIn('author@orrinvale.example', DEMO_PASSWORD)).ok).toBe(true);
+  const c = await author.json<{ client: { id: string } }>('POST', '/api/clients', { name: `CSP client ${Date.now().toString(36)}`, allowedOrigins: [E2E_HOST], allowedEmailDomains: ['e2e-client.example'] });
+  const g = await author.json<{ pass: { id: string } }>('POST', '/api/passes', { clientId: c.body.client.id, widgetId: insertEmbedWidget(db, firmIdOf(db, 'owner@orrinvale.example'), 'CSP widget') });
+  db.close();
+  expect(g.status).toBe(201);
+  const embedRes = page.waitForResponse((r) => r.url().startsWith(`${E2E_APP}/embed/${g.body.pass.id}`));
+  await page.goto(`${E2E_HOST}/?pass=${g.body.pass.id}`);
   const res = await embedRes;
   const p = policyOf(res.headers());
   expect(p['script-src']).toMatch(/^'self' 'nonce-[^']+'$/);
