@@ -91,14 +91,19 @@ export function env(): Env {
   else if (production && app.protocol !== 'https:' && !(e.STOCHOS_DEMO && isLoopbackHost(app.hostname))) {
     problems.push('APP_URL: must start with https:// in production so session cookies are Secure (plain http only for the local demo on localhost or 127.0.0.1)');
   }
-  if (e.NEXTAUTH_URL && new URL(e.NEXTAUTH_URL).origin !== app.origin) problems.push(`NEXTAUTH_URL: must have the same origin as APP_URL (${app.origin}), or be left unset`);
+  // A NEXTAUTH_URL this function filled in itself (below) follows APP_URL; only one set by the operator is checked.
+  const givenNextAuthUrl = e.NEXTAUTH_URL && e.NEXTAUTH_URL !== process.env.STOCHOS_FILLED_NEXTAUTH_URL ? e.NEXTAUTH_URL : undefined;
+  if (givenNextAuthUrl && new URL(givenNextAuthUrl).origin !== app.origin) problems.push(`NEXTAUTH_URL: must have the same origin as APP_URL (${app.origin}), or be left unset`);
   const realStripe = Boolean(e.STRIPE_SECRET_KEY) && e.STRIPE_SECRET_KEY !== FAKE_STRIPE_KEY;
   if (realStripe && !e.STRIPE_WEBHOOK_SECRET) {
     problems.push('STRIPE_WEBHOOK_SECRET: required with a real STRIPE_SECRET_KEY (the signing secret, whsec_..., of your Stripe webhook endpoint)');
   }
   if (problems.length) throw new Error(`Invalid environment:\n${problems.map((p) => `  ${p}`).join('\n')}`);
   // next-auth takes its own URL (and so the Secure flag of its cookies) from NEXTAUTH_URL.
-  process.env.NEXTAUTH_URL ??= app.origin;
+  if (!givenNextAuthUrl) {
+    process.env.NEXTAUTH_URL = app.origin;
+    process.env.STOCHOS_FILLED_NEXTAUTH_URL = app.origin;
+  }
   const authSecret = e.AUTH_SECRET ?? DEV_SECRET;
   cached = {
     ...e,

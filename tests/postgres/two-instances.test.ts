@@ -35,7 +35,11 @@ beforeAll(async () => {
   const databaseUrl = await createTestDatabase(admin, 'two');
   fs.writeFileSync(path.join(dataDir, 'database-url'), databaseUrl);
   // Instance A with the local fakes and snapshot worker 1 …
-  stack = await startStack({ dataDir, appPort: 3300 + OFF, smtpPort: 2725 + OFF, mailboxPort: 2726 + OFF, stripePort: 12311 + OFF, seed: false, quiet: true, databaseUrl });
+  stack = await startStack({ dataDir, appPort: 3300 + OFF, smtpPort: 2725 + OFF, mailboxPort: 2726 + OFF, stripePort: 12311 + OFF, seed: false, quiet: true, databaseUrl,
+    // Loopback stands for the load balancer, so each simulated viewer can have its own address in X-Forwarded-For;
+    // every sign-up here comes from one address, so the per-client e-mail limit is lifted.
+    extraEnv: { TRUSTED_PROXIES: '127.0.0.1, ::1', MAIL_LIMIT_PER_CLIENT_HOUR: '1000000' },
+  });
   urlA = stack.appUrl;
   // … and instance B with snapshot worker 2, on the same database and the same secrets.
   const envB = { ...process.env, ...stack.env };
@@ -78,7 +82,7 @@ const widgetCall = (base: string, passId: string, bearer: string) =>
 
 describe('two app instances over one PostgreSQL database', () => {
   it('refuses on one instance a pass revoked through the other, on its very next call', async () => {
-    const { owner, email } = await newFirm(urlA, 'two-revoke');
+    const { owner, email } = await newFirm(urlA, 'two-revoke', stack.mailboxUrl);
     const firmId = firmIdOf(db, email);
     const { passId, passToken } = await grant(owner, firmId);
     const s = await exchange(urlB, passId, passToken);
@@ -95,7 +99,7 @@ describe('two app instances over one PostgreSQL database', () => {
   });
 
   it('holds a sign-in limit reached through one instance on the other', async () => {
-    const { email } = await newFirm(urlA, 'two-limit');
+    const { email } = await newFirm(urlA, 'two-limit', stack.mailboxUrl);
     // Five failures, spread over both instances (the limit is five per account in 15 minutes).
     for (const base of [urlA, urlB, urlA, urlB, urlA]) expect((await new Client(base).signIn(email, 'wrong password!')).error).toBe('CredentialsSignin');
     for (const base of [urlB, urlA]) {
@@ -106,7 +110,7 @@ describe('two app instances over one PostgreSQL database', () => {
   });
 
   it('delivers each of 50 snapshot requests spread over both instances exactly once, with two workers', async () => {
-    const { owner, email } = await newFirm(urlA, 'two-snap');
+    const { owner, email } = await newFirm(urlA, 'two-snap', stack.mailboxUrl);
     const firmId = firmIdOf(db, email);
     // Two passes (30 per pass per hour), five network addresses (10 each) and ten recipients (5 each) keep all 50
     // requests inside the snapshot limits.

@@ -99,7 +99,7 @@ async function expectIdle(owner: Client): Promise<void> {
 
 describe('server run limits (POST /api/v1/simulate)', () => {
   it('states the limits in force', async () => {
-    const { owner } = await newFirm(appUrl, 'limits-status');
+    const { owner } = await newFirm(appUrl, 'limits-status', stack.mailboxUrl);
     const s = await owner.json<Status>('GET', '/api/v1/simulate');
     expect(s.status).toBe(200);
     expect(s.body.limits).toMatchObject({ maxWork: 20_000_000, timeLimitSeconds: 1.5, concurrentPerKey: 1, concurrentPerFirm: 2, ratePerKeyPerMinute: 5 });
@@ -108,7 +108,7 @@ describe('server run limits (POST /api/v1/simulate)', () => {
   });
 
   it('gives the worker’s result, bit for bit the engine’s in this process (worker = server)', async () => {
-    const { owner } = await newFirm(appUrl, 'limits-bits');
+    const { owner } = await newFirm(appUrl, 'limits-bits', stack.mailboxUrl);
     for (const model of [exampleLinearStack, exampleCostRange, exampleFormula].map((m) => ({ ...m, settings: { ...m.settings, trials: 4000 } }))) {
       const res = await owner.json<Record<string, unknown>>('POST', '/api/v1/simulate', { model, samples: { which: 'all', limit: 300 }, percentiles: [0.01, 0.99] });
       expect(res.status).toBe(200);
@@ -121,7 +121,7 @@ describe('server run limits (POST /api/v1/simulate)', () => {
   });
 
   it('refuses a run over the work budget up front: 422 naming model.settings.trials and the limit', async () => {
-    const { owner } = await newFirm(appUrl, 'limits-budget');
+    const { owner } = await newFirm(appUrl, 'limits-budget', stack.mailboxUrl);
     const t0 = performance.now();
     const res = await owner.json<ErrorBody>('POST', '/api/v1/simulate', { model: stackModel(2_000_000, 200) });
     expect(res.status).toBe(422);
@@ -137,7 +137,7 @@ describe('server run limits (POST /api/v1/simulate)', () => {
   });
 
   it('stops a run over the time limit: 503 saying so, the thread freed, and the next run answers', async () => {
-    const { owner } = await newFirm(appUrl, 'limits-time');
+    const { owner } = await newFirm(appUrl, 'limits-time', stack.mailboxUrl);
     const res = await owner.json<ErrorBody>('POST', '/api/v1/simulate', { model: long });
     expect(res.status).toBe(503);
     expect(res.body.error.code).toBe('unavailable');
@@ -149,7 +149,7 @@ describe('server run limits (POST /api/v1/simulate)', () => {
   });
 
   it('refuses a second run at once from one key, and a third from the firm: 429 with Retry-After', async () => {
-    const { owner } = await newFirm(appUrl, 'limits-concurrent');
+    const { owner } = await newFirm(appUrl, 'limits-concurrent', stack.mailboxUrl);
     const [k1, k2, k3] = [await newKey(owner, 'one'), await newKey(owner, 'two'), await newKey(owner, 'three')];
     // Two at once from one key: one runs (and meets the time limit), the other is refused at once.
     const pair = await Promise.all([callWithKey(k1, { model: long }), callWithKey(k1, { model: long })]);
@@ -176,7 +176,7 @@ describe('server run limits (POST /api/v1/simulate)', () => {
   });
 
   it('refuses the sixth run in a minute from one key: 429 with Retry-After until the minute ends', async () => {
-    const { owner } = await newFirm(appUrl, 'limits-rate');
+    const { owner } = await newFirm(appUrl, 'limits-rate', stack.mailboxUrl);
     // The counter is per fixed minute: if a minute boundary falls inside the burst, burst again in the new minute.
     for (let attempt = 0; attempt < 2; attempt++) {
       const key = await newKey(owner, `rate ${attempt}`);
