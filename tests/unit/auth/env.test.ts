@@ -5,7 +5,7 @@ import path from 'node:path';
 import { env, resetEnvCache } from '@/lib/env';
 import { dataFolderSecret } from '@/lib/dev/stack';
 
-const KEYS = ['NODE_ENV', 'APP_URL', 'NEXTAUTH_URL', 'AUTH_SECRET', 'STOCHOS_DEMO', 'STRIPE_SECRET_KEY', 'STRIPE_WEBHOOK_SECRET', 'NEXT_PHASE'] as const;
+const KEYS = ['NODE_ENV', 'APP_URL', 'NEXTAUTH_URL', 'STOCHOS_FILLED_NEXTAUTH_URL', 'AUTH_SECRET', 'STOCHOS_DEMO', 'STRIPE_SECRET_KEY', 'STRIPE_WEBHOOK_SECRET', 'NEXT_PHASE'] as const;
 let saved: Record<string, string | undefined>;
 const SECRET = 'a-real-secret-of-at-least-32-characters!!';
 

@@ -95,6 +95,7 @@ beforeAll(async () => {
     SMTP_HOST: '127.0.0.1',
     SMTP_PORT: String(smtp.smtpPort),
     APP_URL: 'http://localhost:3999',
+    NEXTAUTH_URL: 'http://localhost:3999',
   });
   delete process.env.STRIPE_SECRET_KEY;
   delete process.env.STRIPE_PRICE_ID;

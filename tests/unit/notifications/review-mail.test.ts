@@ -42,6 +42,7 @@ beforeAll(async () => {
   process.env.SMTP_PORT = String(smtpPort);
   process.env.SMTP_HOST = '127.0.0.1';
   process.env.APP_URL = 'http://localhost:3998';
+  process.env.NEXTAUTH_URL = 'http://localhost:3998';
   await useFreshDb();
   resetEnvCache();
   resetMailTransport();

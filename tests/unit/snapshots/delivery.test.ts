@@ -44,6 +44,7 @@ beforeAll(async () => {
   process.env.SMTP_PORT = String(smtpPort);
   process.env.SMTP_HOST = '127.0.0.1';
   process.env.APP_URL = 'http://localhost:3999';
+  process.env.NEXTAUTH_URL = 'http://localhost:3999';
   dbFile = await useFreshDb();
   resetEnvCache();
   resetMailTransport();
