@@ -27,7 +27,7 @@ async function signedIn(browser: Browser, email: string): Promise<Page> {
 }
 
 test('version saved → checker mailed with note and comparison link, count in header; sign-off → author mailed; publish → owner mailed', async ({ browser }) => {
-  const { owner, email: ownerEmail } = await newFirm(APP, 'review-owner');
+  const { owner, email: ownerEmail } = await newFirm(APP, 'review-owner', MAILBOX());
   const author = await addMember(APP, MAILBOX(), owner, 'author');
   const checker = await addMember(APP, MAILBOX(), owner, 'checker');
   const created = await author.client.json<{ model: { id: string } }>('POST', '/api/models', { title: 'Gearbox end float', template: 'linear-stack', start: 'example' });
@@ -80,7 +80,7 @@ test('version saved → checker mailed with note and comparison link, count in h
 });
 
 test('a checker who turns the check request off in Settings gets no mail, but still sees the count', async ({ browser }) => {
-  const { owner } = await newFirm(APP, 'review-prefs');
+  const { owner } = await newFirm(APP, 'review-prefs', MAILBOX());
   const author = await addMember(APP, MAILBOX(), owner, 'author');
   const checker = await addMember(APP, MAILBOX(), owner, 'checker');
   const page = await signedIn(browser, checker.email);

@@ -1,4 +1,3 @@
-import { inject } from 'vitest';
 import { Client, uniqueEmail } from './http-client';
 import { waitForMessage, firstLink } from './mailbox';
 import { signUpAndConfirm } from './sign-up';
@@ -7,11 +6,17 @@ export { signUpAndConfirm };
 
 export const PASSWORD = 'correct horse battery';
 
+// Loaded only when no mailbox is given: Playwright specs import this file too, and cannot load vitest.
+async function vitestMailbox(): Promise<string> {
+  const { inject } = await import('vitest');
+  return inject('mailboxUrl');
+}
+
 /** Signs up a new firm (confirmed through the local mailbox) and returns its owner, signed in. */
-export async function newFirm(appUrl: string, tag = 'owner', mailboxUrl: string = inject('mailboxUrl')): Promise<{ owner: Client; email: string }> {
+export async function newFirm(appUrl: string, tag = 'owner', mailboxUrl?: string): Promise<{ owner: Client; email: string }> {
   const owner = new Client(appUrl);
   const email = uniqueEmail(tag);
-  await signUpAndConfirm(appUrl, mailboxUrl, { firmName: `Test firm ${tag}`, name: 'Olive Owner', email, password: PASSWORD });
+  await signUpAndConfirm(appUrl, mailboxUrl ?? (await vitestMailbox()), { firmName: `Test firm ${tag}`, name: 'Olive Owner', email, password: PASSWORD });
   const s = await owner.signIn(email, PASSWORD);
   if (!s.ok) throw new Error(`sign-in failed: ${s.error}`);
   return { owner, email };

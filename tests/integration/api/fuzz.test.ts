@@ -167,7 +167,9 @@ describe('fuzzing every route handler', () => {
   });
 
   it('answers anonymous hostile requests without a 5xx or a stack trace, and changes no data', async () => {
-    const before = fingerprint(db);
+    // The digest reads SQLite's own catalogue; on PostgreSQL (npm run test:postgres) only the answers are checked.
+    const onPostgres = fs.existsSync(path.join(inject('dataDir'), 'database-url'));
+    const before = onPostgres ? null : fingerprint(db);
     const failures: string[] = [];
     for (const r of routes) {
       for (const method of r.methods) {
@@ -188,7 +190,7 @@ describe('fuzzing every route handler', () => {
       }
     }
     expect(failures).toEqual([]);
-    expect(fingerprint(db)).toEqual(before);
+    if (before) expect(fingerprint(db)).toEqual(before);
   });
 
   it('answers a signed-in member’s hostile requests without a 5xx or a stack trace', async () => {
