@@ -40,13 +40,14 @@ const g = globalThis as unknown as { __stochosRunPool?: PoolState };
 
 /** The bundled worker (lib/simulate/build-worker.mjs); SIMULATE_WORKER_FILE points elsewhere (tests). */
 export function workerFile(): string {
-  return path.resolve(process.env.SIMULATE_WORKER_FILE || path.join(process.cwd(), '.next/workers/simulate-worker.mjs'));
+  // The worker is built beside .next at run time, so the file tracer must not follow these paths.
+  return path.resolve(/*turbopackIgnore: true*/ process.env.SIMULATE_WORKER_FILE || path.join(/*turbopackIgnore: true*/ process.cwd(), '.next/workers/simulate-worker.mjs'));
 }
 
 function state(): PoolState {
   const file = workerFile();
   if (g.__stochosRunPool && g.__stochosRunPool.file === file) return g.__stochosRunPool;
-  if (!fs.existsSync(file)) throw new Error(`The run worker ${file} is missing: run \`npm run build\` (or node lib/simulate/build-worker.mjs).`);
+  if (!fs.existsSync(/*turbopackIgnore: true*/ file)) throw new Error(`The run worker ${file} is missing: run \`npm run build\` (or node lib/simulate/build-worker.mjs).`);
   const l = runLimits();
   const pool = new Piscina({
     filename: pathToFileURL(file).href,
