@@ -1,6 +1,6 @@
 import 'server-only';
 import type { Knex } from 'knex';
-import { getDb } from '@/db/knex';
+import { getDb, writeTransaction } from '@/db/knex';
 import { newId, nowIso, sha256 } from '@/db/ids';
 
 // Pending sign-ups and password-reset links. Only SHA-256 hashes of the e-mailed secrets are stored.
@@ -82,6 +82,33 @@ export async function countMailSends(key: string, sinceIso: string): Promise<{ c
 export async function recordMailSends(keys: string[]): Promise<void> {
   const at = nowIso();
   await getDb()('mail_sends').insert(keys.map((key) => ({ key, at })));
+}
+
+export interface MailSendCheck {
+  key: string;
+  sinceIso: string;
+  max: number;
+}
+
+/**
+ * Checks every limit and, when none is reached, counts the send under each key, all in one transaction holding a
+ * lock per key: two requests at once cannot both see room for one more e-mail. Returns the first limit reached.
+ */
+export async function takeMailSends(checks: MailSendCheck[]): Promise<{ refused: null } | { refused: number; oldest: string | null }> {
+  if (!checks.length) return { refused: null };
+  return writeTransaction(
+    async (trx) => {
+      for (let i = 0; i < checks.length; i++) {
+        const c = checks[i];
+        const r = await trx('mail_sends').where('key', c.key).andWhere('at', '>', c.sinceIso).count({ n: '*' }).min({ oldest: 'at' }).first();
+        if (Number(r?.n ?? 0) >= c.max) return { refused: i, oldest: (r?.oldest as string | null) ?? null };
+      }
+      const at = nowIso();
+      await trx('mail_sends').insert(checks.map((c) => ({ key: c.key, at })));
+      return { refused: null };
+    },
+    { locks: checks.map((c) => c.key) },
+  );
 }
 
 export async function pruneMailSends(beforeIso: string): Promise<void> {

@@ -1,5 +1,5 @@
 import 'server-only';
-import { countMailSends, recordMailSends } from '@/db/accounts';
+import { countMailSends, recordMailSends, takeMailSends } from '@/db/accounts';
 import { AppError } from '@/lib/http/errors';
 import { env } from '@/lib/env';
 
@@ -64,29 +64,37 @@ function waitWords(seconds: number): string {
   return `${m} minute${m === 1 ? '' : 's'}`;
 }
 
-/** Throws 429 with Retry-After when any limit is reached; nothing is counted then. */
-export async function assertMailAllowed(kind: MailKind, subjects: MailSubjects): Promise<void> {
+function refusal(rule: Rule, oldest: string | null): AppError {
+  const retryAfter = oldest ? Math.max(1, Math.ceil((Date.parse(oldest) + rule.windowMs - Date.now()) / 1000)) : Math.ceil(rule.windowMs / 1000);
+  return new AppError('rate_limited', rule.message(waitWords(retryAfter)), { retryAfter });
+}
+
+function applicable(kind: MailKind, subjects: MailSubjects): { rule: Rule; key: string }[] {
   const r = rules(kind);
-  for (const what of ['recipient', 'client', 'firm'] as const) {
+  return (['recipient', 'client', 'firm'] as const).flatMap((what) => {
     const rule = r[what];
     const value = subjects[what];
-    if (!rule || !value) continue;
-    const { count, oldest } = await countMailSends(keyOf(kind, what, value), new Date(Date.now() - rule.windowMs).toISOString());
-    if (count >= rule.max) {
-      const retryAfter = oldest ? Math.max(1, Math.ceil((Date.parse(oldest) + rule.windowMs - Date.now()) / 1000)) : Math.ceil(rule.windowMs / 1000);
-      throw new AppError('rate_limited', rule.message(waitWords(retryAfter)), { retryAfter });
-    }
+    return rule && value ? [{ rule, key: keyOf(kind, what, value) }] : [];
+  });
+}
+
+/** Throws 429 with Retry-After when any limit is reached; nothing is counted then. */
+export async function assertMailAllowed(kind: MailKind, subjects: MailSubjects): Promise<void> {
+  for (const { rule, key } of applicable(kind, subjects)) {
+    const { count, oldest } = await countMailSends(key, new Date(Date.now() - rule.windowMs).toISOString());
+    if (count >= rule.max) throw refusal(rule, oldest);
   }
 }
 
 export async function noteMailSent(kind: MailKind, subjects: MailSubjects): Promise<void> {
-  const r = rules(kind);
-  const keys = (['recipient', 'client', 'firm'] as const).filter((w) => r[w] && subjects[w]).map((w) => keyOf(kind, w, subjects[w]!));
+  const keys = applicable(kind, subjects).map((a) => a.key);
   if (keys.length) await recordMailSends(keys);
 }
 
-/** Check and count in one step, for e-mails a visitor triggers. */
+/** Check and count in one transaction, for e-mails a visitor triggers: concurrent requests cannot overshoot. */
 export async function takeMailAllowance(kind: MailKind, subjects: MailSubjects): Promise<void> {
-  await assertMailAllowed(kind, subjects);
-  await noteMailSent(kind, subjects);
+  const list = applicable(kind, subjects);
+  const now = Date.now();
+  const taken = await takeMailSends(list.map(({ rule, key }) => ({ key, max: rule.max, sinceIso: new Date(now - rule.windowMs).toISOString() })));
+  if (taken.refused !== null) throw refusal(list[taken.refused].rule, taken.oldest);
 }

@@ -41,6 +41,14 @@ describe('e-mail limits', () => {
     expect(Number(n?.n)).toBe(0);
   });
 
+  it('requests at the same moment cannot overshoot a limit', async () => {
+    const tries = Array.from({ length: 12 }, (_, i) => takeMailAllowance('sign-up', { recipient: 'rush@x.example', client: `192.0.2.${i}` }));
+    const settled = await Promise.allSettled(tries);
+    expect(settled.filter((s) => s.status === 'fulfilled')).toHaveLength(5);
+    const n = await getDb()('mail_sends').where('key', 'mail:sign-up:recipient:rush@x.example').count({ n: '*' }).first();
+    expect(Number(n?.n)).toBe(5);
+  });
+
   it('frees up as the window moves on', async () => {
     const old = new Date(Date.now() - 2 * 3_600_000).toISOString();
     await getDb()('mail_sends').insert(Array.from({ length: 10 }, () => ({ key: 'mail:sign-in-link:recipient:late@x.example', at: old })));
