@@ -1,17 +1,13 @@
 import 'server-only';
 import knexFactory, { type Knex } from 'knex';
 import { knexConfig } from '@/knexfile';
-import { env } from '@/lib/env';
+import { databaseTarget } from '@/db/config';
 import { advisoryLocks, isPostgres, isRetryableConflict } from '@/db/dialect';
 
 // One Knex instance per process; kept on globalThis so dev hot reloads do not open new pools.
 const g = globalThis as unknown as { __stochosDb?: { target: string; db: Knex } };
 
-/** The SQLite file or the PostgreSQL URL this process uses. */
-export function databaseTarget(): string {
-  const e = env();
-  return e.DATABASE_URL ?? e.DATABASE_FILE;
-}
+export { databaseTarget };
 
 export function getDb(): Knex {
   const target = databaseTarget();

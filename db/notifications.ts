@@ -4,7 +4,7 @@ import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';
 import { claimNext, leaseOps, transition } from '@/db/job-lease';
 import type { Role } from '@/db/users';
-import { NOTIFICATION_KINDS, type NotificationKind } from '@/lib/notifications/kinds';
+import type { NotificationKind } from '@/lib/notifications/kinds';
 
 // Notification mails (migrations/20261203800100_notifications.ts) and each person's choices of which to receive.
 
@@ -137,11 +137,10 @@ export async function listMailJobs(firmId: string, limit = 200): Promise<MailJob
   return rows.map(toJob);
 }
 
-export async function getNotificationPrefs(userId: string): Promise<Record<NotificationKind, boolean>> {
+/** The stored choices of one person, as rows; kinds with no row are on (the service fills them in). */
+export async function getNotificationPrefRows(userId: string): Promise<{ kind: string; enabled: boolean }[]> {
   const rows = await getDb()('notification_prefs').where({ user_id: userId }).select('kind', 'enabled');
-  const out = Object.fromEntries(NOTIFICATION_KINDS.map((k) => [k, true])) as Record<NotificationKind, boolean>;
-  for (const r of rows) if ((NOTIFICATION_KINDS as readonly string[]).includes(r.kind)) out[r.kind as NotificationKind] = Boolean(r.enabled);
-  return out;
+  return rows.map((r) => ({ kind: r.kind as string, enabled: Boolean(r.enabled) }));
 }
 
 export async function setNotificationPrefs(userId: string, prefs: Partial<Record<NotificationKind, boolean>>, trx: Knex.Transaction): Promise<void> {

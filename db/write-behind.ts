@@ -1,8 +1,7 @@
 import 'server-only';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
-import { env } from '@/lib/env';
-import { logger } from '@/lib/ops/log';
+import type { Logger } from 'pino';
 import type { PassEventKind } from '@/db/passes';
 
 // Writes that ride on read paths (a page load or dial move counted for a pass, an API key's last use) are
@@ -33,7 +32,16 @@ const CHUNK = 100;
 
 const newBatch = (): Batch => ({ events: [], apiKeysUsed: new Map(), attempts: 0, waiters: [] });
 
+/** What the buffer needs from the server around it, read at each use (tests change the interval between files). */
+export interface WriteBehindOptions {
+  /** How long rows wait before they are written (EVENT_FLUSH_MS). */
+  flushMs(): number;
+  log(): Pick<Logger, 'warn' | 'error'>;
+}
+
 class WriteBehind {
+  constructor(private readonly o: WriteBehindOptions) {}
+
   private batch = newBatch();
   private timer: NodeJS.Timeout | null = null;
   private flushing: Promise<void> = Promise.resolve();
@@ -59,7 +67,7 @@ class WriteBehind {
   private wait(): Promise<void> {
     const b = this.batch;
     const p = new Promise<void>((resolve, reject) => b.waiters.push({ resolve, reject }));
-    this.timer ??= setTimeout(() => void this.flush(), env().EVENT_FLUSH_MS);
+    this.timer ??= setTimeout(() => void this.flush(), this.o.flushMs());
     return p;
   }
 
@@ -86,18 +94,18 @@ class WriteBehind {
       b.attempts++;
       if (b.attempts >= MAX_ATTEMPTS) {
         this.settle(b);
-        logger().error({ err, events: b.events.length, apiKeys: b.apiKeysUsed.size }, 'gave up writing batched events');
+        this.o.log().error({ err, events: b.events.length, apiKeys: b.apiKeysUsed.size }, 'gave up writing batched events');
         for (const w of b.waiters) w.reject(err);
         return;
       }
-      logger().warn({ err, attempt: b.attempts }, 'batched event write failed; retrying with the next batch');
+      this.o.log().warn({ err, attempt: b.attempts }, 'batched event write failed; retrying with the next batch');
       // Merge into the current batch (older rows first) and make sure a flush is scheduled.
       const cur = this.batch;
       cur.events = [...b.events, ...cur.events];
       for (const [k, v] of b.apiKeysUsed) if (!cur.apiKeysUsed.has(k)) cur.apiKeysUsed.set(k, v);
       cur.waiters = [...b.waiters, ...cur.waiters];
       cur.attempts = Math.max(cur.attempts, b.attempts);
-      this.timer ??= setTimeout(() => void this.flush(), env().EVENT_FLUSH_MS * 2 ** b.attempts);
+      this.timer ??= setTimeout(() => void this.flush(), this.o.flushMs() * 2 ** b.attempts);
     }
   }
 
@@ -150,11 +158,12 @@ async function writeBatch(trx: Knex.Transaction, b: Batch): Promise<void> {
   }
 }
 
-// One buffer per process (kept on globalThis so development reloads do not strand a batch).
+// One buffer per process (kept on globalThis so development reloads do not strand a batch); the first caller's
+// options stay. Server code calls `writeBehind()` from lib/ops/write-behind.ts, which passes the environment's.
 const g = globalThis as unknown as { __stochosWriteBehind?: WriteBehind };
-export function writeBehind(): WriteBehind {
+export function writeBehindBuffer(o: WriteBehindOptions): WriteBehind {
   if (!g.__stochosWriteBehind) {
-    const wb = new WriteBehind();
+    const wb = new WriteBehind(o);
     g.__stochosWriteBehind = wb;
     // On a clean stop, write at once rather than at the next tick of the timer (Next awaits the requests' promises).
     // Only joined when someone (next start) already handles SIGTERM: a listener would otherwise cancel the default exit.

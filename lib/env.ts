@@ -1,5 +1,6 @@
 import { isIP } from 'node:net';
 import { z } from 'zod';
+import { databaseEnvShape } from '@/db/config';
 
 // Environment is read and validated once; every module imports `env()` from here.
 const boolish = z
@@ -14,13 +15,7 @@ const schema = z.object({
   NEXTAUTH_URL: z.url().optional(),
   AUTH_SECRET: z.string().min(32).optional(),
   STOCHOS_DEMO: boolish,
-  DATABASE_FILE: z.string().min(1).default('.data/stochos.sqlite'),
-  // Set: PostgreSQL instead of the SQLite file (several app instances can share it).
-  DATABASE_URL: z
-    .string()
-    .regex(/^postgres(ql)?:\/\//i, 'must start with postgres:// (or be left unset for SQLite)')
-    .optional()
-    .or(z.literal('').transform(() => undefined)),
+  ...databaseEnvShape,
   SESSION_MAX_AGE_SECONDS: z.coerce.number().int().min(300).max(86_400).default(8 * 3600),
   SMTP_HOST: z.string().default('127.0.0.1'),
   SMTP_PORT: z.coerce.number().int().min(1).max(65_535).default(2525),

@@ -3,7 +3,7 @@ import { headers } from 'next/headers';
 import { findFirmByApiKey } from '@/db/api-keys';
 import { requireMember } from '@/lib/auth/guard';
 import { AppError } from '@/lib/http/errors';
-import { writeBehind } from '@/db/write-behind';
+import { writeBehind } from '@/lib/ops/write-behind';
 import { afterResponse } from '@/lib/ops/after-response';
 import type { Permission } from '@/lib/auth/permissions';
 

@@ -5,13 +5,14 @@ import { AppError, notFound } from '@/lib/http/errors';
 import { readForm } from '@/lib/http/handler';
 import { writeTransaction } from '@/db/knex';
 import { recordAudit } from '@/db/audit';
-import { archiveDataset, getDataset, insertDataset, modelsUsingDataset, recordDatasetUse, type DatasetRecord } from '@/db/datasets';
+import { archiveDataset, getDataset, insertDataset, listDatasets, modelsUsingDataset, recordDatasetUse, type DatasetRecord, type DatasetRow } from '@/db/datasets';
 import { getModel } from '@/db/models';
 import type { Member } from '@/lib/auth/guard';
 import { columnError, MAX_UPLOAD_BYTES, readColumn, readCsv } from './csv';
 import { CRITICAL_VALUE_NOTE, fitAll, TooFewValuesError, type FitResult } from './fit';
 import { summarise, type DatasetSummary } from './summary';
 import { LAWS } from './fit';
+import { datasetCsv } from './export';
 
 export const uploadFieldsSchema = z.object({
   name: z.string().trim().min(1, 'Name the dataset.').max(120, 'The name is at most 120 characters.'),
@@ -125,4 +126,14 @@ export async function recordUse(m: Member, id: string, body: z.infer<typeof useS
     const useId = await recordDatasetUse(m.firmId, { datasetId: id, modelId: body.modelId, hash: ds.hash, method: body.method, userId: m.userId }, trx);
     return { id: useId, hash: ds.hash };
   });
+}
+
+export const datasetList = (m: Member): Promise<DatasetRow[]> => listDatasets(m.firmId);
+
+/** The dataset as a CSV download: its file name (from the dataset's name) and contents. */
+export async function datasetExport(m: Member, id: string): Promise<{ fileName: string; csv: string }> {
+  const ds = await getDataset(m.firmId, id);
+  if (!ds) throw notFound('That dataset');
+  const slug = ds.name.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'dataset';
+  return { fileName: `${slug}.csv`, csv: datasetCsv(ds.name, ds.unit, ds.values) };
 }

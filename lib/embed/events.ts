@@ -1,6 +1,6 @@
 import 'server-only';
 import { countPassEventsSince, recordPassEvent, type PassEventKind, type PassRecord } from '@/db/passes';
-import { writeBehind } from '@/db/write-behind';
+import { writeBehind } from '@/lib/ops/write-behind';
 import { AppError } from '@/lib/http/errors';
 import { afterResponse } from '@/lib/ops/after-response';
 

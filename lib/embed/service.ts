@@ -5,6 +5,8 @@ import { recordAudit } from '@/db/audit';
 import { clientNameTaken, getClient, insertClient, rotateClientKey, updateClient, type ClientListRow, type ClientRecord } from '@/db/clients';
 import { findLivePass, getPass, insertPass, renewPass as renewPassRow, revokeClientPasses, revokePass as revokePassRow, type PassRecord } from '@/db/passes';
 import { getPublishedWidget, getWidget } from '@/db/widgets';
+import { listClients } from '@/db/clients';
+import { listPasses, passDailyCounts, type DailyCounts } from '@/db/passes';
 import { AppError, conflict, fieldError, notFound } from '@/lib/http/errors';
 import { env } from '@/lib/env';
 import type { Member } from '@/lib/auth/guard';
@@ -153,3 +155,33 @@ export async function revokePass(m: Member, id: string): Promise<PassRecord> {
     return (await getPass(m.firmId, id, trx))!;
   });
 }
+
+export async function clientList(m: Member, opts: { includeArchived?: boolean } = {}): Promise<ClientListView[]> {
+  return (await listClients(m.firmId, opts)).map(clientListView);
+}
+
+/** One client and all its passes (live or not). */
+export async function clientDetail(m: Member, id: string): Promise<{ client: ClientView; passes: PassView[] }> {
+  const client = await getClient(m.firmId, id);
+  if (!client) throw notFound('That client');
+  const passes = await Promise.all((await listPasses(m.firmId, { clientId: id })).map(passView));
+  return { client: clientView(client), passes };
+}
+
+export const clientExists = async (m: Member, id: string): Promise<boolean> => (await getClient(m.firmId, id)) !== null;
+
+export async function passList(m: Member, filters: { clientId?: string; widgetId?: string }): Promise<PassView[]> {
+  return Promise.all((await listPasses(m.firmId, filters)).map(passView));
+}
+
+const PASS_DAYS = 30;
+
+/** One pass with its page loads and dial moves per day over the last 30 days. */
+export async function passDetail(m: Member, id: string): Promise<PassView & { daily: DailyCounts[] }> {
+  const p = await getPass(m.firmId, id);
+  if (!p) throw notFound('That pass');
+  return { ...(await passView(p)), daily: await passDailyCounts(m.firmId, id, PASS_DAYS) };
+}
+
+/** The client a pass of the firm belongs to, or null when the firm has no such pass. */
+export const passClientId = async (m: Member, passId: string): Promise<string | null> => (await getPass(m.firmId, passId))?.clientId ?? null;

@@ -16,6 +16,8 @@ import {
   updateModelMeta,
 } from '@/db/models';
 import { getLiveWidgetForModel, getWidget, insertWidget, unpublishWidget as dbUnpublish, updateWidget as dbUpdateWidget } from '@/db/widgets';
+import { listModels, type ModelListRow } from '@/db/models';
+import { listWidgets } from '@/db/widgets';
 import { EXAMPLE_MODELS } from '@/lib/engine/examples';
 import { validateModel, type StochosModel } from '@/lib/engine/schema';
 import { AppError, conflict, forbidden, notFound } from '@/lib/http/errors';
@@ -366,4 +368,25 @@ export async function takeDown(member: Member, id: string): Promise<void> {
     if (!(await dbUnpublish(member.firmId, id, member.userId, trx))) throw conflict('This widget was already taken down.');
     await recordAudit({ firmId: member.firmId, actorUserId: member.userId, action: 'widget.unpublished', targetType: 'widget', targetId: id, detail: { modelId: w.modelId, title: w.title } }, trx);
   });
+}
+
+// Reads behind the lists and pages: firm-scoped, nothing written.
+
+export const modelList = (member: Member, opts: { includeArchived?: boolean } = {}): Promise<ModelListRow[]> => listModels(member.firmId, opts);
+
+export async function versionList(member: Member, modelId: string): Promise<VersionSummary[]> {
+  await mustGetModel(member.firmId, modelId);
+  return listVersions(member.firmId, modelId);
+}
+
+export const modelExists = async (member: Member, id: string): Promise<boolean> => (await getModel(member.firmId, id)) !== null;
+
+export const versionExists = async (member: Member, modelId: string, number: number): Promise<boolean> => (await getVersionByNumber(member.firmId, modelId, number)) !== null;
+
+export const widgetList = (member: Member, opts: { includeUnpublished?: boolean } = {}): Promise<WidgetRecord[]> => listWidgets(member.firmId, opts);
+
+export async function widgetDetail(member: Member, id: string): Promise<WidgetRecord> {
+  const w = await getWidget(member.firmId, id);
+  if (!w) throw notFound('That widget');
+  return w;
 }

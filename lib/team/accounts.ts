@@ -12,6 +12,8 @@ import {
   revokeInvitation,
   setMemberRole,
   setMemberStatus,
+  listMembers,
+  listPendingInvitations,
 } from '@/db/team';
 import { recordAudit } from '@/db/audit';
 import { newSecret } from '@/db/ids';
@@ -21,10 +23,16 @@ import { linkMail, sendMail } from '@/lib/mail/send';
 import { env } from '@/lib/env';
 import type { Member } from '@/lib/auth/guard';
 import { passwordField, type inviteSchema, type acceptInvitationSchema } from '@/lib/auth/schemas';
-import { assertSeatAvailable } from '@/lib/team/seats';
+import { assertSeatAvailable, seatUsage } from '@/lib/team/seats';
 import { assertMailAllowed, noteMailSent } from '@/lib/auth/mail-limits';
 
 export const INVITATION_DAYS = 7;
+
+/** The team page: active and removed members, invitations still open, and the seats they use. */
+export async function teamOverview(actor: Member) {
+  const [members, invitations, seats] = await Promise.all([listMembers(actor.firmId), listPendingInvitations(actor.firmId), seatUsage(actor.firmId)]);
+  return { members, invitations, seats };
+}
 
 export async function inviteMember(actor: Member, input: z.infer<typeof inviteSchema>): Promise<{ id: string; email: string; role: Role; expiresAt: string }> {
   // Invitations are e-mails to any address a firm types: limited per firm, withdrawn ones included.

@@ -1,11 +1,10 @@
 import { route, json } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
-import { listDatasets } from '@/db/datasets';
-import { uploadDataset } from '@/lib/datasets/service';
+import { datasetList, uploadDataset } from '@/lib/datasets/service';
 
 export const GET = route(async () => {
   const m = await requireMember('models.read');
-  return json({ datasets: await listDatasets(m.firmId) });
+  return json({ datasets: await datasetList(m) });
 });
 
 /** Multipart: `file` (CSV) or `text` (a pasted column), with `name`, `unit`, `column` (index) and `drop` (row numbers). */

@@ -1,13 +1,12 @@
 import { route, readJson, json } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
-import { listModels } from '@/db/models';
 import { createModelSchema } from '@/lib/models/schemas';
-import { createModel } from '@/lib/models/service';
+import { createModel, modelList } from '@/lib/models/service';
 
 export const GET = route(async (req) => {
   const m = await requireMember('models.read');
   const archived = req.nextUrl.searchParams.get('archived');
-  return json({ models: await listModels(m.firmId, { includeArchived: archived === '1' || archived === 'true' }) });
+  return json({ models: await modelList(m, { includeArchived: archived === '1' || archived === 'true' }) });
 });
 
 export const POST = route(async (req) => {

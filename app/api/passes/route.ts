@@ -2,9 +2,8 @@ import { z } from 'zod';
 import { route, readJson, json } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
 import { validationError } from '@/lib/http/errors';
-import { listPasses } from '@/db/passes';
 import { passCreateSchema } from '@/lib/embed/schemas';
-import { createPass, passView } from '@/lib/embed/service';
+import { createPass, passList, passView } from '@/lib/embed/service';
 
 const filters = z.object({ clientId: z.uuid('clientId is not a valid id.').optional(), widgetId: z.uuid('widgetId is not a valid id.').optional() });
 
@@ -12,8 +11,7 @@ export const GET = route(async (req) => {
   const m = await requireMember('firm.read');
   const parsed = filters.safeParse(Object.fromEntries(req.nextUrl.searchParams));
   if (!parsed.success) throw validationError(parsed.error);
-  const passes = await Promise.all((await listPasses(m.firmId, parsed.data)).map(passView));
-  return json({ passes });
+  return json({ passes: await passList(m, parsed.data) });
 });
 
 export const POST = route(async (req) => {

@@ -1,13 +1,12 @@
 import { route, readJson, json } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
-import { listWidgets } from '@/db/widgets';
 import { publishSchema } from '@/lib/models/schemas';
-import { publish } from '@/lib/models/service';
+import { publish, widgetList } from '@/lib/models/service';
 
 export const GET = route(async (req) => {
   const m = await requireMember('models.read');
   const all = req.nextUrl.searchParams.get('all');
-  return json({ widgets: await listWidgets(m.firmId, { includeUnpublished: all === '1' || all === 'true' }) });
+  return json({ widgets: await widgetList(m, { includeUnpublished: all === '1' || all === 'true' }) });
 });
 
 /** Publishes a version of a model as a widget (checked versions only, unless the firm relaxed the rule). */

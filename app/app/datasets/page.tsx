@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import { requirePageMember } from '@/lib/auth/guard';
 import { can } from '@/lib/auth/permissions';
 import { PageHeader } from '@/components/ui/page-header';
-import { listDatasets } from '@/db/datasets';
+import { datasetList } from '@/lib/datasets/service';
 import { DatasetLibrary } from '@/components/datasets/dataset-library';
 import { UploadForm } from '@/components/datasets/upload-form';
 
@@ -10,7 +10,7 @@ export const metadata: Metadata = { title: 'Datasets' };
 
 export default async function DatasetsPage() {
   const member = await requirePageMember('models.read', '/app/datasets');
-  const rows = await listDatasets(member.firmId);
+  const rows = await datasetList(member);
   return (
     <>
       <PageHeader title="Datasets" description="Measured data your firm has uploaded: parts from a supplier, cost growth of past projects. Fit a law to it or use it as it stands in a model." />

@@ -1,16 +1,15 @@
 import type { Metadata } from 'next';
 import { requirePageMember } from '@/lib/auth/guard';
+import { isUuid } from '@/lib/http/params';
 import { PageHeader } from '@/components/ui/page-header';
 import { SnapshotsList } from '@/components/snapshots/snapshots-list';
 
 export const metadata: Metadata = { title: 'Snapshots' };
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/;
-
 export default async function SnapshotsPage({ searchParams }: { searchParams: Promise<{ clientId?: string | string[] }> }) {
   await requirePageMember('clients.manage', '/app/snapshots');
   const raw = (await searchParams).clientId;
-  const clientId = typeof raw === 'string' && UUID.test(raw) ? raw : null;
+  const clientId = typeof raw === 'string' && isUuid(raw) ? raw : null;
   return (
     <>
       <PageHeader

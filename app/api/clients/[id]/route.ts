@@ -1,26 +1,18 @@
-import { z } from 'zod';
 import { route, readJson, json, parseParams } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
-import { notFound } from '@/lib/http/errors';
-import { getClient } from '@/db/clients';
-import { listPasses } from '@/db/passes';
+import { idParams } from '@/lib/http/params';
 import { clientPatchSchema } from '@/lib/embed/schemas';
-import { clientView, editClient, passView } from '@/lib/embed/service';
-
-const params = z.object({ id: z.uuid() });
+import { clientDetail, clientView, editClient } from '@/lib/embed/service';
 
 export const GET = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('firm.read');
-  const { id } = parseParams(await ctx.params, params);
-  const client = await getClient(m.firmId, id);
-  if (!client) throw notFound('That client');
-  const passes = await Promise.all((await listPasses(m.firmId, { clientId: id })).map(passView));
-  return json({ client: clientView(client), passes });
+  const { id } = parseParams(await ctx.params, idParams);
+  return json(await clientDetail(m, id));
 });
 
 export const PATCH = route<{ id: string }>(async (req, ctx) => {
   const m = await requireMember('clients.manage');
-  const { id } = parseParams(await ctx.params, params);
+  const { id } = parseParams(await ctx.params, idParams);
   const patch = await readJson(req, clientPatchSchema);
   return json({ client: clientView(await editClient(m, id, patch)) });
 });

@@ -1,20 +1,18 @@
-import { z } from 'zod';
 import { route, json, parseParams, noContent } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
 import { datasetDetail, deleteDataset } from '@/lib/datasets/service';
-
-const params = z.object({ id: z.uuid() });
+import { idParams } from '@/lib/http/params';
 
 export const GET = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('models.read');
-  const { id } = parseParams(await ctx.params, params);
+  const { id } = parseParams(await ctx.params, idParams);
   return json(await datasetDetail(m, id));
 });
 
 /** `?confirm=1` deletes a dataset that models use; without it the answer is 409 naming them. */
 export const DELETE = route<{ id: string }>(async (req, ctx) => {
   const m = await requireMember('models.edit');
-  const { id } = parseParams(await ctx.params, params);
+  const { id } = parseParams(await ctx.params, idParams);
   await deleteDataset(m, id, req.nextUrl.searchParams.get('confirm') === '1');
   return noContent();
 });

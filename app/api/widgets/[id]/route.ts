@@ -1,25 +1,19 @@
-import { z } from 'zod';
 import { route, readJson, json, noContent, parseParams } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
-import { getWidget } from '@/db/widgets';
-import { notFound } from '@/lib/http/errors';
 import { widgetPatchSchema } from '@/lib/models/schemas';
-import { changeWidget, takeDown } from '@/lib/models/service';
-
-const params = z.object({ id: z.uuid() });
+import { changeWidget, takeDown, widgetDetail } from '@/lib/models/service';
+import { idParams } from '@/lib/http/params';
 
 export const GET = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('models.read');
-  const { id } = parseParams(await ctx.params, params);
-  const w = await getWidget(m.firmId, id);
-  if (!w) throw notFound('That widget');
-  return json({ widget: w });
+  const { id } = parseParams(await ctx.params, idParams);
+  return json({ widget: await widgetDetail(m, id) });
 });
 
 /** Presentation changes, or an explicit republish of another version (`versionId`). */
 export const PATCH = route<{ id: string }>(async (req, ctx) => {
   const m = await requireMember('widgets.publish');
-  const { id } = parseParams(await ctx.params, params);
+  const { id } = parseParams(await ctx.params, idParams);
   const patch = await readJson(req, widgetPatchSchema);
   return json({ widget: await changeWidget(m, id, patch) });
 });
@@ -27,7 +21,7 @@ export const PATCH = route<{ id: string }>(async (req, ctx) => {
 /** Takes the widget down: clients no longer see it; the record stays for the audit trail. */
 export const DELETE = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('widgets.publish');
-  const { id } = parseParams(await ctx.params, params);
+  const { id } = parseParams(await ctx.params, idParams);
   await takeDown(m, id);
   return noContent();
 });

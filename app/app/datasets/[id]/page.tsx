@@ -1,19 +1,19 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
-import { z } from 'zod';
 import { requirePageMember } from '@/lib/auth/guard';
 import { can } from '@/lib/auth/permissions';
 import { PageHeader } from '@/components/ui/page-header';
 import { datasetDetail } from '@/lib/datasets/service';
 import { AppError } from '@/lib/http/errors';
 import { DatasetDetailView } from '@/components/datasets/dataset-detail';
+import { isUuid } from '@/lib/http/params';
 
 export const metadata: Metadata = { title: 'Dataset' };
 
 export default async function DatasetPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const member = await requirePageMember('models.read', `/app/datasets/${id}`);
-  if (!z.uuid().safeParse(id).success) notFound();
+  if (!isUuid(id)) notFound();
   const detail = await datasetDetail(member, id).catch((err) => {
     if (err instanceof AppError && err.code === 'not_found') return null;
     throw err;

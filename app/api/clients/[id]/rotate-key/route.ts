@@ -1,14 +1,12 @@
-import { z } from 'zod';
 import { route, json, parseParams } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
 import { clientView, rotateKey } from '@/lib/embed/service';
-
-const params = z.object({ id: z.uuid() });
+import { idParams } from '@/lib/http/params';
 
 // Rotating the key revokes every pass of the client at once; new passes use the new key.
 export const POST = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('clients.manage');
-  const { id } = parseParams(await ctx.params, params);
+  const { id } = parseParams(await ctx.params, idParams);
   const { client, revokedPasses } = await rotateKey(m, id);
   return json({ client: clientView(client), revokedPasses });
 });

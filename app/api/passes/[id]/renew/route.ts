@@ -1,14 +1,12 @@
-import { z } from 'zod';
 import { route, readJson, json, parseParams } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
 import { passRenewSchema } from '@/lib/embed/schemas';
 import { passView, renewPass } from '@/lib/embed/service';
-
-const params = z.object({ id: z.uuid() });
+import { idParams } from '@/lib/http/params';
 
 export const POST = route<{ id: string }>(async (req, ctx) => {
   const m = await requireMember('clients.manage');
-  const { id } = parseParams(await ctx.params, params);
+  const { id } = parseParams(await ctx.params, idParams);
   const input = await readJson(req, passRenewSchema);
   return json({ pass: await passView(await renewPass(m, id, input)) });
 });

@@ -1,13 +1,11 @@
-import { z } from 'zod';
 import { route, json, parseParams } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
 import { passView, revokePass } from '@/lib/embed/service';
-
-const params = z.object({ id: z.uuid() });
+import { idParams } from '@/lib/http/params';
 
 // Takes effect on the viewer's very next page load or API call: every embed request re-reads the pass.
 export const POST = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('clients.manage');
-  const { id } = parseParams(await ctx.params, params);
+  const { id } = parseParams(await ctx.params, idParams);
   return json({ pass: await passView(await revokePass(m, id)) });
 });

@@ -1,21 +1,19 @@
-import { z } from 'zod';
 import { route, readJson, json, noContent, parseParams } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
 import { roleChangeSchema } from '@/lib/auth/schemas';
 import { changeRole, removeMember } from '@/lib/team/accounts';
-
-const params = z.object({ id: z.uuid() });
+import { idParams } from '@/lib/http/params';
 
 export const PATCH = route<{ id: string }>(async (req, ctx) => {
   const m = await requireMember('team.manage');
-  const { id } = parseParams(await ctx.params, params);
+  const { id } = parseParams(await ctx.params, idParams);
   const { role } = await readJson(req, roleChangeSchema);
   return json({ member: await changeRole(m, id, role) });
 });
 
 export const DELETE = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('team.manage');
-  const { id } = parseParams(await ctx.params, params);
+  const { id } = parseParams(await ctx.params, idParams);
   await removeMember(m, id);
   return noContent();
 });

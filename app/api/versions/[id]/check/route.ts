@@ -1,15 +1,13 @@
-import { z } from 'zod';
 import { route, readJson, json, parseParams } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
 import { checkSchema } from '@/lib/models/schemas';
 import { checkVersion } from '@/lib/models/service';
-
-const params = z.object({ id: z.uuid() });
+import { idParams } from '@/lib/http/params';
 
 /** A checker signs a version off or sends it back; never their own version, and only once. */
 export const POST = route<{ id: string }>(async (req, ctx) => {
   const m = await requireMember('versions.check');
-  const { id } = parseParams(await ctx.params, params);
+  const { id } = parseParams(await ctx.params, idParams);
   const input = await readJson(req, checkSchema);
   return json({ version: await checkVersion(m, id, input) });
 });
