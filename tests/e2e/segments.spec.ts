@@ -52,6 +52,16 @@ test('a model, version or dataset that is not there: a 404 inside the dashboard,
   await expect(page).toHaveURL(/\/app\/datasets$/);
 });
 
+test('loading screens leave the answers alone: a page that sends a member elsewhere still redirects with 307', async ({ page }) => {
+  await signIn(page, 'author2@orrinvale.example');
+  // Billing is the owner's; the page redirects an author to the no-access page before anything streams.
+  const billing = await page.request.get('/app/billing', { maxRedirects: 0 });
+  expect(billing.status()).toBe(307);
+  expect(billing.headers().location).toContain('/app/no-access');
+  // The lists have loading screens of their own (app/app/*/(list)/loading.tsx) and still answer 200.
+  for (const url of ['/app/models', '/app/datasets', '/app/clients', '/app/settings']) expect((await page.request.get(url)).status(), url).toBe(200);
+});
+
 test('an address that matches no page: a 404 in the product’s frame with links on', async ({ page }) => {
   const res = await page.goto('/no-such-page/at-all');
   expect(res?.status()).toBe(404);
