@@ -1,3 +1,5 @@
+import type { Instrumentation } from 'next';
+
 // Runs once when the server starts: a server with a missing or unsafe setting refuses to start
 // (AUTH_SECRET, APP_URL, STRIPE_WEBHOOK_SECRET ...) instead of failing on the first request.
 export async function register(): Promise<void> {
@@ -6,3 +8,10 @@ export async function register(): Promise<void> {
     checkEnvironmentOrExit();
   }
 }
+
+// A page that fails while rendering is logged as one JSON line with the digest its error screen shows.
+export const onRequestError: Instrumentation.onRequestError = async (err, request, context) => {
+  if (process.env.NEXT_RUNTIME !== 'nodejs') return;
+  const { logRenderError } = await import('./lib/ops/render-errors');
+  logRenderError(err, request, context);
+};

@@ -3,6 +3,7 @@ import Link from 'next/link';
 import { Logo } from '@/components/ui/logo';
 import { LinkButton } from '@/components/ui/button';
 import { Term } from '@/components/ui/term';
+import { normalCdf } from '@/lib/engine/special';
 
 export const metadata: Metadata = {
   title: { absolute: 'Stochos: interactive risk models for engineering consultancies' },
@@ -39,20 +40,13 @@ function spreadBars() {
 const COST = { median: 12.3, s: 0.09, lo: 10.2, hi: 14.6 };
 const CURVE = { w: 320, h: 132, padX: 10, top: 12, base: 112 };
 
-// Abramowitz & Stegun 7.1.26: enough accuracy for drawing a curve.
-function phi(z: number) {
-  const t = 1 / (1 + 0.3275911 * Math.abs(z / Math.SQRT2));
-  const y = 1 - ((((1.061405429 * t - 1.453152027) * t + 1.421413741) * t - 0.284496736) * t + 0.254829592) * t * Math.exp(-(z * z) / 2);
-  return z >= 0 ? 0.5 * (1 + y) : 0.5 * (1 - y);
-}
-
 function sCurve() {
   const sx = (v: number) => CURVE.padX + ((v - COST.lo) / (COST.hi - COST.lo)) * (CURVE.w - 2 * CURVE.padX);
   const sy = (p: number) => CURVE.base - p * (CURVE.base - CURVE.top);
   const pts: string[] = [];
   for (let i = 0; i <= 80; i++) {
     const v = COST.lo + ((COST.hi - COST.lo) * i) / 80;
-    pts.push(`${sx(v).toFixed(1)},${sy(phi(Math.log(v / COST.median) / COST.s)).toFixed(1)}`);
+    pts.push(`${sx(v).toFixed(1)},${sy(normalCdf(Math.log(v / COST.median) / COST.s)).toFixed(1)}`);
   }
   return { sx, sy, path: `M${pts.join('L')}` };
 }

@@ -1,0 +1,13 @@
+'use client';
+
+import { ErrorScreen } from '@/components/segments/error-screen';
+import { PageFrame } from '@/components/segments/page-frame';
+
+// A page outside the dashboard failed while rendering (the dashboard and the embed have their own).
+export default function RootError({ error, retry }: { error: unknown; retry: () => void }) {
+  return (
+    <PageFrame>
+      <ErrorScreen error={error} retry={retry} back={{ href: '/', label: 'Stochos home' }} />
+    </PageFrame>
+  );
+}
