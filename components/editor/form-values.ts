@@ -22,3 +22,5 @@ export type FormulaInputDraft = Rows<FormulaDraft, 'inputs'>[number];
 export type FormulaOutputDraft = Rows<FormulaDraft, 'outputs'>[number];
 export type DialDraft = Rows<ModelDraft, 'dials'>[number];
 export type DistributionDraft = NonNullable<FormulaInputDraft['distribution']>;
+export type StackDistributionDraft = NonNullable<ContributorDraft['distribution']>;
+export type DialTargetDraft = NonNullable<DialDraft['target']>;
