@@ -2,6 +2,7 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 
 // Models and their immutable versions. Every query is scoped by firm; model JSON is stored as text and parsed here.
 
@@ -9,6 +10,12 @@ export type { TemplateId, CheckState, CheckComment, ModelRecord, VersionSummary,
 import type { TemplateId, CheckState, CheckComment, ModelRecord, VersionSummary, VersionRecord, ModelListRow } from '@/lib/models/types';
 
 type Db = Knex | Knex.Transaction;
+
+/**
+ * Model JSON read back as stored. Only checked models are written (insertModel and insertVersion take a CheckedModel,
+ * made by the schema at the API, the import or the editor) and versions are immutable, so what comes back is one.
+ */
+export const storedModel = (json: string): CheckedModel => JSON.parse(json) as CheckedModel;
 const db = (trx?: Knex.Transaction): Db => trx ?? getDb();
 
 const MODEL_COLUMNS = [
@@ -32,7 +39,7 @@ function toModel(r: Record<string, unknown>): ModelRecord {
     firmId: r.firm_id as string,
     title: r.title as string,
     template: r.template as TemplateId,
-    draft: JSON.parse(r.draft_json as string),
+    draft: storedModel(r.draft_json as string),
     createdBy: (r.created_by as string | null) ?? null,
     createdByName: (r.created_by_name as string | null) ?? null,
     createdAt: r.created_at as string,
@@ -102,7 +109,7 @@ export async function listModels(firmId: string, opts: { includeArchived?: boole
 }
 
 export async function insertModel(
-  m: { firmId: string; title: string; template: TemplateId; draft: unknown; userId: string },
+  m: { firmId: string; title: string; template: TemplateId; draft: CheckedModel; userId: string },
   trx: Knex.Transaction,
 ): Promise<string> {
   const id = newId();
@@ -181,7 +188,7 @@ async function oneVersion(where: Record<string, unknown>, trx?: Knex.Transaction
     .where(where)
     .select([...VERSION_COLUMNS, 'v.model_json'])
     .first();
-  return r ? { ...toVersionSummary(r), model: JSON.parse(r.model_json) } : null;
+  return r ? { ...toVersionSummary(r), model: storedModel(r.model_json as string) } : null;
 }
 
 export function getVersionByNumber(firmId: string, modelId: string, number: number, trx?: Knex.Transaction): Promise<VersionRecord | null> {
@@ -203,7 +210,7 @@ export async function getLatestVersion(firmId: string, modelId: string, trx?: Kn
 }
 
 export async function insertVersion(
-  v: { firmId: string; modelId: string; number: number; model: unknown; authorId: string; note: string | null },
+  v: { firmId: string; modelId: string; number: number; model: CheckedModel; authorId: string; note: string | null },
   trx: Knex.Transaction,
 ): Promise<string> {
   const id = newId();

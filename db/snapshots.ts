@@ -3,6 +3,8 @@ import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { claimNext, leaseOps, transition } from '@/db/job-lease';
 import { nowIso } from '@/db/ids';
+import { storedModel } from '@/db/models';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 
 // Snapshot jobs (migrations/20261201000600_snapshots.ts). The worker's state changes are conditional on the
 // job's current state and lease holder, so two workers can never both move the same job forward.
@@ -163,7 +165,7 @@ export const markFailed = (id: string, workerId: string, from: SnapshotState, er
 /** Everything the renderer needs about a job: the pinned version, the widget's presentation, firm and client. */
 export interface SnapshotContext {
   job: SnapshotJob;
-  model: unknown;
+  model: CheckedModel;
   versionNumber: number;
   versionCreatedAt: string;
   checkState: 'unchecked' | 'signed_off' | 'sent_back';
@@ -208,7 +210,7 @@ export async function getSnapshotContext(jobId: string): Promise<SnapshotContext
   if (!r) return null;
   return {
     job,
-    model: JSON.parse(r.model_json as string),
+    model: storedModel(r.model_json as string),
     versionNumber: Number(r.number),
     versionCreatedAt: r.version_created_at as string,
     checkState: r.check_state,

@@ -3,6 +3,7 @@ import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { prepared } from '@/db/prepared';
 import { newId, nowIso } from '@/db/ids';
+import { storedModel } from '@/db/models';
 import type { CheckState, TemplateId } from '@/lib/models/types';
 
 // Published widgets: a checked version of a model plus how a client sees it. Scoped by firm.
@@ -109,7 +110,7 @@ function toPublished(r: Record<string, unknown>): Omit<PublishedWidget, 'model'>
  */
 export async function getPublishedWidget(firmId: string, id: string, trx?: Knex.Transaction): Promise<PublishedWidget | null> {
   const r = await publishedQuery(firmId, id, trx).select([...PUBLISHED_COLUMNS, 'v.model_json']).first();
-  return r ? { ...toPublished(r), model: JSON.parse(r.model_json) } : null;
+  return r ? { ...toPublished(r), model: storedModel(r.model_json as string) } : null;
 }
 
 /**

@@ -88,7 +88,11 @@ export function AllocationPanel() {
 
   // The confirming Monte Carlo run of the proposed stack (the engine's own worker, as the preview uses).
   const proposal = outcome?.ok ? outcome.model : null;
-  const confirmModel = useMemo(() => (proposal ? { ...proposal, settings: { ...proposal.settings, trials: Math.max(proposal.settings.trials, CONFIRM_TRIALS) } } : null), [proposal]);
+  const confirmModel = useMemo(() => {
+    if (!proposal) return null;
+    const r = validateModel({ ...proposal, settings: { ...proposal.settings, trials: Math.max(proposal.settings.trials, CONFIRM_TRIALS) } });
+    return r.ok ? r.model : null;
+  }, [proposal]);
   const sim = useSimulation(confirmModel, undefined, { debounceMs: 0, createClient: createStudioEngine });
   const mc = confirmModel && sim.result && !sim.stale && sim.status === 'done' ? sim.result.stack?.monteCarlo ?? null : null;
 

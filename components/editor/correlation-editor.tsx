@@ -10,11 +10,7 @@ import { useEditor } from './editor-context';
 import { cellKey, correlationColour, diffMatrices, identity, remapMatrix, roundMatrix, setSymmetric, type CellChange, type Matrix } from './correlation-math';
 import { parseNumberText, sameNumber, shortNumber } from './numbers';
 import { EmptyRows, Section } from './parts';
-
-interface InputRow {
-  id?: string;
-  name?: string;
-}
+import type { FormulaDraft, LinearStackDraft } from './form-values';
 
 interface Repair {
   before: Matrix;
@@ -100,10 +96,11 @@ const FORMULA_TEXT =
  * itself, the PSD check and the nearest-matrix repair.
  */
 export function CorrelationEditor({ rowsPath = 'inputs', sectionId = 'formula-correlation', title = 'Correlations between inputs', description = FORMULA_TEXT, noun = 'input' }: CorrelationEditorProps = {}) {
-  const { control, setValue, getValues } = useFormContext();
+  // A formula model's inputs or a stack's contributors: both carry the correlation the same way.
+  const { setValue, getValues } = useFormContext<FormulaDraft | LinearStackDraft>();
   const { readOnly, idFor, messages } = useEditor();
-  const inputs = (useWatch({ control, name: rowsPath }) ?? []) as InputRow[];
-  const corr = useWatch({ control, name: 'correlation' }) as { inputs?: string[]; matrix?: number[][] } | undefined;
+  const inputs = useWatch<FormulaDraft | LinearStackDraft, typeof rowsPath>({ name: rowsPath }) ?? [];
+  const corr = useWatch<FormulaDraft | LinearStackDraft, 'correlation'>({ name: 'correlation' });
   const ids = useMemo(() => corr?.inputs ?? [], [corr?.inputs]);
   const matrix = useMemo(() => corr?.matrix ?? [], [corr?.matrix]);
   const [repair, setRepair] = useState<Repair | null>(null);
@@ -129,7 +126,7 @@ export function CorrelationEditor({ rowsPath = 'inputs', sectionId = 'formula-co
     setMembers(next);
   };
   const commit = (i: number, j: number, v: number) => {
-    const current = (getValues('correlation.matrix') ?? []) as Matrix;
+    const current = getValues('correlation.matrix') ?? [];
     setValue('correlation.matrix', setSymmetric(current, i, j, v, false), { shouldDirty: true });
   };
   const doRepair = () => {

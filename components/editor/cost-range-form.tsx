@@ -9,6 +9,7 @@ import { GroupMessages, KeyInput, InlineMessages, NumberInput, RowMessages, Sele
 import { useEditor } from './editor-context';
 import { allIds, makeId, removeReferences } from './model-helpers';
 import { shortNumber } from './numbers';
+import type { CostRangeDraft, LineItemDraft } from './form-values';
 
 const THREE_POINT: Choice<'pert' | 'triangular' | 'uniform'>[] = [
   { value: 'pert', label: 'Beta-PERT' },
@@ -28,22 +29,12 @@ const RISK_LABELS: Record<string, string> = {
   'impact.distribution': 'Impact distribution',
 };
 
-interface ItemRow {
-  id?: string;
-  name?: string;
-  mostLikely?: number;
-}
-interface GroupRow {
-  id?: string;
-  name?: string;
-  items?: string[];
-  rho?: number;
-}
+
 
 function LineItems({ currency }: { currency: string }) {
   const { control, getValues, setValue } = useFormContext();
   const { fields, append, remove, move } = useFieldArray({ control, name: 'items', keyName: '_key' });
-  const rows = (useWatch({ control, name: 'items' }) ?? []) as ItemRow[];
+  const rows = useWatch<CostRangeDraft, 'items'>({ name: 'items' }) ?? [];
   const sumMostLikely = rows.reduce((s, r) => s + (typeof r?.mostLikely === 'number' && Number.isFinite(r.mostLikely) ? r.mostLikely : 0), 0);
 
   return (
@@ -148,11 +139,11 @@ function LineItems({ currency }: { currency: string }) {
   );
 }
 
-function GroupItemsPicker({ index, items }: { index: number; items: ItemRow[] }) {
-  const { control, setValue } = useFormContext();
+function GroupItemsPicker({ index, items }: { index: number; items: LineItemDraft[] }) {
+  const { setValue } = useFormContext();
   const { readOnly, idFor } = useEditor();
-  const path = `correlationGroups.${index}.items`;
-  const chosen = (useWatch({ control, name: path }) ?? []) as string[];
+  const path = `correlationGroups.${index}.items` as const;
+  const chosen = useWatch<CostRangeDraft, typeof path>({ name: path }) ?? [];
   const legendId = `${idFor(path)}-legend`;
   const orphans = chosen.filter((id) => !items.some((it) => it?.id === id));
   const toggle = (id: string, on: boolean) => {
@@ -207,8 +198,8 @@ function GroupItemsPicker({ index, items }: { index: number; items: ItemRow[] })
 function CorrelationGroups() {
   const { control, getValues } = useFormContext();
   const { fields, append, remove } = useFieldArray({ control, name: 'correlationGroups', keyName: '_key' });
-  const groupsRaw = useWatch({ control, name: 'correlationGroups' }) as GroupRow[] | undefined;
-  const itemsRaw = useWatch({ control, name: 'items' }) as ItemRow[] | undefined;
+  const groupsRaw = useWatch<CostRangeDraft, 'correlationGroups'>({ name: 'correlationGroups' });
+  const itemsRaw = useWatch<CostRangeDraft, 'items'>({ name: 'items' });
   const groups = useMemo(() => groupsRaw ?? [], [groupsRaw]);
   const items = useMemo(() => itemsRaw ?? [], [itemsRaw]);
 
@@ -287,7 +278,7 @@ function CorrelationGroups() {
 function RiskRegister({ currency }: { currency: string }) {
   const { control, getValues } = useFormContext();
   const { fields, append, remove, move } = useFieldArray({ control, name: 'riskEvents', keyName: '_key' });
-  const rows = (useWatch({ control, name: 'riskEvents' }) ?? []) as ItemRow[];
+  const rows = useWatch<CostRangeDraft, 'riskEvents'>({ name: 'riskEvents' }) ?? [];
   const [percent, setPercent] = useState(false);
 
   return (
@@ -394,8 +385,7 @@ function RiskRegister({ currency }: { currency: string }) {
 }
 
 function EstimateAndBudget({ currency }: { currency: string }) {
-  const { control } = useFormContext();
-  const confidence = useWatch({ control, name: 'confidence' }) as number | undefined;
+  const confidence = useWatch<CostRangeDraft, 'confidence'>({ name: 'confidence' });
   const pLabel = typeof confidence === 'number' && confidence > 0 && confidence < 1 ? `P${shortNumber(confidence * 100, 1)}` : null;
   return (
     <Section
@@ -428,8 +418,7 @@ function EstimateAndBudget({ currency }: { currency: string }) {
 }
 
 export function CostRangeForm() {
-  const { control } = useFormContext();
-  const currency = (useWatch({ control, name: 'currency' }) as string | undefined) ?? '';
+  const currency = useWatch<CostRangeDraft, 'currency'>({ name: 'currency' }) ?? '';
   return (
     <>
       <LineItems currency={currency} />

@@ -4,19 +4,14 @@ import { useMemo, useState } from 'react';
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { controlClasses } from '@/components/ui/field';
-import type { DialTarget, StochosModel } from '@/lib/engine/schema';
+import type { StochosModel } from '@/lib/engine/schema';
 import { useEditor } from './editor-context';
 import { FieldShell, GroupMessages, KeyInput, InlineMessages, NumberInput, RowMessages, TextInput } from './fields';
 import { allIds, dialTargetOptions, makeId, suggestDial, targetKey, type DialTargetOption } from './model-helpers';
 import { EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
+import type { ModelDraft } from './form-values';
 
 const DIAL_LABELS: Record<string, string> = { label: 'Label', id: 'Key', target: 'Moves', unit: 'Unit', min: 'Minimum', max: 'Maximum', step: 'Step', default: 'Default' };
-
-interface DialRow {
-  id?: string;
-  label?: string;
-  target?: DialTarget;
-}
 
 function grouped(options: DialTargetOption[]): [string, DialTargetOption[]][] {
   const map = new Map<string, DialTargetOption[]>();
@@ -30,10 +25,10 @@ function optionText(o: DialTargetOption): string {
 }
 
 function TargetSelect({ index, options, what }: { index: number; options: DialTargetOption[]; what: string }) {
-  const { control, setValue } = useFormContext();
+  const { setValue } = useFormContext();
   const { readOnly } = useEditor();
-  const path = `dials.${index}.target`;
-  const target = useWatch({ control, name: path }) as DialTarget | undefined;
+  const path = `dials.${index}.target` as const;
+  const target = useWatch<ModelDraft, typeof path>({ name: path });
   const key = targetKey(target);
   const known = options.some((o) => o.key === key);
   return (
@@ -72,7 +67,7 @@ export function DialsEditor({ model }: { model: StochosModel }) {
   const { control, getValues } = useFormContext();
   const { readOnly, idFor } = useEditor();
   const { fields, append, remove, move } = useFieldArray({ control, name: 'dials', keyName: '_key' });
-  const rows = (useWatch({ control, name: 'dials' }) ?? []) as DialRow[];
+  const rows = useWatch<ModelDraft, 'dials'>({ name: 'dials' }) ?? [];
   const options = useMemo(() => dialTargetOptions(model), [model]);
   const taken = new Set(rows.map((r) => targetKey(r?.target)));
   const free = options.filter((o) => !taken.has(o.key) || o.target.kind === 'variable');

@@ -3,28 +3,29 @@
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { EXAMPLE_MODELS } from '@/lib/engine/examples';
-import type { StochosModel, StochosModelInput, Template } from '@/lib/engine/schema';
+import type { CheckedModel, Template } from '@/lib/engine/schema';
+import type { ModelDraft } from './form-values';
 import { ModelEditor } from './model-editor';
 
 // Development page body: each template's example in the editor, with switches for the states worth looking at.
 
 /** A copy of the example with the faults the editor must catch beside their fields. */
-function broken(template: Template): StochosModelInput {
-  const m = structuredClone(EXAMPLE_MODELS[template]) as unknown as Record<string, unknown>;
-  if (template === 'linear-stack') {
-    const rows = m.contributors as Record<string, unknown>[];
+function broken(template: Template): ModelDraft {
+  const m: ModelDraft = structuredClone(EXAMPLE_MODELS[template]);
+  if (m.template === 'linear-stack') {
+    const rows = m.contributors ?? [];
     rows[0].minusTol = -0.05; // tolerance below zero
     rows[1].plusTol = 0;
     rows[1].minusTol = 0; // zero-width band
     m.limits = { lower: 0.4, upper: 0.05 };
-  } else if (template === 'cost-range') {
-    const items = m.items as Record<string, unknown>[];
+  } else if (m.template === 'cost-range') {
+    const items = m.items ?? [];
     items[1].mostLikely = 40; // above high: three-point values out of order
     items[2].low = 96;
     items[2].high = 96; // zero width
-    (m.riskEvents as Record<string, unknown>[])[0].probability = 1.3; // not a probability
+    (m.riskEvents ?? [])[0].probability = 1.3; // not a probability
   } else {
-    (m.outputs as Record<string, unknown>[])[1].formula = 'hydraulic_kw / pump_efficency'; // unknown name
+    (m.outputs ?? [])[1].formula = 'hydraulic_kw / pump_efficency'; // unknown name
     m.correlation = {
       inputs: ['flow', 'head', 'pump_eff'],
       matrix: [
@@ -34,7 +35,7 @@ function broken(template: Template): StochosModelInput {
       ],
     };
   }
-  return m as unknown as StochosModelInput;
+  return m;
 }
 
 const SERVER_422: Record<Template, Record<string, string[]>> = {
@@ -44,7 +45,7 @@ const SERVER_422: Record<Template, Record<string, string[]>> = {
 };
 
 export function EditorDemo({ template }: { template: Template }) {
-  const [model, setModel] = useState<StochosModel | StochosModelInput>(EXAMPLE_MODELS[template]);
+  const [model, setModel] = useState<CheckedModel | ModelDraft>(EXAMPLE_MODELS[template]);
   const [valid, setValid] = useState<boolean | null>(null);
   const [changes, setChanges] = useState(0);
   const [readOnly, setReadOnly] = useState(false);

@@ -9,23 +9,16 @@ import { CorrelationEditor } from './correlation-editor';
 import { GroupMessages, KeyInput, NumberInput, TextAreaInput, TextInput } from './fields';
 import { allIds, makeId, removeReferences } from './model-helpers';
 import { AddButton, EmptyRows, RowButtons, Section } from './parts';
+import type { FormulaDraft } from './form-values';
 
-interface Row {
-  id?: string;
-  name?: string;
-  unit?: string;
-  formula?: string;
-}
-interface DialRow {
-  id?: string;
-  label?: string;
-  target?: { kind?: string };
-}
+
+/** Rows with a key: the names a formula may use. */
+const keyed = <R extends { id?: string }>(rows: R[]) => rows.flatMap((r) => (r?.id ? [{ ...r, id: r.id }] : []));
 
 function Inputs() {
   const { control, getValues, setValue } = useFormContext();
   const { fields, append, remove, move } = useFieldArray({ control, name: 'inputs', keyName: '_key' });
-  const rows = (useWatch({ control, name: 'inputs' }) ?? []) as Row[];
+  const rows = useWatch<FormulaDraft, 'inputs'>({ name: 'inputs' }) ?? [];
   return (
     <Section id="formula-inputs" title="Inputs" description="Each uncertain quantity, with the name formulas use for it (its key) and its distribution.">
       <GroupMessages path="inputs" className="mb-3" />
@@ -85,15 +78,14 @@ function Inputs() {
 
 /** Names and functions available to output `index`, beside its formula; a click inserts at the cursor. */
 function NamesPanel({ index, onInsert }: { index: number; onInsert: (text: string) => void }) {
-  const { control } = useFormContext();
   const { readOnly } = useEditor();
-  const inputs = (useWatch({ control, name: 'inputs' }) ?? []) as Row[];
-  const outputs = (useWatch({ control, name: 'outputs' }) ?? []) as Row[];
-  const dials = (useWatch({ control, name: 'dials' }) ?? []) as DialRow[];
+  const inputs = useWatch<FormulaDraft, 'inputs'>({ name: 'inputs' }) ?? [];
+  const outputs = useWatch<FormulaDraft, 'outputs'>({ name: 'outputs' }) ?? [];
+  const dials = useWatch<FormulaDraft, 'dials'>({ name: 'dials' }) ?? [];
   const groups: { title: string; items: { text: string; insert: string; title?: string }[] }[] = [
-    { title: 'Inputs', items: inputs.filter((x) => x?.id).map((x) => ({ text: x.id as string, insert: x.id as string, title: x.name })) },
-    { title: 'Earlier outputs', items: outputs.slice(0, index).filter((x) => x?.id).map((x) => ({ text: x.id as string, insert: x.id as string, title: x.name })) },
-    { title: 'Dial values', items: dials.filter((d) => d?.id && d.target?.kind === 'variable').map((d) => ({ text: d.id as string, insert: d.id as string, title: d.label })) },
+    { title: 'Inputs', items: keyed(inputs).map((x) => ({ text: x.id, insert: x.id, title: x.name })) },
+    { title: 'Earlier outputs', items: keyed(outputs.slice(0, index)).map((x) => ({ text: x.id, insert: x.id, title: x.name })) },
+    { title: 'Dial values', items: keyed(dials.filter((d) => d?.target?.kind === 'variable')).map((d) => ({ text: d.id, insert: d.id, title: d.label })) },
     { title: 'Constants', items: Object.keys(FORMULA_CONSTANTS).map((c) => ({ text: c, insert: c })) },
     {
       title: 'Functions',
@@ -154,10 +146,10 @@ function NamesPanel({ index, onInsert }: { index: number; onInsert: (text: strin
 }
 
 function OutputRow({ index, count, onMove, onRemove }: { index: number; count: number; onMove: (a: number, b: number) => void; onRemove: () => void }) {
-  const { control, getValues, setValue } = useFormContext();
-  const inputs = (useWatch({ control, name: 'inputs' }) ?? []) as Row[];
-  const outputs = (useWatch({ control, name: 'outputs' }) ?? []) as Row[];
-  const dials = (useWatch({ control, name: 'dials' }) ?? []) as DialRow[];
+  const { getValues, setValue } = useFormContext();
+  const inputs = useWatch<FormulaDraft, 'inputs'>({ name: 'inputs' }) ?? [];
+  const outputs = useWatch<FormulaDraft, 'outputs'>({ name: 'outputs' }) ?? [];
+  const dials = useWatch<FormulaDraft, 'dials'>({ name: 'dials' }) ?? [];
   const row = outputs[index] ?? {};
   const what = row.name?.trim() || `output ${index + 1}`;
   const p = `outputs.${index}`;
@@ -171,13 +163,13 @@ function OutputRow({ index, count, onMove, onRemove }: { index: number; count: n
       ? null
       : checkFormula(formula, {
           columns: [...inputs.map((x) => x?.id), ...outputs.slice(0, index).map((x) => x?.id)].filter((x): x is string => typeof x === 'string'),
-          scalars: dials.filter((d) => d?.target?.kind === 'variable' && typeof d.id === 'string').map((d) => d.id as string),
+          scalars: keyed(dials.filter((d) => d?.target?.kind === 'variable')).map((d) => d.id),
         });
   const extra = live && !schemaMessages.some((m) => m.startsWith(live.slice(0, 40))) ? live : null;
 
   const insert = (text: string) => {
     const el = area.current;
-    const current = (getValues(`${p}.formula`) as string | undefined) ?? '';
+    const current = getValues(`outputs.${index}.formula`) ?? '';
     const start = el?.selectionStart ?? current.length;
     const end = el?.selectionEnd ?? current.length;
     const next = current.slice(0, start) + text + current.slice(end);
@@ -247,7 +239,7 @@ function Outputs() {
         <AddButton
           onClick={() => {
             const n = fields.length + 1;
-            const first = ((getValues('inputs') ?? []) as Row[])[0]?.id ?? '1';
+            const first = (getValues('inputs') ?? [])[0]?.id ?? '1';
             append({ id: makeId(`y${n}`, allIds(getValues())), name: `Output ${n}`, unit: '', formula: first });
           }}
         >

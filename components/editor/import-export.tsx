@@ -3,19 +3,20 @@
 import { useId, useRef, useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field';
-import type { StochosModel, Template } from '@/lib/engine/schema';
+import type { CheckedModel, Template } from '@/lib/engine/schema';
+import type { ModelDraft } from './form-values';
 import { exportModelJson, importModelFile, modelFileName, MODEL_FILE_SUFFIX, type ImportIssue } from '@/lib/models/json-io';
 import { TEMPLATE_LABELS } from '@/lib/models/templates';
 import { readablePath } from './error-paths';
 
 interface ImportExportProps {
   /** The model as it stands (the draft when it is not valid). */
-  getModel: () => StochosModel;
+  getModel: () => CheckedModel | ModelDraft;
   valid: boolean;
   template: Template;
   readOnly: boolean;
   /** Called only with a file that is valid as a whole and of the same template. */
-  onImport: (model: StochosModel) => void;
+  onImport: (model: CheckedModel) => void;
 }
 
 /** Export downloads `<title>.stochos.json`; import replaces the working model only when the whole file is valid. */

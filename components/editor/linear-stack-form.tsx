@@ -8,6 +8,7 @@ import { allIds, makeId, removeReferences } from './model-helpers';
 import { CorrelationEditor } from './correlation-editor';
 import { AllocationPanel } from './allocation-panel';
 import { MeasuredDataButton } from './measured-data';
+import type { LinearStackDraft, StackDistributionDraft } from './form-values';
 
 type StackKind = 'normal' | 'uniform' | 'triangular' | 'normal-fit' | 'empirical';
 
@@ -40,17 +41,11 @@ const STACK_LABELS: Record<string, string> = {
   meanShift: 'Mean shift',
 };
 
-interface ContributorRow {
-  id?: string;
-  name?: string;
-  distribution?: { type?: string; data?: number[] };
-}
-
 export function LinearStackForm() {
   const { control, getValues, setValue } = useFormContext();
   const { fields, append, remove, move } = useFieldArray({ control, name: 'contributors', keyName: '_key' });
-  const rows = (useWatch({ control, name: 'contributors' }) ?? []) as ContributorRow[];
-  const unit = (useWatch({ control, name: 'unit' }) as string | undefined) || '';
+  const rows = useWatch<LinearStackDraft, 'contributors'>({ name: 'contributors' }) ?? [];
+  const unit = useWatch<LinearStackDraft, 'unit'>({ name: 'unit' }) || '';
 
   const addRow = () => {
     const n = fields.length + 1;
@@ -68,8 +63,8 @@ export function LinearStackForm() {
 
   const pickAssumption = (i: number, kind: StackKind) => {
     const prev = rows[i]?.distribution;
-    const data = Array.isArray(prev?.data) ? prev.data : [];
-    const next = kind === 'normal' ? { type: 'normal', k: 3 } : kind === 'uniform' || kind === 'triangular' ? { type: kind } : { type: kind, data };
+    const data = prev && 'data' in prev && Array.isArray(prev.data) ? prev.data : [];
+    const next: StackDistributionDraft = kind === 'normal' ? { type: 'normal', k: 3 } : kind === 'uniform' || kind === 'triangular' ? { type: kind } : { type: kind, data };
     setValue(`contributors.${i}.distribution`, next, { shouldDirty: true });
   };
 

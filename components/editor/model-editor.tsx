@@ -1,8 +1,9 @@
 'use client';
 
 import { useCallback, useEffect, useId, useMemo, useRef, useState } from 'react';
-import { FormProvider, useForm, useWatch, type FieldErrors, type FieldValues } from 'react-hook-form';
-import type { StochosModel, StochosModelInput } from '@/lib/engine/schema';
+import { FormProvider, useForm, useWatch, type FieldErrors } from 'react-hook-form';
+import type { CheckedModel, StochosModel } from '@/lib/engine/schema';
+import type { ModelDraft } from './form-values';
 import { TEMPLATE_LABELS } from '@/lib/models/templates';
 import { EditorContext, domIdFor, type EditorContextValue } from './editor-context';
 import { flattenFieldErrors, mergeMessages, readablePath, withoutChanged, type FieldMessages } from './error-paths';
@@ -18,12 +19,12 @@ import { ImportExport } from './import-export';
 
 export interface ModelEditorProps {
   /** The model to edit (a saved version, an example, or a draft). */
-  value: StochosModel | StochosModelInput;
+  value: CheckedModel | ModelDraft;
   /**
    * Called after every change once it is checked. `valid` is true when the engine's schema and whole-model checks
    * pass; the model is then the parsed model (defaults applied). Otherwise it is the draft as typed.
    */
-  onChange: (model: StochosModel, valid: boolean) => void;
+  onChange: (...change: [model: CheckedModel, valid: true] | [model: ModelDraft, valid: false]) => void;
   readOnly?: boolean;
   /** Field problems from the server's 422, keyed by dotted path ("contributors.2.plusTol"); shown beside the field until it is edited. */
   errors?: Record<string, string[]>;
@@ -32,24 +33,24 @@ export interface ModelEditorProps {
 const VALIDATE_DELAY_MS = 120;
 
 /** The model as form values: lists present, and the schema's defaults filled in where a select shows them. */
-function toFormValues(model: StochosModel | StochosModelInput): FieldValues {
-  const v = structuredClone(model) as FieldValues;
+function toFormValues(model: CheckedModel | ModelDraft): ModelDraft {
+  const v: ModelDraft = structuredClone(model);
   v.dials ??= [];
-  const s = (v.settings ??= {}) as Record<string, unknown>;
+  const s = (v.settings ??= {});
   s.design ??= 'monte-carlo';
   s.normalMethod ??= 'box-muller';
   s.correlationMethod ??= 'copula';
-  const rows = (key: string) => (Array.isArray(v[key]) ? (v[key] as Record<string, unknown>[]) : []);
+  const rows = <T,>(list: T[] | undefined): T[] => (Array.isArray(list) ? list : []);
   if (v.template === 'cost-range') {
     v.correlationGroups ??= [];
     v.riskEvents ??= [];
     v.confidence ??= 0.8;
-    for (const it of rows('items')) if (it && typeof it === 'object') it.distribution ??= 'pert';
-    for (const r of rows('riskEvents')) if (r?.impact && typeof r.impact === 'object') (r.impact as Record<string, unknown>).distribution ??= 'pert';
+    for (const it of rows(v.items)) if (it && typeof it === 'object') it.distribution ??= 'pert';
+    for (const r of rows(v.riskEvents)) if (r?.impact && typeof r.impact === 'object') r.impact.distribution ??= 'pert';
   }
   if (v.template === 'linear-stack') {
     v.limits ??= {};
-    for (const c of rows('contributors')) if (c && typeof c === 'object') c.meanShift ??= 0;
+    for (const c of rows(v.contributors)) if (c && typeof c === 'object') c.meanShift ??= 0;
   }
   return v;
 }
@@ -99,6 +100,7 @@ function ProblemList({ messages, prefix }: { messages: FieldMessages; prefix: st
 }
 
 function Dials() {
+  // The dial picker reads the draft as it stands; its helpers tolerate missing fields.
   const all = useWatch() as StochosModel;
   return <DialsEditor model={all} />;
 }
@@ -109,7 +111,7 @@ function Dials() {
  */
 export function ModelEditor({ value, onChange, readOnly = false, errors }: ModelEditorProps) {
   const prefix = 'me' + useId().replace(/[^a-zA-Z0-9_-]/g, '');
-  const parsed = useRef<StochosModel | null>(null);
+  const parsed = useRef<CheckedModel | null>(null);
   const latestErrors = useRef<FieldErrors>({});
   const resolver = useMemo(
     () =>
@@ -119,7 +121,7 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
       }),
     [],
   );
-  const form = useForm<FieldValues>({ defaultValues: toFormValues(value), resolver, criteriaMode: 'all', mode: 'onSubmit', reValidateMode: 'onSubmit' });
+  const form = useForm<ModelDraft, unknown, CheckedModel>({ defaultValues: toFormValues(value), resolver, criteriaMode: 'all', mode: 'onSubmit', reValidateMode: 'onSubmit' });
 
   const [client, setClient] = useState<FieldMessages>({});
   const [local, setLocalState] = useState<FieldMessages>({});
@@ -164,9 +166,15 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
       }
       if (raw === baseline.current.raw && isValid === baseline.current.valid) return;
       baseline.current = { raw, valid: isValid };
-      const model = (isValid && parsed.current ? parsed.current : form.getValues()) as StochosModel;
-      lastSeen.current = JSON.stringify(model);
-      onChangeRef.current(model, isValid);
+      const model = isValid ? parsed.current : null;
+      if (model) {
+        lastSeen.current = JSON.stringify(model);
+        onChangeRef.current(model, true);
+      } else {
+        const draft = form.getValues();
+        lastSeen.current = JSON.stringify(draft);
+        onChangeRef.current(draft, false);
+      }
     },
     [form],
   );
@@ -228,7 +236,7 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
   const ctx = useMemo<EditorContextValue>(() => ({ readOnly, messages, idFor: (p) => domIdFor(prefix, p), setLocal }), [readOnly, messages, prefix, setLocal]);
   const template = value.template;
 
-  const importModel = (model: StochosModel) => {
+  const importModel = (model: CheckedModel) => {
     resetting.current = true;
     form.reset(toFormValues(model));
     resetting.current = false;
@@ -254,7 +262,7 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
               <span className="mr-2 inline-flex items-center rounded bg-ink-100 px-1.5 py-0.5 text-xs font-medium text-ink-700 ring-1 ring-ink-200 ring-inset">{TEMPLATE_LABELS[template]}</span>
               {!checked ? 'Checking…' : readOnly ? 'Read only.' : Object.keys(messages).length === 0 ? 'No problems found.' : null}
             </p>
-            <ImportExport getModel={() => (parsed.current && valid ? parsed.current : (form.getValues() as StochosModel))} valid={valid} template={template} readOnly={readOnly} onImport={importModel} />
+            <ImportExport getModel={() => (parsed.current && valid ? parsed.current : form.getValues())} valid={valid} template={template} readOnly={readOnly} onImport={importModel} />
           </div>
 
           <ProblemList messages={messages} prefix={prefix} />

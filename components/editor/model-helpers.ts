@@ -3,6 +3,7 @@
 import { createMarginal, type DistributionSpec } from '@/lib/engine/distributions';
 import { RESERVED_NAMES } from '@/lib/engine/formula';
 import { DISTRIBUTION_PARAMS, resolveDialTarget, type DialTarget, type Distribution, type StochosModel } from '@/lib/engine/schema';
+import type { DialTargetDraft } from './form-values';
 
 // ---- Ids ---------------------------------------------------------------------------------------------------
 
@@ -155,7 +156,8 @@ export interface DialTargetOption {
   bounds?: [number, number];
 }
 
-export function targetKey(t: DialTarget | undefined | null): string {
+/** A dial target's key, for a checked target or one in the draft (parts may still be missing). */
+export function targetKey(t: DialTarget | DialTargetDraft | undefined | null): string {
   if (!t || typeof t !== 'object') return '';
   switch (t.kind) {
     case 'input-param':
@@ -167,7 +169,7 @@ export function targetKey(t: DialTarget | undefined | null): string {
     case 'correlation':
       return `correlation:${t.a}:${t.b}`;
     default:
-      return t.kind;
+      return t.kind ?? '';
   }
 }
 

@@ -4,8 +4,9 @@
 // validateModel's last check that each distribution can be sampled. No React: usable in unit tests.
 
 import { zodResolver } from '@hookform/resolvers/zod';
-import { get, set, type FieldError, type FieldErrors, type FieldValues, type Resolver, type ResolverOptions } from 'react-hook-form';
-import { modelSchema, semanticIssues, validateModel, type StochosModel } from '@/lib/engine/schema';
+import { get, set, type FieldError, type FieldErrors, type Resolver, type ResolverOptions } from 'react-hook-form';
+import { modelSchema, semanticIssues, validateModel, type CheckedModel, type StochosModel } from '@/lib/engine/schema';
+import type { ModelDraft } from './form-values';
 import type { ModelIssue } from '@/lib/engine/errors';
 
 function addIssue(errors: FieldErrors, issue: ModelIssue): void {
@@ -32,16 +33,17 @@ function addIssue(errors: FieldErrors, issue: ModelIssue): void {
  * Builds the resolver. `onResult` receives the validated model (defaults applied) when the draft is valid, else
  * null, and the error tree just computed (react-hook-form's formState snapshot can lag a render behind).
  */
-export function createModelResolver(onResult?: (model: StochosModel | null, errors: FieldErrors) => void): Resolver<FieldValues> {
-  const base = zodResolver(modelSchema) as unknown as Resolver<FieldValues>;
-  return async (values, context, options: ResolverOptions<FieldValues>) => {
+export function createModelResolver(onResult?: (model: CheckedModel | null, errors: FieldErrors<ModelDraft>) => void): Resolver<ModelDraft, unknown, CheckedModel> {
+  // The schema parses any input; the draft's fields are the schema's input fields, each possibly still missing.
+  const base = zodResolver<ModelDraft, unknown, StochosModel>(modelSchema);
+  return async (values, context, options: ResolverOptions<ModelDraft>) => {
     const result = await base(values, context, { ...options, criteriaMode: 'all' });
     const failed = Object.keys(result.errors).length > 0;
     if (!failed) {
       const checked = validateModel(result.values);
       if (checked.ok) {
         onResult?.(checked.model, {});
-        return { values: checked.model as unknown as FieldValues, errors: {} };
+        return { values: checked.model, errors: {} };
       }
       const errors: FieldErrors = {};
       for (const issue of checked.issues) addIssue(errors, issue);
@@ -57,7 +59,7 @@ export function createModelResolver(onResult?: (model: StochosModel | null, erro
     }
     if (!extra.length) {
       onResult?.(null, result.errors);
-      return result;
+      return { values: {}, errors: result.errors };
     }
     const errors = structuredCloneErrors(result.errors);
     for (const issue of extra) addIssue(errors, issue);

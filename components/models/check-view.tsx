@@ -5,7 +5,6 @@ import { useMemo, useState } from 'react';
 import { ResultsPreview } from '@/components/results';
 import { Banner, Button, Card, DateText, EmptyState, FieldError, FormError, LoadError, Loading, PageHeader, StatusPill, cx } from '@/components/ui';
 import { ApiError, errorMessage } from '@/lib/client/api';
-import type { StochosModel } from '@/lib/engine/schema';
 import { diffModels, formatDiffValue, summarise, type DiffEntry, type DiffKind } from '@/lib/models/diff';
 import type { CheckComment, VersionRecord } from '@/lib/models/types';
 import { CheckStatePill } from './check-state-pill';
@@ -106,7 +105,7 @@ export function CheckView({ modelId, number, userId, canCheck }: CheckViewProps)
   const own = v.authorId === userId;
   const canDecide = canCheck && !own && v.checkState === 'unchecked';
   const counts = summarise(entries);
-  const title = (v.model as StochosModel).title;
+  const title = v.model.title;
 
   async function decide(decision: 'sign_off' | 'send_back') {
     setMessages([]);
@@ -246,12 +245,12 @@ export function CheckView({ modelId, number, userId, canCheck }: CheckViewProps)
           {number > 1 && p ? (
             <div className="min-w-0">
               <h3 className="mb-2 text-sm font-semibold text-ink-800">Version {number - 1}</h3>
-              <ResultsPreview model={p.model as StochosModel} />
+              <ResultsPreview model={p.model} />
             </div>
           ) : null}
           <div className="min-w-0">
             <h3 className="mb-2 text-sm font-semibold text-ink-800">Version {number}</h3>
-            <ResultsPreview model={v.model as StochosModel} />
+            <ResultsPreview model={v.model} />
           </div>
         </div>
       </section>

@@ -7,7 +7,8 @@ import { ResultsPreview } from '@/components/results';
 import { WidgetView } from '@/components/widget';
 import { createStudioEngine } from '@/lib/engine/studio-engine';
 import { Badge, Banner, Button, Card, DateText, LoadError, Loading, PageHeader, StatusPill, Tabs } from '@/components/ui';
-import type { StochosModel } from '@/lib/engine/schema';
+import type { CheckedModel } from '@/lib/engine/checked-model';
+import type { ModelDraft } from '@/components/editor/form-values';
 import { editorFieldErrors } from '@/lib/models/field-errors';
 import { TEMPLATE_LABELS } from '@/lib/models/templates';
 import { DEFAULT_PANELS, defaultHeadline } from '@/lib/models/widget-options';
@@ -27,15 +28,15 @@ export interface ModelStudioProps {
 
 interface Working {
   /** What the editor was last loaded with (a version, or the starting model). */
-  loaded: unknown;
+  loaded: CheckedModel;
   /** The version the edit started from; 0 before the first save. */
   base: number;
   /** JSON of the base, to tell whether there are unsaved changes. */
   baseJson: string;
-  current: StochosModel;
+  current: CheckedModel | ModelDraft;
   valid: boolean;
   /** The last model that passed every check: the preview keeps running it while the editor shows problems. */
-  lastValid: StochosModel | null;
+  lastValid: CheckedModel | null;
 }
 
 /** The studio: the editor beside a live preview, saving versions, the version history and publishing. */
@@ -49,7 +50,7 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
 
   // The editor starts from the latest version, or from the model's starting point before the first save.
   if (data && !work) {
-    const start = (data.latest?.model ?? data.model.draft) as StochosModel;
+    const start = data.latest?.model ?? data.model.draft;
     setWork({ loaded: start, base: data.latest?.number ?? 0, baseJson: JSON.stringify(start), current: start, valid: true, lastValid: start });
   }
 
@@ -68,7 +69,7 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
 
   // The editor reports a change once typing pauses. A save clicked within that pause must wait for it, or it
   // would store the model as it was before the last keystrokes.
-  const current = useRef<{ model: StochosModel; valid: boolean } | null>(null);
+  const current = useRef<{ model: CheckedModel; valid: true } | { model: ModelDraft; valid: false } | null>(null);
   const lastInputAt = useRef(0);
   const lastEmitAt = useRef(0);
   const waiters = useRef<(() => void)[]>([]);
@@ -86,8 +87,8 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
     [],
   );
 
-  const onEditorChange = useCallback((model: StochosModel, valid: boolean) => {
-    current.current = { model, valid };
+  const onEditorChange = useCallback((...[model, valid]: [model: CheckedModel, valid: true] | [model: ModelDraft, valid: false]) => {
+    current.current = valid ? { model, valid: true } : { model, valid: false };
     lastEmitAt.current = performance.now();
     for (const w of waiters.current.splice(0)) w();
     setWork((w) => (w ? { ...w, current: model, valid, lastValid: valid ? model : w.lastValid } : w));
@@ -96,7 +97,7 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
   const reloadLatest = useCallback(async () => {
     const fresh = await mutate();
     if (!fresh) return;
-    const start = (fresh.latest?.model ?? fresh.model.draft) as StochosModel;
+    const start = fresh.latest?.model ?? fresh.model.draft;
     setServerErrors(undefined);
     current.current = null;
     setWork({ loaded: start, base: fresh.latest?.number ?? 0, baseJson: JSON.stringify(start), current: start, valid: true, lastValid: start });
@@ -119,7 +120,7 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
   // nor the version history and publishing tabs need to render again for it.
   const loaded = work?.loaded;
   const editor = useMemo(
-    () => (loaded ? <ModelEditor value={loaded as StochosModel} onChange={onEditorChange} readOnly={!canEdit} errors={serverErrors} /> : null),
+    () => (loaded ? <ModelEditor value={loaded} onChange={onEditorChange} readOnly={!canEdit} errors={serverErrors} /> : null),
     [loaded, onEditorChange, canEdit, serverErrors],
   );
   const record = useMemo(() => {
@@ -275,8 +276,8 @@ export function ModelStudio({ modelId, userId, firmName, firmBrandColor, abiliti
                   onReload={() => void reloadLatest()}
                   onSave={async (note) => {
                     await editorSettled();
-                    const latest = current.current ?? { model: work.current, valid: work.valid };
-                    if (!latest.valid) throw new Error('The model was not saved: fix the problems listed in the editor first.');
+                    const latest = current.current ?? (work.valid && work.lastValid ? { model: work.lastValid, valid: true } : null);
+                    if (!latest?.valid) throw new Error('The model was not saved: fix the problems listed in the editor first.');
                     const v = await saveVersion({ baseVersion: work.base, note, model: latest.model });
                     setServerErrors(undefined);
                     setWork((w) => (w ? { ...w, base: v.number, baseJson: JSON.stringify(v.model) } : w));

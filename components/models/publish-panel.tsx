@@ -3,7 +3,7 @@
 import { useMemo, useState, type ReactNode } from 'react';
 import { Banner, Button, Checkbox, ConfirmButton, DateText, FieldError, FormError, Select, StatusPill, TextField } from '@/components/ui';
 import { ApiError, errorMessage } from '@/lib/client/api';
-import type { StochosModel } from '@/lib/engine/schema';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 import { CHECK_STATE_LABELS } from '@/lib/models/templates';
 import type { TemplateId, VersionSummary, WidgetRecord } from '@/lib/models/types';
 import { DEFAULT_PANELS, HEADLINES, PANEL_IDS, PANEL_LABELS, defaultHeadline, type PanelId } from '@/lib/models/widget-options';
@@ -20,7 +20,7 @@ export interface PublishPanelProps {
   canPublish: boolean;
   onChanged: () => void;
   /** Renders the client's view of the chosen version with the chosen presentation. */
-  renderPreview?: (p: { model: StochosModel; widget: WidgetBody & { versionNumber: number }; signedOffAt: string | null }) => ReactNode;
+  renderPreview?: (p: { model: CheckedModel; widget: WidgetBody & { versionNumber: number }; signedOffAt: string | null }) => ReactNode;
 }
 
 function publishable(v: VersionSummary, requireCheck: boolean): boolean {
@@ -61,7 +61,7 @@ export function PublishPanel({ modelId, modelTitle, template, versions, widget, 
   const chosenNumber = versionNumber ?? newestCandidate?.number ?? null;
   const chosen = versions.find((v) => v.number === chosenNumber) ?? null;
   const { data: chosenData } = useVersion(modelId, chosen?.number ?? null);
-  const chosenModel = (chosenData?.version.model as StochosModel | undefined) ?? null;
+  const chosenModel = chosenData?.version.model ?? null;
   const modelDials = useMemo(() => chosenModel?.dials ?? [], [chosenModel]);
   // Until the author picks, every dial of the version is offered to the client.
   const effectiveDials = dialIds ?? modelDials.map((d) => d.id);

@@ -2,6 +2,7 @@
 
 import useSWR, { mutate as mutateKey } from 'swr';
 import { api, fetcher } from '@/lib/client/api';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 import type { CheckComment, ModelListRow, ModelRecord, TemplateId, VersionRecord, VersionSummary, WidgetRecord } from '@/lib/models/types';
 
 // One hook per resource of the studio; actions revalidate what they change.
@@ -56,7 +57,7 @@ export function useModel(id: string) {
       await api.patch(modelKey(id), { title });
       await mutate();
     },
-    saveVersion: async (body: { baseVersion: number | null; note: string; model: unknown }) => {
+    saveVersion: async (body: { baseVersion: number | null; note: string; model: CheckedModel }) => {
       const res = await api.post<{ version: VersionRecord }>(`${modelKey(id)}/versions`, body);
       await mutate();
       return res.version;

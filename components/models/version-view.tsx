@@ -4,7 +4,6 @@ import Link from 'next/link';
 import { ModelEditor } from '@/components/editor';
 import { ResultsPreview } from '@/components/results';
 import { Banner, DateText, LinkButton, LoadError, Loading, PageHeader } from '@/components/ui';
-import type { StochosModel } from '@/lib/engine/schema';
 import { CheckStatePill } from './check-state-pill';
 import { useModel, useVersion } from './use-models';
 
@@ -17,7 +16,7 @@ export function VersionView({ modelId, number, userId, canCheck }: { modelId: st
   if (error) return <LoadError error={error} what={`version ${number}`} onRetry={() => mutate()} />;
   if (!data) return <Loading>Loading version {number}…</Loading>;
   const v = data.version;
-  const m = v.model as StochosModel;
+  const m = v.model;
   const latest = model.data?.latest?.number ?? null;
   const published = model.data?.widget?.versionNumber === number;
   return (

@@ -11,10 +11,11 @@ import { cx } from '@/components/ui/cx';
 import { ResultsView } from './results-view';
 import { useSimulation, type SimulationState } from './use-simulation';
 import { createStudioEngine } from '@/lib/engine/studio-engine';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 
 export interface ResultsPreviewProps {
-  /** Model JSON ('stochos.model/1'); validated by the engine. */
-  model: unknown;
+  /** The checked model (null: nothing to run); the engine checks it again with the dial values applied. */
+  model: CheckedModel | null;
   /** Dial values by dial id; missing dials take the author's defaults. */
   dialValues?: Record<string, number>;
   /** Sample columns to bring back; by default 'all' (the scatter chart) when the run is small enough, see samplesFor. */
@@ -30,11 +31,15 @@ export const SAMPLE_BUDGET = 4_000_000;
  * 'all' sample columns when the run is small enough to send them to the page, else none: the scatter
  * needs only a few thousand points, but the worker sends whole columns.
  */
-export function samplesFor(model: unknown): SampleSelection {
-  const m = model as { settings?: { trials?: unknown }; contributors?: unknown[]; items?: unknown[]; riskEvents?: unknown[]; inputs?: unknown[]; outputs?: unknown[] } | null;
-  const trials = typeof m?.settings?.trials === 'number' ? m.settings.trials : 0;
-  const columns = (m?.contributors?.length ?? 0) + (m?.items?.length ?? 0) + 3 * (m?.riskEvents?.length ?? 0) + (m?.inputs?.length ?? 0) + (m?.outputs?.length ?? 0) + 1;
-  return trials * columns <= SAMPLE_BUDGET ? 'all' : 'none';
+export function samplesFor(model: CheckedModel | null): SampleSelection {
+  if (!model) return 'all';
+  const columns =
+    (model.template === 'linear-stack'
+      ? model.contributors.length
+      : model.template === 'cost-range'
+        ? model.items.length + 3 * model.riskEvents.length
+        : model.inputs.length + model.outputs.length) + 1;
+  return model.settings.trials * columns <= SAMPLE_BUDGET ? 'all' : 'none';
 }
 
 /** Progress of the run in flight, the state between runs, and the last run's time. */

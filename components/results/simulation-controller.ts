@@ -4,10 +4,11 @@
 import { ModelValidationError, RunCancelledError, type ModelIssue } from '@/lib/engine/errors';
 import type { Progress, RunResult, SampleSelection } from '@/lib/engine/simulate';
 import type { WorkerRunOptions } from '@/lib/engine/worker-client';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 
 /** What the controller needs from the engine's worker client (EngineWorkerClient fits). */
 export interface RunClient {
-  run(model: unknown, options?: WorkerRunOptions): Promise<RunResult>;
+  run(model: CheckedModel, options?: WorkerRunOptions): Promise<RunResult>;
   cancel(): void;
   terminate(): void;
 }
@@ -66,7 +67,7 @@ export class SimulationController {
   private readonly clearTimer: (t: unknown) => void;
   private timer: unknown = null;
   /** Inputs most recently asked for. */
-  private model: unknown = null;
+  private model: CheckedModel | null = null;
   private dialValues: Record<string, number> | undefined;
   private key: string | null = null;
   /** Inputs of the result on screen. */
@@ -102,7 +103,7 @@ export class SimulationController {
    * unchanged. A run in flight is cancelled at once; the new run starts after the debounce, or
    * immediately when nothing has been shown yet.
    */
-  setInputs(model: unknown, dialValues: Record<string, number> | undefined, key: string, samples?: SampleSelection): void {
+  setInputs(model: CheckedModel | null, dialValues: Record<string, number> | undefined, key: string, samples?: SampleSelection): void {
     if (key === this.key) return;
     this.key = key;
     if (samples) this.samples = samples;
@@ -172,6 +173,8 @@ export class SimulationController {
   }
 
   private start(): void {
+    const model = this.model;
+    if (model === null) return;
     const seq = ++this.seq;
     const key = this.key;
     const t0 = this.now();
@@ -179,7 +182,7 @@ export class SimulationController {
     this.set({ status: 'running', progress: null, stale: this.snapshot.result !== null && this.resultKey !== key });
     let promise: Promise<RunResult>;
     try {
-      promise = this.client.run(this.model, {
+      promise = this.client.run(model, {
         dialValues: this.dialValues,
         samples: this.samples,
         onProgress: (p) => {

@@ -2,6 +2,7 @@
 
 import { useCallback, useEffect, useMemo, useState, useSyncExternalStore } from 'react';
 import type { SampleSelection } from '@/lib/engine/simulate';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 import { SimulationController, type RunClient, type SimulationSnapshot } from './simulation-controller';
 
 export type { SimulationSnapshot, SimulationStatus, SimulationError } from './simulation-controller';
@@ -31,7 +32,7 @@ const SERVER_SNAPSHOT: SimulationSnapshot = { status: 'idle', result: null, stal
  * Moving a dial reruns after a short debounce with the same seed and sub-streams, cancelling a
  * run in flight; the previous result stays visible (flagged `stale`) until the new one is ready.
  */
-export function useSimulation(model: unknown, dialValues: Record<string, number> | undefined, options: UseSimulationOptions): SimulationState {
+export function useSimulation(model: CheckedModel | null, dialValues: Record<string, number> | undefined, options: UseSimulationOptions): SimulationState {
   const { debounceMs = 150, samples = 'none', enabled = true, createClient } = options;
   const [controller] = useState(
     () => new SimulationController({ client: createClient, debounceMs, samples }),

@@ -20,6 +20,7 @@ import { WidgetChart, type ChartPanel } from './widget-panels';
 import { CompareView } from './compare-view';
 import { PinnedViewContext } from './pin-context';
 import type { RunResult } from '@/lib/engine';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 
 export type WidgetPanel = 'spread' | 'cumulative' | 'drivers' | 'headline';
 
@@ -47,8 +48,8 @@ export interface WidgetVersionInfo {
 }
 
 export interface WidgetViewProps {
-  /** The published version's model JSON. */
-  model: unknown;
+  /** The published version's model, checked on the server when it was saved. */
+  model: CheckedModel;
   widget: WidgetConfig;
   branding: WidgetBranding;
   versionInfo: WidgetVersionInfo;
@@ -74,10 +75,8 @@ const CHART_PANELS = new Set<string>(['spread', 'cumulative', 'drivers']);
  * changes. No dashboard or sign-in code: the embed page uses this as it is.
  */
 export function WidgetView({ model, widget, branding, versionInfo, onDialChange, initialDialValues: given, actions, headingLevel: H = 'h2', className, createEngine }: WidgetViewProps) {
-  // Read, not validated, here: the engine validates where it runs (modelOutline says why).
   const outline = useMemo(() => modelOutline(model), [model]);
   const dials = useMemo<DialSpec[]>(() => {
-    if (!outline.ok) return [];
     const byId = new Map(outline.dials.map((d) => [d.id, d]));
     return widget.dialIds.flatMap((id) => {
       const d = byId.get(id);
@@ -98,9 +97,9 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   }, [dials, values]);
 
   // A dial move is one discrete step: a short wait is enough to merge a burst of key presses.
-  const sim = useSimulation(outline.ok ? model : null, current, { samples: 'none', debounceMs: 30, createClient: createEngine });
+  const sim = useSimulation(model, current, { samples: 'none', debounceMs: 30, createClient: createEngine });
   // A model the engine refuses at the author's own values cannot be shown at all (not just these settings).
-  const broken = !outline.ok ? outline.problem : sim.error && !sim.result && atDefaults(dials, current) ? (sim.error.issues[0]?.message ?? sim.error.message) : null;
+  const broken = sim.error && !sim.result && atDefaults(dials, current) ? (sim.error.issues[0]?.message ?? sim.error.message) : null;
   const colors = useMemo(() => brandColors(branding.brandColor), [branding.brandColor]);
 
   const setDial = useCallback(
@@ -129,7 +128,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   const pinnedValues = useMemo(() => (pin ? { ...pin.run.dialValues } : null), [pin]);
   const headline = result && panels.includes('headline') ? headlineFigure(result, widget.headline) : null;
   const cautions = useMemo(() => {
-    const template = outline.ok ? outline.template : 'formula';
+    const template = outline.template;
     const low = result ? lowTrialCaution(result.outputs) : null;
     return [...(low ? [low] : []), ...cautionsFor(template)];
   }, [outline, result]);

@@ -1,12 +1,14 @@
 import 'server-only';
+import { storedModel } from '@/db/models';
 import { getVersionModelJson } from '@/db/widgets';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 
 // A published version's model never changes (the database refuses updates to model_versions.model_json), so the
 // embed path parses it once per version and keeps both the object and its compact JSON text for the payload.
 // Bounded: least recently used versions leave first. The objects are frozen: callers share them.
 
 const MAX_VERSIONS = 256;
-const byVersion = new Map<string, { model: unknown; json: string }>();
+const byVersion = new Map<string, { model: CheckedModel; json: string }>();
 const jsonOf = new WeakMap<object, string>();
 
 function deepFreeze<T>(v: T): T {
@@ -18,7 +20,7 @@ function deepFreeze<T>(v: T): T {
 }
 
 /** The parsed model of a version (null when the firm has no such version). */
-export async function versionModel(firmId: string, versionId: string): Promise<unknown | null> {
+export async function versionModel(firmId: string, versionId: string): Promise<CheckedModel | null> {
   const key = `${firmId}:${versionId}`;
   const hit = byVersion.get(key);
   if (hit) {
@@ -29,15 +31,15 @@ export async function versionModel(firmId: string, versionId: string): Promise<u
   }
   const text = await getVersionModelJson(firmId, versionId);
   if (text === null) return null;
-  const model = deepFreeze(JSON.parse(text) as unknown);
+  const model = deepFreeze(storedModel(text));
   const json = JSON.stringify(model);
-  if (model && typeof model === 'object') jsonOf.set(model, json);
+  jsonOf.set(model, json);
   byVersion.set(key, { model, json });
   if (byVersion.size > MAX_VERSIONS) byVersion.delete(byVersion.keys().next().value!);
   return model;
 }
 
 /** Compact JSON of a model: from the cache when it came from `versionModel`, else serialised now. */
-export function modelJson(model: unknown): string {
-  return (model && typeof model === 'object' ? jsonOf.get(model) : undefined) ?? JSON.stringify(model);
+export function modelJson(model: CheckedModel): string {
+  return jsonOf.get(model) ?? JSON.stringify(model);
 }

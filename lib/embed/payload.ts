@@ -1,5 +1,6 @@
 // What the embed page receives for a pass: the widget, its version's model, branding and sign-off.
 // No React and no server imports: the embed bundle imports these types.
+import type { CheckedModel } from '@/lib/engine/checked-model';
 
 export interface EmbedWidgetPayload {
   passId: string;
@@ -13,7 +14,8 @@ export interface EmbedWidgetPayload {
     brandColor: string;
     showLogo: boolean;
   };
-  model: unknown;
+  /** Checked on the server when the version was saved: the embed page trusts it and loads no schema. */
+  model: CheckedModel;
   /** logoUrl: the firm's uploaded logo when the widget shows the logo slot and a logo exists. */
   branding: { firmName: string; brandColor: string; showLogo: boolean; logoUrl: string | null };
   versionInfo: {
@@ -39,15 +41,7 @@ export interface DialBounds {
   max: number;
 }
 
-/** The dials a viewer may move, read from the model JSON (tolerant: a dial without a finite range is left out). */
-export function viewerDials(model: unknown, dialIds: readonly string[]): DialBounds[] {
-  const dials = (model as { dials?: unknown } | null)?.dials;
-  if (!Array.isArray(dials)) return [];
-  const out: DialBounds[] = [];
-  for (const d of dials as { id?: unknown; min?: unknown; max?: unknown }[]) {
-    if (typeof d?.id !== 'string' || !dialIds.includes(d.id)) continue;
-    if (typeof d.min !== 'number' || typeof d.max !== 'number' || !Number.isFinite(d.min) || !Number.isFinite(d.max)) continue;
-    out.push({ id: d.id, min: d.min, max: d.max });
-  }
-  return out;
+/** The dials a viewer may move: the widget's dial ids that the model defines, in the model's order. */
+export function viewerDials(model: CheckedModel, dialIds: readonly string[]): DialBounds[] {
+  return model.dials.filter((d) => dialIds.includes(d.id)).map((d) => ({ id: d.id, min: d.min, max: d.max }));
 }

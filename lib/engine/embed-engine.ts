@@ -5,9 +5,10 @@
  * with the same message the studio gives.
  */
 import { EngineWorkerClient } from './worker-client';
+import type { CheckedModel } from './checked-model';
 
 /** The schema's error for this model and these dial values (null if it finds none). */
-async function explain(model: unknown, dialValues?: Record<string, number>): Promise<unknown> {
+async function explain(model: CheckedModel, dialValues?: Record<string, number>): Promise<unknown> {
   const { prepareRun } = await import('./prepare-run');
   try {
     prepareRun(model, dialValues);

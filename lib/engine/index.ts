@@ -2,8 +2,8 @@
  * Stochos engine: public entry points. Pure TypeScript (no React, Next or Node-only
  * imports): the same code runs in the browser worker and on the server, bit for bit.
  */
-export { runModel, runModelSync, Simulation, ENGINE_VERSION, mergeChunks, mergeParts, inputWindow, type MergeCaches } from './simulate';
-export { runChunks, prepareRun } from './prepare-run';
+export { runModel, runModelSync, runCheckedModelSync, Simulation, ENGINE_VERSION, mergeChunks, mergeParts, inputWindow, type MergeCaches } from './simulate';
+export { runChunks, prepareRun, prepareCheckedRun } from './prepare-run';
 export { ChunkRunner, CHUNK_SIZE, chunkCount, chunkRange, mergeMoments, type ChunkPart, type ChunkOptions, type PreparedRun, type Moments } from './chunks';
 export type { RunOptions, AsyncRunOptions, Progress, RunResult, InputReport, StackResult, CostResult, StackContributorResult, SampleSelection } from './simulate';
 export type { OutputSummary, LimitReport, DriverReport, DriverItem, Convergence, ProbabilityEstimate } from './summary';

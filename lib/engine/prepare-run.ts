@@ -1,6 +1,8 @@
 /** Preparing a run with the model schema: every caller but the embed's engine (see prepareRunWith). */
 import { ChunkRunner, inputWindow, prepareRunWith, type ChunkOptions, type ChunkPart, type PreparedRun } from './chunks';
 import { validateModel } from './schema';
+import type { ModelCheck } from './set-dials';
+import type { CheckedModel } from './checked-model';
 
 /**
  * Validate the model, apply the dial values and compile the plan. `seed` and `trials`, when
@@ -8,6 +10,15 @@ import { validateModel } from './schema';
  */
 export function prepareRun(model: unknown, dialValues?: Record<string, number>, seed?: string | number | null, trials?: number | null): PreparedRun {
   return prepareRunWith(validateModel, model, dialValues, seed, trials);
+}
+
+/**
+ * Prepare a run of a model checked before (a CheckedModel read from the database): the model itself is not
+ * checked again; the model with the dial values applied (or with `seed`/`trials` replaced) still is.
+ */
+export function prepareCheckedRun(model: CheckedModel, dialValues?: Record<string, number>, seed?: string | number | null, trials?: number | null): PreparedRun {
+  const checkOthers: ModelCheck = (input) => (input === model ? { ok: true, model, issues: [] } : validateModel(input));
+  return prepareRunWith(checkOthers, model, dialValues, seed, trials);
 }
 
 /**

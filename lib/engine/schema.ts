@@ -14,8 +14,10 @@ import { checkCorrelation } from './linalg';
 import { normalCdfPair, normalCdfPairUpper } from './special';
 import { ln } from './det-math';
 import { costCorrelationMatrix, resolveDialTarget } from './model-paths';
+import type { CheckedModel } from './checked-model';
 
 export { costCorrelationMatrix, DISTRIBUTION_PARAMS, resolveDialTarget, type ResolvedTarget } from './model-paths';
+export type { Checked, CheckedModel, CheckedLinearStack, CheckedCostRange, CheckedFormula } from './checked-model';
 
 export const SCHEMA_ID = 'stochos.model/1';
 export const MIN_TRIALS = 1_000;
@@ -559,7 +561,7 @@ export const modelSchema = baseModelSchema.superRefine((m, ctx) => {
   for (const issue of found) ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message });
 });
 
-export type ValidationResult = { ok: true; model: StochosModel; issues: [] } | { ok: false; model: null; issues: ModelIssue[] };
+export type ValidationResult = { ok: true; model: CheckedModel; issues: [] } | { ok: false; model: null; issues: ModelIssue[] };
 
 /** Validate anything against the model schema; every problem comes back with its path. */
 export function validateModel(input: unknown): ValidationResult {
@@ -578,7 +580,8 @@ export function validateModel(input: unknown): ValidationResult {
       });
     }
     if (extra.length) return { ok: false, model: null, issues: extra };
-    return { ok: true, model: r.data, issues: [] };
+    // The one place a model becomes a CheckedModel.
+    return { ok: true, model: r.data as CheckedModel, issues: [] };
   }
   return {
     ok: false,

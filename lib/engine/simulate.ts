@@ -5,7 +5,8 @@
 import { ChunkRunner, type ChunkPart, type PreparedRun } from './chunks';
 import { RunCancelledError } from './errors';
 import { inputWindow, mergeParts, yieldToEventLoop, type AsyncRunOptions, type MergeCaches, type Progress, type RunOptions, type RunResult } from './merge';
-import { prepareRun } from './prepare-run';
+import { prepareCheckedRun, prepareRun } from './prepare-run';
+import type { CheckedModel } from './checked-model';
 
 export * from './merge';
 
@@ -39,8 +40,9 @@ export class Simulation {
   private readonly parts: ChunkPart[] = [];
   private readonly window: number;
 
-  constructor(model: unknown, options: RunOptions = {}, runner: ChunkRunner = new ChunkRunner()) {
-    this.prep = prepareRun(model, options.dialValues);
+  /** `prep`: the run prepared from `model` (by default checked with the schema here). */
+  constructor(model: unknown, options: RunOptions = {}, runner: ChunkRunner = new ChunkRunner(), prep: PreparedRun = prepareRun(model, options.dialValues)) {
+    this.prep = prep;
     this.options = options;
     this.runner = runner;
     this.total = this.prep.settings.trials;
@@ -80,6 +82,13 @@ export class Simulation {
 /** Run a model synchronously (server, tests). Throws ModelValidationError or SamplingError. */
 export function runModelSync(model: unknown, options: RunOptions = {}): RunResult {
   const sim = new Simulation(model, options);
+  sim.step(sim.total);
+  return sim.finish();
+}
+
+/** The same for a model checked before (a CheckedModel): only the model with the dial values applied is checked. */
+export function runCheckedModelSync(model: CheckedModel, options: RunOptions = {}): RunResult {
+  const sim = new Simulation(model, options, new ChunkRunner(), prepareCheckedRun(model, options.dialValues));
   sim.step(sim.total);
   return sim.finish();
 }

@@ -10,6 +10,7 @@ import { prepareRunWith, type ChunkPart, type PreparedRun } from './chunks';
 import { ModelValidationError, RunCancelledError, SamplingError, type SamplingErrorCode } from './errors';
 import { inputWindow, mergeParts, type Progress, type RunResult, type SampleSelection } from './merge';
 import type { ModelCheck } from './set-dials';
+import type { CheckedModel } from './checked-model';
 import { RankStore } from './stats';
 import type { WorkerErrorPayload, WorkerRequest, WorkerResponse } from './worker-protocol';
 
@@ -63,7 +64,7 @@ export class EngineWorkerClient {
   private readonly ranks = new RankStore();
 
   private readonly check: ModelCheck;
-  private readonly explain: ((model: unknown, dialValues?: Record<string, number>) => Promise<unknown>) | null;
+  private readonly explain: ((model: CheckedModel, dialValues?: Record<string, number>) => Promise<unknown>) | null;
 
   /**
    * `createWorker` starts one worker of the pool; `check` is the model check it runs with
@@ -71,7 +72,7 @@ export class EngineWorkerClient {
    * embed-engine.ts). Without a check, a model that fails to prepare is handed to `explain`,
    * which loads the schema on demand and returns its error (null: none, the first error stands).
    */
-  constructor(options: { createWorker: () => Worker; check: ModelCheck; explain?: (model: unknown, dialValues?: Record<string, number>) => Promise<unknown>; workers?: number }) {
+  constructor(options: { createWorker: () => Worker; check: ModelCheck; explain?: (model: CheckedModel, dialValues?: Record<string, number>) => Promise<unknown>; workers?: number }) {
     this.createWorker = options.createWorker;
     this.check = options.check;
     this.explain = options.explain ?? null;
@@ -144,7 +145,7 @@ export class EngineWorkerClient {
   }
 
   /** Run a model on the pool. A newer call cancels this one. */
-  run(model: unknown, options: WorkerRunOptions = {}): Promise<RunResult> {
+  run(model: CheckedModel, options: WorkerRunOptions = {}): Promise<RunResult> {
     this.cancel();
     const runId = this.nextId++;
     return new Promise<RunResult>((resolve, reject) => {

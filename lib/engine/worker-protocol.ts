@@ -5,13 +5,14 @@
  * request, or a 'cancel', stops the run in progress between two chunks.
  */
 import type { ChunkPart } from './chunks';
+import type { CheckedModel } from './checked-model';
 import type { ModelIssue } from './errors';
 
 export interface WorkerChunksRequest {
   type: 'chunks';
   runId: number;
-  /** Model JSON (validated in the worker too). */
-  model: unknown;
+  /** The checked model, as plain JSON (the studio's workers check it again with the dial values applied). */
+  model: CheckedModel;
   dialValues?: Record<string, number>;
   chunkIndices: number[];
   /** Return input columns of the chunks starting before this trial. */

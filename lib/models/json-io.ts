@@ -3,7 +3,7 @@
 // validates with the engine's schema; it returns either the model or every problem with its path and, where
 // the file shows it, the line and column. Pure: runs in the browser and on the server.
 
-import { SCHEMA_ID, validateModel, type StochosModel } from '@/lib/engine/schema';
+import { SCHEMA_ID, validateModel, type CheckedModel } from '@/lib/engine/schema';
 
 export const MODEL_FILE_SUFFIX = '.stochos.json';
 /** Larger files are refused before parsing (a model with 100,000 measured values is about 1.5 MB). */
@@ -18,13 +18,16 @@ export interface ImportIssue {
   column?: number;
 }
 
-export type ImportResult = { ok: true; model: StochosModel } | { ok: false; errors: ImportIssue[] };
+export type ImportResult = { ok: true; model: CheckedModel } | { ok: false; errors: ImportIssue[] };
 
 // ---- Export ------------------------------------------------------------------------------------------------
 
-/** Pretty JSON (2 spaces), schema tag first, then template and title, then the rest in the model's order. */
-export function exportModelJson(model: StochosModel): string {
-  const { schema: _schema, template, title, ...rest } = model as StochosModel & Record<string, unknown>;
+/**
+ * Pretty JSON (2 spaces), schema tag first, then template and title, then the rest in the model's order. Takes a
+ * checked model or, from the editor, the draft as typed.
+ */
+export function exportModelJson(model: { schema?: unknown; template: string; title?: unknown }): string {
+  const { schema: _schema, template, title, ...rest } = model;
   void _schema;
   return JSON.stringify({ schema: SCHEMA_ID, template, title, ...rest }, null, 2) + '\n';
 }

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { validateModel, type StochosModel } from '@/lib/engine/schema';
+import { validateModel, type CheckedModel } from '@/lib/engine/schema';
 import { PANEL_IDS } from '@/lib/models/widget-options';
 import { TEMPLATE_IDS } from '@/lib/models/templates';
 
@@ -10,7 +10,7 @@ import { TEMPLATE_IDS } from '@/lib/models/templates';
  * A model field: anything in, a validated model out. Every issue the engine finds is reported under this
  * field's path, e.g. `model.contributors.2.plusTol`.
  */
-export const modelField = z.unknown().transform((value, ctx): StochosModel => {
+export const modelField = z.unknown().transform((value, ctx): CheckedModel => {
   if (value === undefined || value === null) {
     ctx.addIssue({ code: 'custom', message: 'The model is required.' });
     return z.NEVER;

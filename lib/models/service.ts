@@ -19,7 +19,7 @@ import { getLiveWidgetForModel, getWidget, insertWidget, unpublishWidget as dbUn
 import { listModels, type ModelListRow } from '@/db/models';
 import { listWidgets } from '@/db/widgets';
 import { EXAMPLE_MODELS } from '@/lib/engine/examples';
-import { validateModel, type StochosModel } from '@/lib/engine/schema';
+import { validateModel, type CheckedModel } from '@/lib/engine/schema';
 import { AppError, conflict, forbidden, notFound } from '@/lib/http/errors';
 import type { Member } from '@/lib/auth/guard';
 import { assertAuthoringAllowed } from '@/lib/billing';
@@ -72,7 +72,7 @@ export async function modelDetail(member: Member, id: string): Promise<ModelDeta
 
 export async function createModel(member: Member, input: CreateModelInput): Promise<ModelRecord> {
   const firm = await getFirm(member.firmId);
-  let start: StochosModel;
+  let start: CheckedModel;
   if (input.model) start = { ...input.model, title: input.title };
   else {
     const raw = input.start === 'example' ? { ...structuredClone(EXAMPLE_MODELS[input.template]), title: input.title } : blankModel(input.template, input.title, { unit: firm?.unitsDefault ?? 'mm', currency: firm?.currencyDefault ?? 'EUR' });
@@ -98,7 +98,7 @@ export async function duplicateModel(member: Member, id: string, title?: string)
     const source = await mustGetModel(member.firmId, id, trx);
     const latest = await getLatestVersion(member.firmId, id, trx);
     const newTitle = title ?? `${source.title} (copy)`.slice(0, 120);
-    const draft = { ...((latest?.model ?? source.draft) as Record<string, unknown>), title: newTitle };
+    const draft = { ...(latest?.model ?? source.draft), title: newTitle };
     const newId = await insertModel({ firmId: member.firmId, title: newTitle, template: source.template, draft, userId: member.userId }, trx);
     await recordAudit(
       {
@@ -236,7 +236,7 @@ export async function checkVersion(member: Member, versionId: string, input: Che
 }
 
 /** Dial ids and headline must exist in the version being published. */
-function assertPresentation(model: StochosModel, headline: string | undefined, dialIds: string[] | undefined): void {
+function assertPresentation(model: CheckedModel, headline: string | undefined, dialIds: string[] | undefined): void {
   const fields: Record<string, string[]> = {};
   if (headline !== undefined && !headlineIds(model.template).includes(headline)) {
     fields.headline = [`'${headline}' is not a headline figure of a ${model.template} model; choose one of ${headlineIds(model.template).join(', ')}.`];
@@ -270,7 +270,7 @@ export async function publish(member: Member, input: PublishInput): Promise<Widg
     const v = await getVersionById(member.firmId, input.versionId, trx);
     if (!v || v.modelId !== m.id) throw new AppError('validation_failed', 'Some fields need attention.', { fields: { versionId: ['That version does not belong to this model.'] } });
     await assertPublishable(member, v, trx);
-    assertPresentation(v.model as StochosModel, input.headline, input.dialIds);
+    assertPresentation(v.model, input.headline, input.dialIds);
     const live = await getLiveWidgetForModel(member.firmId, m.id, trx);
     if (live) throw conflict(`“${m.title}” is already published as “${live.title}” (version ${live.versionNumber}). Change that widget to publish another version.`);
     const firm = await getFirm(member.firmId, trx);
@@ -323,7 +323,7 @@ export async function changeWidget(member: Member, id: string, patch: WidgetPatc
       await assertPublishable(member, target, trx);
     }
     const version = target ?? (await getVersionById(member.firmId, w.versionId, trx))!;
-    assertPresentation(version.model as StochosModel, patch.headline, patch.dialIds ?? (target ? w.dialIds : undefined));
+    assertPresentation(version.model, patch.headline, patch.dialIds ?? (target ? w.dialIds : undefined));
     await dbUpdateWidget(member.firmId, id, { ...patch, versionId: target?.id, userId: member.userId }, trx);
     const presentation = { ...patch, versionId: undefined };
     if (target) {

@@ -1,4 +1,5 @@
 // Shapes of the studio's records as the API returns them; shared by db/, route handlers and the browser.
+import type { CheckedModel } from '@/lib/engine/checked-model';
 
 export type TemplateId = 'linear-stack' | 'cost-range' | 'formula';
 export type CheckState = 'unchecked' | 'signed_off' | 'sent_back';
@@ -14,7 +15,7 @@ export interface ModelRecord {
   title: string;
   template: TemplateId;
   /** The model a new or duplicated model starts from, before (and independent of) its versions. */
-  draft: unknown;
+  draft: CheckedModel;
   createdBy: string | null;
   createdByName: string | null;
   createdAt: string;
@@ -41,7 +42,7 @@ export interface VersionSummary {
 }
 
 export interface VersionRecord extends VersionSummary {
-  model: unknown;
+  model: CheckedModel;
 }
 
 export interface ModelListRow {
@@ -82,7 +83,7 @@ export interface WidgetRecord {
 
 /** A live widget with everything a viewer's page or a snapshot needs: the version's model and its sign-off. */
 export interface PublishedWidget extends WidgetRecord {
-  model: unknown;
+  model: CheckedModel;
   versionCreatedAt: string;
   authorName: string | null;
   checkerName: string | null;

@@ -1,13 +1,13 @@
 // The server's run worker: one whole run per task, on a worker thread of the pool in lib/simulate/pool.ts.
 // Built by lib/simulate/build-worker.mjs into .next/workers/simulate-worker.mjs (a plain ES module Node loads
 // as is, outside Next's bundles). Uses the engine's own run function, so the numbers are the browser's.
-import { ModelValidationError, runModelSync, SamplingError, type ModelIssue, type RunResult } from '@/lib/engine';
+import { ModelValidationError, runCheckedModelSync, runModelSync, SamplingError, type ModelIssue, type RunResult } from '@/lib/engine';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 import { budgetMessage, workOf } from './budget';
 
 export type SampleWhich = 'none' | 'outputs' | 'all';
 
-export interface RunTask {
-  model: unknown;
+interface RunTaskFields {
   dialValues?: Record<string, number>;
   percentiles?: number[];
   /** 'json': the API's response body, serialised here (never on the request thread); 'result': the RunResult. */
@@ -15,6 +15,12 @@ export interface RunTask {
   samples?: { which: SampleWhich; limit: number };
   maxWork: number;
 }
+
+/**
+ * The API's run body carries its model as sent: it is parsed here, off the request thread. The server's own runs
+ * (snapshots) carry a model checked when it was read, marked `checked`, and only the dial values applied are checked.
+ */
+export type RunTask = RunTaskFields & ({ model: unknown; checked?: false } | { model: CheckedModel; checked: true });
 
 export type RunFailure =
   | { kind: 'model'; issues: ModelIssue[] }
@@ -30,7 +36,8 @@ export function runTask(task: RunTask): RunReply {
   if (w && w.work > task.maxWork) return { ok: false, failure: { kind: 'budget', message: budgetMessage(w, task.maxWork) } };
   let result: RunResult;
   try {
-    result = runModelSync(task.model, { dialValues: task.dialValues, samples: task.samples?.which ?? 'none', percentiles: task.percentiles });
+    const options = { dialValues: task.dialValues, samples: task.samples?.which ?? 'none', percentiles: task.percentiles } as const;
+    result = task.checked ? runCheckedModelSync(task.model, options) : runModelSync(task.model, options);
   } catch (err) {
     if (err instanceof ModelValidationError) return { ok: false, failure: { kind: 'model', issues: err.issues } };
     if (err instanceof SamplingError) return { ok: false, failure: { kind: 'sampling', message: err.message, inputId: err.inputId } };

@@ -1,5 +1,6 @@
 import 'server-only';
 import type { RunResult } from '@/lib/engine';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 import { failureError, poolError } from './failures';
 import { runLimits } from './limits';
 import { runOnPool } from './pool';
@@ -8,8 +9,8 @@ import { runOnPool } from './pool';
  * A model run on the pool for the server's own use (snapshot PDFs), under the same work budget and time limit as the
  * API: the RunResult, or an Error saying what was wrong.
  */
-export async function runForServer(model: unknown, dialValues: Record<string, number>): Promise<RunResult> {
-  const reply = await runOnPool({ model, dialValues, reply: 'result', maxWork: runLimits().maxWork }).catch(poolError);
+export async function runForServer(model: CheckedModel, dialValues: Record<string, number>): Promise<RunResult> {
+  const reply = await runOnPool({ model, checked: true, dialValues, reply: 'result', maxWork: runLimits().maxWork }).catch(poolError);
   if (!reply.ok) {
     const e = failureError(reply.failure);
     const detail = reply.failure.kind === 'model' ? Object.entries(e.fields ?? {}).map(([k, v]) => `${k}: ${v.join(' ')}`) : [];

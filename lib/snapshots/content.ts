@@ -2,8 +2,9 @@
 // display, cautions), so every figure in the PDF is the text the viewer's screen showed.
 import type { RunResult } from '@/lib/engine';
 import { PERCENTILE_DEFINITION } from '@/lib/engine/stats';
-import { applyDials } from '@/lib/engine/dials';
-import { DISTRIBUTION_PARAMS, validateModel, type Distribution, type StochosModel } from '@/lib/engine/schema';
+import { setDials } from '@/lib/engine/set-dials';
+import { DISTRIBUTION_PARAMS, type Distribution, type StochosModel } from '@/lib/engine/schema';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 import { cautionsFor, lowTrialCaution, type Caution } from '@/lib/cautions';
 import { formatCount, formatFixed, formatPercent, formatValue } from '@/lib/charts/format';
 import { headlineFigure, type HeadlineFigure } from '@/lib/results/headline';
@@ -246,12 +247,13 @@ const DESIGN: Record<string, string> = { 'monte-carlo': 'Simple random sampling 
 const NORMAL: Record<string, string> = { 'box-muller': 'Box–Muller transform (Box & Muller 1958)', ziggurat: 'Ziggurat method (Marsaglia & Tsang 2000)' };
 const CORR: Record<string, string> = { copula: 'Gaussian copula', 'iman-conover': 'Rank correlation by Iman & Conover (1982)' };
 
-/** The PDF's content from a run of the widget's model with the viewer's dial values. */
-export function snapshotContent(model: unknown, result: RunResult, meta: SnapshotMeta, pinned: RunResult | null = null): SnapshotContent {
-  const checked = validateModel(model);
-  if (!checked.ok) throw new Error(`The published model does not validate: ${checked.issues[0]?.message ?? 'unknown problem'}`);
-  const applied = applyDials(checked.model, result.run.dialValues).model;
-  const byId = new Map(checked.model.dials.map((d) => [d.id, d]));
+/**
+ * The PDF's content from a run of the widget's model with the viewer's dial values. The run has checked the model
+ * with exactly these dial values applied, so they are written into the tables without checking it again.
+ */
+export function snapshotContent(model: CheckedModel, result: RunResult, meta: SnapshotMeta, pinned: RunResult | null = null): SnapshotContent {
+  const applied = setDials(model, result.run.dialValues, null).model;
+  const byId = new Map(model.dials.map((d) => [d.id, d]));
   const dialsOf = (r: RunResult) =>
     meta.dialIds.flatMap((id) => {
       const d = byId.get(id);
@@ -291,7 +293,7 @@ export function snapshotContent(model: unknown, result: RunResult, meta: Snapsho
       ['Engine', `${result.engine}, the same engine and settings as the widget in the browser`],
     ],
     convergence: result.outputs.map((o) => ({ output: o.label, verdict: o.convergence.verdict, enough: o.convergence.enough })),
-    cautions: [...(low ? [low] : []), ...cautionsFor(checked.model.template)],
+    cautions: [...(low ? [low] : []), ...cautionsFor(model.template)],
     trialsText: `${formatCount(result.run.trials)} trials`,
     compare: pinned ? { pinnedDials: dialsOf(pinned), rows: compareFigures(pinned, result, meta.headline) } : null,
   };

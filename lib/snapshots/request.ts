@@ -9,7 +9,7 @@ import { AppError, fieldError } from '@/lib/http/errors';
 import { clientAddress } from '@/lib/http/client-address';
 import type { Viewer } from '@/lib/embed/access';
 import { viewerDials } from '@/lib/embed/payload';
-import { validateModel } from '@/lib/engine/schema';
+import type { CheckedModel } from '@/lib/engine/checked-model';
 import { SNAPSHOT_LIMITS, SNAPSHOT_WINDOW_MS, limitMessage, retryAfterSeconds, type LimitKind } from './limits';
 import { domainAllowed, normaliseEmail, type SnapshotAccepted, type SnapshotRequestInput } from './schemas';
 
@@ -28,7 +28,7 @@ export function snapshotMessageId(jobId: string): string {
 }
 
 /** Dial values checked against the widget's viewer dials; missing dials take the author's value. */
-export function checkDialValues(model: unknown, dialIds: readonly string[], given: Record<string, number>): Record<string, number> {
+export function checkDialValues(model: CheckedModel, dialIds: readonly string[], given: Record<string, number>): Record<string, number> {
   const bounds = viewerDials(model, dialIds);
   const fields: Record<string, string[]> = {};
   for (const [id, v] of Object.entries(given)) {
@@ -42,10 +42,9 @@ export function checkDialValues(model: unknown, dialIds: readonly string[], give
     if (v < b.min - tol || v > b.max + tol) fields[`dialValues.${id}`] = [`The value ${v} is outside the dial's range (${b.min} to ${b.max}).`];
   }
   if (Object.keys(fields).length) throw new AppError('validation_failed', 'Some dial values cannot be used for this widget.', { fields });
-  const checked = validateModel(model);
   const out: Record<string, number> = {};
   for (const b of bounds) {
-    const d = checked.ok ? checked.model.dials.find((x) => x.id === b.id) : undefined;
+    const d = model.dials.find((x) => x.id === b.id);
     const v = given[b.id] ?? d?.default;
     if (v !== undefined) out[b.id] = Math.min(b.max, Math.max(b.min, v));
   }

@@ -5,7 +5,7 @@
  */
 import { EngineWorkerClient } from '@/lib/engine/worker-client';
 import { EXAMPLE_MODELS } from '@/lib/engine/examples';
-import { validateModel } from '@/lib/engine/schema';
+import { validateModel, type CheckedModel } from '@/lib/engine/schema';
 import { fingerprint, type Fingerprint } from './engine-helpers';
 
 declare global {
@@ -25,11 +25,18 @@ const poolOf = (workers: number) => {
 };
 const client = poolOf(2);
 
+/** The page's models arrive as JSON from the test: parsed here, as the studio parses a model before it runs it. */
+function checked(model: unknown): CheckedModel {
+  const r = validateModel(model);
+  if (!r.ok) throw new Error(`The test model does not validate: ${r.issues[0]?.message ?? 'unknown problem'}`);
+  return r.model;
+}
+
 window.engineParity = {
   async run(models, workers = 2) {
     const out: Record<string, Fingerprint> = {};
     for (const [name, model] of Object.entries(models)) {
-      out[name] = fingerprint(await poolOf(workers).run(model, { samples: 'all' }));
+      out[name] = fingerprint(await poolOf(workers).run(checked(model), { samples: 'all' }));
     }
     return out;
   },
@@ -37,12 +44,12 @@ window.engineParity = {
     const big = JSON.parse(JSON.stringify(EXAMPLE_MODELS.formula));
     big.settings.trials = 400_000;
     let progressEvents = 0;
-    const first = client.run(big, { onProgress: () => progressEvents++ }).then(
+    const first = client.run(checked(big), { onProgress: () => progressEvents++ }).then(
       () => 'finished',
       (e: Error) => e.name,
     );
     await new Promise((r) => setTimeout(r, 30));
-    const second = await client.run(EXAMPLE_MODELS['linear-stack'], { onProgress: () => progressEvents++ }).then((r) => `finished ${r.outputs[0].id}`);
+    const second = await client.run(checked(EXAMPLE_MODELS['linear-stack']), { onProgress: () => progressEvents++ }).then((r) => `finished ${r.outputs[0].id}`);
     return { first: await first, second, progressEvents };
   },
 };

@@ -1,7 +1,7 @@
 'use client';
 
 import { EXAMPLE_MODELS } from '@/lib/engine/examples';
-import type { Template } from '@/lib/engine/schema';
+import { validateModel, type CheckedModel, type Template } from '@/lib/engine/schema';
 import { ResultsPreview } from '@/components/results/results-preview';
 import { WidgetView } from '@/components/widget/widget-view';
 import { createStudioEngine } from '@/lib/engine/studio-engine';
@@ -23,6 +23,13 @@ const BRANDS: Record<Template, { firmName: string; brandColor: string; logoUrl?:
 const NAMES: Record<Template, string> = { 'linear-stack': 'Linear stack', 'cost-range': 'Cost range', formula: 'Formula' };
 const SHORT: Record<string, Template> = { stack: 'linear-stack', cost: 'cost-range', formula: 'formula' };
 
+/** The example, checked as the studio checks a model before it runs it. */
+function checkedExample(t: Template): CheckedModel {
+  const r = validateModel(EXAMPLE_MODELS[t]);
+  if (!r.ok) throw new Error(`The ${t} example does not validate: ${r.issues[0]?.message}`);
+  return r.model;
+}
+
 /** Every template's results for the engine's example models (for screenshots and visual checks). */
 export function ChartGallery({ only, view }: { only?: string; view?: string }) {
   const templates = (only && SHORT[only] ? [SHORT[only]] : (Object.keys(EXAMPLE_MODELS) as Template[]));
@@ -41,7 +48,7 @@ export function ChartGallery({ only, view }: { only?: string; view?: string }) {
           {view === 'widget' ? (
             <WidgetView
               createEngine={createStudioEngine}
-              model={EXAMPLE_MODELS[t]}
+              model={checkedExample(t)}
               widget={{
                 title: EXAMPLE_MODELS[t].title,
                 panels: ['headline', 'cumulative', 'spread', 'drivers'],
@@ -52,7 +59,7 @@ export function ChartGallery({ only, view }: { only?: string; view?: string }) {
               versionInfo={{ number: 3, signedOffAt: t === 'formula' ? null : '2026-11-24T10:12:00Z' }}
             />
           ) : (
-            <ResultsPreview model={EXAMPLE_MODELS[t]} />
+            <ResultsPreview model={checkedExample(t)} />
           )}
         </section>
       ))}

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import type { FieldValues, ResolverOptions } from 'react-hook-form';
+import type { ResolverOptions } from 'react-hook-form';
+import type { ModelDraft } from '@/components/editor/form-values';
 import { exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine/examples';
 import { modelSchema } from '@/lib/engine/schema';
 import { fieldsFromZod } from '@/lib/http/errors';
@@ -14,14 +15,15 @@ import {
 } from '@/components/editor/error-paths';
 import { createModelResolver } from '@/components/editor/resolver';
 
-const options: ResolverOptions<FieldValues> = { fields: {}, shouldUseNativeValidation: false, criteriaMode: 'all' };
+const options: ResolverOptions<ModelDraft> = { fields: {}, shouldUseNativeValidation: false, criteriaMode: 'all' };
 
 async function resolve(values: unknown) {
   let parsed: unknown = 'not called';
   const resolver = createModelResolver((m) => {
     parsed = m;
   });
-  const result = await resolver(structuredClone(values) as FieldValues, undefined, options);
+  // Broken drafts on purpose: whatever an author might have typed.
+  const result = await resolver(structuredClone(values) as ModelDraft, undefined, options);
   return { messages: flattenFieldErrors(result.errors), parsed, result };
 }
 

@@ -1,7 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import { getDb } from '@/db/knex';
 
-// Direct rows for the embed tests: a firm with one member and a published widget of a two-dial model.
+// Direct rows for the embed tests: a firm with one member and a published widget of a two-dial model. The model is a
+// valid one, as every stored version is (the embed reads it as a CheckedModel).
 export const DIALED_MODEL = {
   schema: 'stochos.model/1',
   template: 'formula',
@@ -11,6 +12,8 @@ export const DIALED_MODEL = {
     { id: 'bore', label: 'Bore', unit: 'mm', min: 24.9, max: 25.1, step: 0.01, default: 25, target: { kind: 'variable' } },
     { id: 'hidden', label: 'Hidden', unit: '', min: 0, max: 1, step: 0.1, default: 0.5, target: { kind: 'variable' } },
   ],
+  inputs: [{ id: 'shaft', name: 'Shaft diameter', unit: 'mm', distribution: { type: 'normal', mean: 24.95, sd: 0.01 } }],
+  outputs: [{ id: 'clearance', name: 'Clearance', unit: 'mm', formula: 'bore - shaft + 0 * hidden' }],
 };
 
 export async function seedFirmWithWidget(name = 'Fixture firm'): Promise<{ firmId: string; userId: string; widgetId: string; modelId: string }> {

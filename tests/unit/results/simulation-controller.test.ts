@@ -3,6 +3,10 @@ import { SimulationController, type RunClient } from '@/components/results/simul
 import { ModelValidationError, RunCancelledError } from '@/lib/engine/errors';
 import type { Progress, RunResult } from '@/lib/engine/simulate';
 import type { WorkerRunOptions } from '@/lib/engine/worker-client';
+import type { CheckedModel } from '@/lib/engine/checked-model';
+
+/** The controller only hands its model to the client: a token stands in for one (the fake client never reads it). */
+const token = (m: number | string) => ({ m }) as unknown as CheckedModel;
 
 /** A fake engine client: each run waits until the test resolves or rejects it. */
 class FakeClient implements RunClient {
@@ -48,7 +52,7 @@ afterEach(() => {
 describe('SimulationController', () => {
   it('runs the first inputs at once, with the sample selection and dial values', async () => {
     const { c, client, tick } = setup();
-    c.setInputs({ m: 1 }, { d: 2 }, 'k1');
+    c.setInputs(token(1), { d: 2 }, 'k1');
     expect(client.calls).toHaveLength(1);
     expect(client.last.options.samples).toBe('all');
     expect(client.last.options.dialValues).toEqual({ d: 2 });
@@ -63,7 +67,7 @@ describe('SimulationController', () => {
 
   it('reports progress of the run in flight only', async () => {
     const { c, client } = setup();
-    c.setInputs({ m: 1 }, undefined, 'k1');
+    c.setInputs(token(1), undefined, 'k1');
     const p: Progress = { runPhase: 'sampling', done: 4096, total: 20000, elapsedMs: 31 };
     client.last.options.onProgress?.(p);
     expect(c.getSnapshot().progress).toEqual(p);
@@ -71,23 +75,23 @@ describe('SimulationController', () => {
     client.last.resolve(fakeResult('a'));
     await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
     expect(c.getSnapshot().progress).toBeNull();
-    c.setInputs({ m: 2 }, undefined, 'k2');
+    c.setInputs(token(2), undefined, 'k2');
     first.options.onProgress?.({ ...p, done: 99 });
     expect(c.getSnapshot().progress).toBeNull();
   });
 
   it('debounces changes, cancels the run in flight and keeps the previous result until the new one is ready', async () => {
     const { c, client } = setup();
-    c.setInputs({ m: 1 }, { d: 1 }, 'k1');
+    c.setInputs(token(1), { d: 1 }, 'k1');
     client.last.resolve(fakeResult('one'));
     await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
 
-    c.setInputs({ m: 1 }, { d: 2 }, 'k2');
+    c.setInputs(token(1), { d: 2 }, 'k2');
     expect(c.getSnapshot().status).toBe('waiting');
     expect(c.getSnapshot().stale).toBe(true);
     expect(c.getSnapshot().result?.title).toBe('one');
     vi.advanceTimersByTime(100);
-    c.setInputs({ m: 1 }, { d: 3 }, 'k3');
+    c.setInputs(token(1), { d: 3 }, 'k3');
     vi.advanceTimersByTime(149);
     expect(client.calls).toHaveLength(1);
     vi.advanceTimersByTime(1);
@@ -98,7 +102,7 @@ describe('SimulationController', () => {
 
     // A change while running cancels that run at once and starts again after the debounce.
     const running = client.last;
-    c.setInputs({ m: 1 }, { d: 4 }, 'k4');
+    c.setInputs(token(1), { d: 4 }, 'k4');
     expect(running.cancelled).toBe(true);
     expect(c.getSnapshot().status).toBe('waiting');
     running.resolve(fakeResult('late'));
@@ -111,13 +115,13 @@ describe('SimulationController', () => {
 
   it('ignores unchanged inputs and returns to a result already on screen without running', async () => {
     const { c, client } = setup();
-    c.setInputs({ m: 1 }, undefined, 'k1');
+    c.setInputs(token(1), undefined, 'k1');
     client.last.resolve(fakeResult('one'));
     await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
-    c.setInputs({ m: 1 }, undefined, 'k1');
+    c.setInputs(token(1), undefined, 'k1');
     expect(client.calls).toHaveLength(1);
-    c.setInputs({ m: 2 }, undefined, 'k2');
-    c.setInputs({ m: 1 }, undefined, 'k1');
+    c.setInputs(token(2), undefined, 'k2');
+    c.setInputs(token(1), undefined, 'k1');
     vi.advanceTimersByTime(500);
     expect(client.calls).toHaveLength(1);
     expect(c.getSnapshot().status).toBe('done');
@@ -126,10 +130,10 @@ describe('SimulationController', () => {
 
   it('shows the engine’s error with its located issues and keeps the last good result', async () => {
     const { c, client } = setup();
-    c.setInputs({ m: 1 }, undefined, 'k1');
+    c.setInputs(token(1), undefined, 'k1');
     client.last.resolve(fakeResult('good'));
     await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
-    c.setInputs({ m: 'bad' }, undefined, 'k2');
+    c.setInputs(token('bad'), undefined, 'k2');
     vi.advanceTimersByTime(150);
     client.last.reject(new ModelValidationError([{ path: ['dialValues', 'spacer_length'], message: 'The value 30 is outside its range.' }]));
     await vi.waitFor(() => expect(c.getSnapshot().status).toBe('error'));
@@ -139,7 +143,7 @@ describe('SimulationController', () => {
     expect(s.result?.title).toBe('good');
     expect(s.stale).toBe(true);
     // Fixing the input clears the error when the new result arrives.
-    c.setInputs({ m: 3 }, undefined, 'k3');
+    c.setInputs(token(3), undefined, 'k3');
     vi.advanceTimersByTime(150);
     client.last.resolve(fakeResult('fixed'));
     await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
@@ -148,17 +152,17 @@ describe('SimulationController', () => {
 
   it('cancel keeps the previous result; the same inputs can be run again later', async () => {
     const { c, client } = setup();
-    c.setInputs({ m: 1 }, undefined, 'k1');
+    c.setInputs(token(1), undefined, 'k1');
     client.last.resolve(fakeResult('one'));
     await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
-    c.setInputs({ m: 2 }, undefined, 'k2');
+    c.setInputs(token(2), undefined, 'k2');
     vi.advanceTimersByTime(150);
     c.cancel();
     expect(client.last.cancelled).toBe(true);
     await Promise.resolve();
     expect(c.getSnapshot().status).toBe('done');
     expect(c.getSnapshot().result?.title).toBe('one');
-    c.setInputs({ m: 2 }, undefined, 'k2');
+    c.setInputs(token(2), undefined, 'k2');
     vi.advanceTimersByTime(150);
     expect(client.calls).toHaveLength(3);
   });
@@ -174,23 +178,23 @@ describe('SimulationController', () => {
       },
     });
     expect(clients).toHaveLength(0);
-    c.setInputs({ m: 1 }, undefined, 'k1');
+    c.setInputs(token(1), undefined, 'k1');
     expect(clients).toHaveLength(1);
     c.dispose();
     expect(clients[0].terminated).toBe(1);
     expect(clients[0].last.cancelled).toBe(true);
-    c.setInputs({ m: 1 }, undefined, 'k1');
+    c.setInputs(token(1), undefined, 'k1');
     expect(clients).toHaveLength(2);
     expect(clients[1].calls).toHaveLength(1);
   });
 
   it('uses a new sample selection handed in with new inputs', async () => {
     const { c, client } = setup();
-    c.setInputs({ m: 1 }, undefined, 'k1');
+    c.setInputs(token(1), undefined, 'k1');
     expect(client.last.options.samples).toBe('all');
     client.last.resolve(fakeResult('one'));
     await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
-    c.setInputs({ m: 2 }, undefined, 'k2', 'none');
+    c.setInputs(token(2), undefined, 'k2', 'none');
     vi.advanceTimersByTime(150);
     expect(client.last.options.samples).toBe('none');
   });

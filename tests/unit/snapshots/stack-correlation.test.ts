@@ -1,8 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { runModelSync } from '@/lib/engine/simulate';
 import { snapshotContent } from '@/lib/snapshots/content';
+import { checked } from '../../support/checked';
 
-const model = {
+const model = checked({
   schema: 'stochos.model/1',
   template: 'linear-stack',
   title: 'Two blocks from one batch',
@@ -14,7 +15,7 @@ const model = {
   ],
   correlation: { inputs: ['a', 'b'], matrix: [[1, 0.4], [0.4, 1]] },
   limits: { lower: 9.8, upper: 10.2 },
-};
+});
 
 describe('snapshot PDF content of a correlated stack', () => {
   it('lists the correlated contributors among the assumptions', () => {
