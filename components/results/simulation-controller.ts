@@ -52,6 +52,9 @@ export interface ControllerOptions {
   clearTimer?: (t: unknown) => void;
 }
 
+/** How long a charts step waits for the complete result before it is shown by itself (about one frame). */
+export const STAGE_FRAME_MS = 16;
+
 const INITIAL: SimulationSnapshot = { status: 'idle', result: null, stale: false, progress: null, lastRunMs: null, error: null, runs: 0, pending: null };
 
 export function errorOf(err: unknown): SimulationError {
@@ -79,6 +82,8 @@ export class SimulationController {
   private resultKey: string | null = null;
   /** Sequence number of the run in flight; older completions are ignored. */
   private seq = 0;
+  /** Shows a charts step unless the complete result comes first. */
+  private stageTimer: unknown = null;
   /** When the last run started (for the debounce). */
   private lastStart = -Infinity;
 
@@ -173,7 +178,15 @@ export class SimulationController {
     this.client = null;
   }
 
+  private clearStageTimer(): void {
+    if (this.stageTimer !== null) {
+      this.clearTimer(this.stageTimer);
+      this.stageTimer = null;
+    }
+  }
+
   private clearPending(): void {
+    this.clearStageTimer();
     if (this.timer !== null) {
       this.clearTimer(this.timer);
       this.timer = null;
@@ -202,11 +215,21 @@ export class SimulationController {
         onProgress: (p) => {
           if (seq === this.seq && this.snapshot.status === 'running') this.set({ progress: p });
         },
-        // The headline figures first, then the charts: what is not computed yet stays from the previous result.
+        // The headline figures at once, then the charts: what is not computed yet stays from the previous result.
+        // Each step shown costs the page a render, so the charts step is shown only if the complete result is
+        // not ready within a frame (large runs); otherwise the complete result replaces the headline step.
         onStage: (stage, partial) => {
           if (seq !== this.seq || this.snapshot.status !== 'running') return;
-          const pending = stage === 'headline' ? 'charts' : 'drivers';
-          this.set({ result: withEarlierParts(partial, this.snapshot.result, pending), stale: false, pending });
+          const show = (pending: 'charts' | 'drivers') => {
+            if (seq === this.seq && this.snapshot.status === 'running') this.set({ result: withEarlierParts(partial, this.snapshot.result, pending), stale: false, pending });
+          };
+          this.clearStageTimer();
+          if (stage === 'headline') show('charts');
+          else
+            this.stageTimer = this.setTimer(() => {
+              this.stageTimer = null;
+              show('drivers');
+            }, STAGE_FRAME_MS);
         },
       });
     } catch (err) {
@@ -215,6 +238,7 @@ export class SimulationController {
     promise.then(
       (result) => {
         if (seq !== this.seq) return;
+        this.clearStageTimer();
         this.resultKey = key;
         this.set({ status: 'done', result, stale: false, progress: null, error: null, lastRunMs: this.now() - t0, runs: this.snapshot.runs + 1, pending: null });
       },

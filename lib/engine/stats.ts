@@ -305,8 +305,8 @@ const centredByColumn = new WeakMap<Float64Array, Centred>();
 
 /**
  * The column centred once and kept with it (ranks of unchanged inputs live across runs), so
- * Pearson's r of two columns is one dot product: pearsonCentred gives exactly what pearson
- * gives (same sums in the same order).
+ * Pearson's r of two columns is one dot product (pearsonCentred; the same formula as pearson,
+ * its cross-product summed in four interleaved parts, so it may differ in the last bits).
  */
 export function centred(a: Float64Array): Centred {
   let c = centredByColumn.get(a);
@@ -331,8 +331,20 @@ export function pearsonCentred(a: Centred, b: Centred): number {
   const x = a.dev;
   const y = b.dev;
   const n = x.length;
-  let sab = 0;
-  for (let k = 0; k < n; k++) sab += x[k] * y[k];
+  // Four running sums (no chain of dependent additions), combined in a fixed order.
+  let s0 = 0;
+  let s1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  let k = 0;
+  for (; k + 3 < n; k += 4) {
+    s0 += x[k] * y[k];
+    s1 += x[k + 1] * y[k + 1];
+    s2 += x[k + 2] * y[k + 2];
+    s3 += x[k + 3] * y[k + 3];
+  }
+  for (; k < n; k++) s0 += x[k] * y[k];
+  const sab = s0 + s1 + (s2 + s3);
   return a.ss > 0 && b.ss > 0 ? sab / Math.sqrt(a.ss * b.ss) : NaN;
 }
 

@@ -238,7 +238,10 @@ describe('SimulationController, posting order and quick single changes', () => {
     expect(s.pending).toBe('charts');
     expect(s.result?.outputs[0].mean).toBe(2);
     expect(s.result?.outputs[0].histogram).toHaveLength(3); // the previous run's, until the charts step
+    // The charts step is shown only when the complete result does not follow within a frame.
     client.last.options.onStage?.('charts', result(2, 5));
+    expect(c.getSnapshot().pending).toBe('charts');
+    vi.advanceTimersByTime(16);
     expect(c.getSnapshot().pending).toBe('drivers');
     expect(c.getSnapshot().result?.outputs[0].histogram).toHaveLength(5);
     client.last.resolve(result(2, 5));
