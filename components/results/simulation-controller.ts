@@ -3,6 +3,7 @@
 // result kept on screen until the next one is ready.
 import { ModelValidationError, RunCancelledError, type ModelIssue } from '@/lib/engine/errors';
 import type { Progress, RunResult, SampleSelection } from '@/lib/engine/simulate';
+import { withEarlierParts } from './staged-result';
 import type { WorkerRunOptions } from '@/lib/engine/worker-client';
 import type { CheckedModel } from '@/lib/engine/checked-model';
 
@@ -35,6 +36,11 @@ export interface SimulationSnapshot {
   error: SimulationError | null;
   /** Completed runs so far. */
   runs: number;
+  /**
+   * Parts of `result` still being computed for the current inputs ('charts': histograms, ECDFs and
+   * drivers; 'drivers': drivers only), shown meanwhile from the previous result; null when complete.
+   */
+  pending: 'charts' | 'drivers' | null;
 }
 
 export interface ControllerOptions {
@@ -47,7 +53,10 @@ export interface ControllerOptions {
   clearTimer?: (t: unknown) => void;
 }
 
-const INITIAL: SimulationSnapshot = { status: 'idle', result: null, stale: false, progress: null, lastRunMs: null, error: null, runs: 0 };
+/** How long a charts step waits for the complete result before it is shown by itself (about one frame). */
+export const STAGE_FRAME_MS = 16;
+
+const INITIAL: SimulationSnapshot = { status: 'idle', result: null, stale: false, progress: null, lastRunMs: null, error: null, runs: 0, pending: null };
 
 export function errorOf(err: unknown): SimulationError {
   if (err instanceof ModelValidationError) return { message: err.message, issues: err.issues };
@@ -74,6 +83,10 @@ export class SimulationController {
   private resultKey: string | null = null;
   /** Sequence number of the run in flight; older completions are ignored. */
   private seq = 0;
+  /** Shows a charts step unless the complete result comes first. */
+  private stageTimer: unknown = null;
+  /** When the last run started (for the debounce). */
+  private lastStart = -Infinity;
 
   constructor(opts: ControllerOptions) {
     const c = opts.client;
@@ -101,7 +114,7 @@ export class SimulationController {
    * New inputs (and optionally a new sample selection, which must then be part of `key`).
    * `key` identifies them (the hook passes their JSON); nothing happens when it is
    * unchanged. A run in flight is cancelled at once; the new run starts after the debounce, or
-   * immediately when nothing has been shown yet.
+   * immediately when nothing has been shown yet or no run started within the debounce.
    */
   setInputs(model: CheckedModel | null, dialValues: Record<string, number> | undefined, key: string, samples?: SampleSelection): void {
     if (key === this.key) return;
@@ -115,14 +128,21 @@ export class SimulationController {
       this.set({ status: 'idle', progress: null, stale: this.snapshot.result !== null });
       return;
     }
-    if (key === this.resultKey) {
+    if (key === this.resultKey && this.snapshot.pending === null) {
       // Back to the inputs already on screen (e.g. a dial returned to where it was).
       this.abortActive();
       this.set({ status: 'done', stale: false, progress: null, error: null });
       return;
     }
+    const settled = this.snapshot.status === 'done' || this.snapshot.status === 'error';
     this.abortActive();
     if (this.snapshot.result === null && this.snapshot.status !== 'error') {
+      this.start();
+      return;
+    }
+    // The first change after a quiet spell runs at once (a single dial step or keystroke needs no
+    // wait); changes that follow within the debounce wait for the burst to end.
+    if (settled && this.now() - this.lastStart >= this.debounceMs) {
       this.start();
       return;
     }
@@ -146,7 +166,8 @@ export class SimulationController {
     this.clearPending();
     this.abortActive();
     const s = this.snapshot;
-    if (s.status === 'running' || s.status === 'waiting') this.set({ status: s.result ? 'done' : 'idle', progress: null });
+    // A result shown in part (headline only) belongs to no inputs as a whole once its run stops.
+    if (s.status === 'running' || s.status === 'waiting') this.set({ status: s.result ? 'done' : 'idle', progress: null, ...(s.pending ? { pending: null, stale: true } : {}) });
     // The inputs were not run; asking for them again must start a run.
     if (this.key !== this.resultKey) this.key = null;
   }
@@ -158,7 +179,15 @@ export class SimulationController {
     this.client = null;
   }
 
+  private clearStageTimer(): void {
+    if (this.stageTimer !== null) {
+      this.clearTimer(this.stageTimer);
+      this.stageTimer = null;
+    }
+  }
+
   private clearPending(): void {
+    this.clearStageTimer();
     if (this.timer !== null) {
       this.clearTimer(this.timer);
       this.timer = null;
@@ -176,6 +205,7 @@ export class SimulationController {
     const model = this.model;
     if (model === null) return;
     const seq = ++this.seq;
+    this.lastStart = this.now();
     const key = this.key;
     const t0 = this.now();
     if (!this.client) this.client = this.factory();
@@ -188,6 +218,22 @@ export class SimulationController {
         onProgress: (p) => {
           if (seq === this.seq && this.snapshot.status === 'running') this.set({ progress: p });
         },
+        // The headline figures at once, then the charts: what is not computed yet stays from the previous result.
+        // Each step shown costs the page a render, so the charts step is shown only if the complete result is
+        // not ready within a frame (large runs); otherwise the complete result replaces the headline step.
+        onStage: (stage, partial) => {
+          if (seq !== this.seq || this.snapshot.status !== 'running') return;
+          const show = (pending: 'charts' | 'drivers') => {
+            if (seq === this.seq && this.snapshot.status === 'running') this.set({ result: withEarlierParts(partial, this.snapshot.result, pending), stale: false, pending });
+          };
+          this.clearStageTimer();
+          if (stage === 'headline') show('charts');
+          else
+            this.stageTimer = this.setTimer(() => {
+              this.stageTimer = null;
+              show('drivers');
+            }, STAGE_FRAME_MS);
+        },
       });
     } catch (err) {
       promise = Promise.reject(err);
@@ -195,12 +241,13 @@ export class SimulationController {
     promise.then(
       (result) => {
         if (seq !== this.seq) return;
+        this.clearStageTimer();
         this.resultKey = key;
-        this.set({ status: 'done', result, stale: false, progress: null, error: null, lastRunMs: this.now() - t0, runs: this.snapshot.runs + 1 });
+        this.set({ status: 'done', result, stale: false, progress: null, error: null, lastRunMs: this.now() - t0, runs: this.snapshot.runs + 1, pending: null });
       },
       (err) => {
         if (seq !== this.seq || err instanceof RunCancelledError) return;
-        this.set({ status: 'error', error: errorOf(err), progress: null, stale: this.snapshot.result !== null });
+        this.set({ status: 'error', error: errorOf(err), progress: null, stale: this.snapshot.result !== null, pending: null });
       },
     );
   }

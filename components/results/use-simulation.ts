@@ -25,7 +25,7 @@ export interface SimulationState extends SimulationSnapshot {
   cancel: () => void;
 }
 
-const SERVER_SNAPSHOT: SimulationSnapshot = { status: 'idle', result: null, stale: false, progress: null, lastRunMs: null, error: null, runs: 0 };
+const SERVER_SNAPSHOT: SimulationSnapshot = { status: 'idle', result: null, stale: false, progress: null, lastRunMs: null, error: null, runs: 0, pending: null };
 
 /**
  * Runs a model with dial values in the engine's web worker and keeps the latest result.

@@ -259,7 +259,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
           ) : null}
 
           {result ? (
-            <div className={cx('grid grid-cols-1 gap-4 transition-opacity @3xl:grid-cols-2', sim.stale && 'opacity-60')}>
+            <div className={cx('grid grid-cols-1 gap-4 transition-opacity @3xl:grid-cols-2', (sim.stale || sim.pending) && 'opacity-60')} aria-busy={sim.pending ? true : undefined}>
               {chartPanels.map((p, i) => (
                 <div key={p} className={chartPanels.length % 2 === 1 && i === 0 ? '@3xl:col-span-2' : undefined}>
                   <WidgetChart result={result} panel={p} />

@@ -258,6 +258,8 @@ export interface ChunkOptions {
    * inputWindow(prep, samples) for the merge (runChunks defaults to that for no samples).
    */
   inputWindow?: number;
+  /** Input and derived columns not to return: the gathering thread keeps them from an earlier run (ColumnStore). */
+  skipInputs?: readonly string[];
 }
 
 interface CacheEntry {
@@ -401,8 +403,9 @@ export class ChunkRunner {
     }
     const inputs: Record<string, Float64Array> = {};
     if (start < (options.inputWindow ?? 0)) {
-      for (const inp of plan.inputs) inputs[inp.id] = cols.get(inp.id) as Float64Array;
-      for (const d of plan.derived) inputs[d.id] = cols.get(d.id) as Float64Array;
+      const skip = new Set(options.skipInputs ?? []);
+      for (const inp of plan.inputs) if (!skip.has(inp.id)) inputs[inp.id] = cols.get(inp.id) as Float64Array;
+      for (const d of plan.derived) if (!skip.has(d.id)) inputs[d.id] = cols.get(d.id) as Float64Array;
     }
     return { index: k, start, count, outputs, inputs, outputMoments, inputMoments, rejection, ms: now() - t0 };
   }

@@ -14,13 +14,13 @@ import type { NormalMethod } from './normal-gen';
 import { RNG_NAME } from './rng';
 import { samplingMethodOf, type Design, type SamplingReport } from './samplers';
 import type { Template } from './schema';
-import { fractionAtOrBelow, PERCENTILE_DEFINITION, percentileEstimates, RankCache, RankStore, type PercentileEstimate } from './stats';
+import { PERCENTILE_DEFINITION, percentileEstimatesBySelection, RankCache, RankStore, type PercentileEstimate } from './stats';
 import {
   DEFAULT_ECDF_POINTS,
   DEFAULT_HISTOGRAM_BINS,
   DEFAULT_PERCENTILES,
   RANK_TRIAL_LIMIT,
-  summarizeOutput,
+  summarizeOutputStaged,
   type DriverItem,
   type OutputSummary,
   type ProbabilityEstimate,
@@ -143,17 +143,79 @@ export interface RunResult {
 
 const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
+/**
+ * Merged input columns kept between runs, keyed by the window and by what a column's values
+ * depend on (its signature, chunks.ts): after a dial move the unchanged inputs' columns are
+ * taken from here, so a pool's workers need not send them again and the page copies nothing.
+ */
+export class ColumnStore {
+  private readonly map = new Map<string, { col: Float64Array; used: number }>();
+  private generation = 0;
+  /** Start a run: columns unused in the last two runs are dropped. */
+  beginRun(): void {
+    this.generation++;
+    for (const [k, e] of this.map) if (e.used < this.generation - 2) this.map.delete(k);
+  }
+  private static key(window: number, signature: string): string {
+    return `${window}|${signature}`;
+  }
+  has(window: number, signature: string): boolean {
+    return this.map.has(ColumnStore.key(window, signature));
+  }
+  get(window: number, signature: string): Float64Array | undefined {
+    const e = this.map.get(ColumnStore.key(window, signature));
+    if (e) e.used = this.generation;
+    return e?.col;
+  }
+  set(window: number, signature: string, col: Float64Array): void {
+    this.map.set(ColumnStore.key(window, signature), { col, used: this.generation });
+  }
+}
+
 /** Caches a thread keeps between runs so a dial move redoes only what changed. */
 export interface MergeCaches {
   ranks?: RankStore;
+  columns?: ColumnStore;
+}
+
+/** Ids of the input and derived columns a store already holds for this run's window (a pool need not send them). */
+export function storedInputs(prep: PreparedRun, window: number, store: ColumnStore): string[] {
+  const ids = [...prep.plan.inputs.map((i) => i.id), ...prep.plan.derived.map((d) => d.id)];
+  return ids.filter((id) => prep.signatures[id] !== undefined && store.has(window, prep.signatures[id]));
+}
+
+/** What each step of a staged merge adds: the headline figures, then the charts, then the drivers. */
+export type ResultStage = 'headline' | 'charts' | 'drivers';
+
+/**
+ * A run's result in three steps, so the figure a viewer watches is shown first:
+ *  - headline(): moments, percentiles with their intervals (by selection, no sort), limits,
+ *    capability, the stack and cost figures; histograms, ECDFs, drivers and achieved
+ *    correlations are empty;
+ *  - charts(): adds histograms and ECDFs (one sort per output);
+ *  - drivers(): adds drivers, the contributors' rank correlations and achieved correlations:
+ *    the complete result, equal bit for bit to mergeParts.
+ * Each call returns a new object; call them in this order.
+ */
+export interface StagedMerge {
+  headline(): RunResult;
+  charts(): RunResult;
+  drivers(): RunResult;
 }
 
 /**
  * Merge the parts of every chunk of a run (in any order; they are merged in chunk order)
  * into the run's result. The parts must include the input columns of the window given by
- * inputWindow(prep, options.samples).
+ * inputWindow(prep, options.samples), except those the column store in `caches` holds.
  */
 export function mergeParts(prep: PreparedRun, parts: ChunkPart[], options: RunOptions = {}, caches: MergeCaches = {}): RunResult {
+  const staged = mergeStaged(prep, parts, options, caches);
+  staged.headline();
+  staged.charts();
+  return staged.drivers();
+}
+
+export function mergeStaged(prep: PreparedRun, parts: ChunkPart[], options: RunOptions = {}, caches: MergeCaches = {}): StagedMerge {
   const t0 = now();
   const n = prep.settings.trials;
   const byIndex: ChunkPart[] = new Array(prep.chunkCount);
@@ -175,10 +237,16 @@ export function mergeParts(prep: PreparedRun, parts: ChunkPart[], options: RunOp
     outCols.set(o.id, col);
     outMoments.set(o.id, m);
   }
-  // Input and derived columns over the window the statistics need.
+  // Input and derived columns over the window the statistics need: from the store when kept.
   const window = inputWindow(prep, options.samples);
   const inCols = new Map<string, Float64Array>();
   for (const id of [...prep.plan.inputs.map((i) => i.id), ...prep.plan.derived.map((d) => d.id)]) {
+    const sig = prep.signatures[id];
+    const kept = caches.columns && sig !== undefined ? caches.columns.get(window, sig) : undefined;
+    if (kept) {
+      inCols.set(id, kept);
+      continue;
+    }
     const col = new Float64Array(window);
     for (const p of ordered) {
       if (p.start >= window) break;
@@ -186,6 +254,7 @@ export function mergeParts(prep: PreparedRun, parts: ChunkPart[], options: RunOp
       if (!part) throw new Error(`Chunk ${p.index} did not return the column '${id}' the merge needs.`);
       col.set(part.subarray(0, Math.min(p.count, window - p.start)), p.start);
     }
+    if (caches.columns && sig !== undefined) caches.columns.set(window, sig, col);
     inCols.set(id, col);
   }
   const inMoments = new Map<string, Moments>();
@@ -204,15 +273,19 @@ export function mergeParts(prep: PreparedRun, parts: ChunkPart[], options: RunOp
     }
   }
   const mergeMs = now() - t0;
-  const t1 = now();
-  const result = summarize(prep, options, outCols, outMoments, inCols, inMoments, rejection, caches);
-  const t2 = now();
-  result.timing = { samplingMs: samplingMs + mergeMs, statisticsMs: t2 - t1, totalMs: samplingMs + (t2 - t0) };
-  return result;
+  const staged = summarizeStaged(prep, options, outCols, outMoments, inCols, inMoments, rejection, caches);
+  let statisticsMs = 0;
+  const timed = (step: () => RunResult) => () => {
+    const t = now();
+    const result = step();
+    statisticsMs += now() - t;
+    result.timing = { samplingMs: samplingMs + mergeMs, statisticsMs, totalMs: samplingMs + mergeMs + statisticsMs };
+    return result;
+  };
+  return { headline: timed(staged.headline), charts: timed(staged.charts), drivers: timed(staged.drivers) };
 }
 
-
-function summarize(
+function summarizeStaged(
   prep: PreparedRun,
   opts: RunOptions,
   outCols: Map<string, Float64Array>,
@@ -221,7 +294,7 @@ function summarize(
   inMoments: Map<string, Moments>,
   rejection: Map<string, { attempts: number; accepted: number }>,
   caches: MergeCaches,
-): RunResult {
+): StagedMerge {
   const model = prep.model;
   const plan = prep.plan;
   const warnings = [...prep.warnings];
@@ -231,10 +304,9 @@ function summarize(
   const rankCache = new RankCache(caches.ranks ?? null);
   for (const [id, col] of inCols) if (prep.signatures[id]) rankCache.name(col, prep.signatures[id]);
   const driverCols = plan.drivers.map((d) => ({ id: d.id, label: d.label, column: inCols.get(d.id) as Float64Array }));
-  const sortedById = new Map<string, Float64Array>();
-  const outputs = plan.outputs.map((o) => {
+  const stages = plan.outputs.map((o) => {
     const m = outMoments.get(o.id) as Moments;
-    const { summary, sorted } = summarizeOutput(o.id, o.label, o.unit, outCols.get(o.id) as Float64Array, {
+    return summarizeOutputStaged(o.id, o.label, o.unit, outCols.get(o.id) as Float64Array, {
       percentiles,
       histogramBins: opts.histogramBins ?? DEFAULT_HISTOGRAM_BINS,
       ecdfPoints: opts.ecdfPoints ?? DEFAULT_ECDF_POINTS,
@@ -245,8 +317,10 @@ function summarize(
       rankCache,
       moments: { n: m.n, mean: m.mean, variance: m.n > 1 ? m.m2 / (m.n - 1) : NaN },
     });
-    sortedById.set(o.id, sorted);
-    if (summary.invalid.total > 0) warnings.push(`Output '${o.label}': ${summary.invalid.total} of ${summary.trials} trials gave NaN or an infinite value and are excluded from its statistics.`);
+  });
+  let outputs = stages.map((st, i) => {
+    const summary = st.headline;
+    if (summary.invalid.total > 0) warnings.push(`Output '${plan.outputs[i].label}': ${summary.invalid.total} of ${summary.trials} trials gave NaN or an infinite value and are excluded from its statistics.`);
     return summary;
   });
 
@@ -281,25 +355,11 @@ function summarize(
     };
   });
 
-  const correlation = plan.groups.map((g) => {
-    const method = groupOf.get(g.ids[0]) === 'iman-conover' ? 'iman-conover' : 'copula';
-    return achievedCorrelation(
-      g.ids,
-      g.ids.map((id) => inCols.get(id) as Float64Array),
-      g.matrix,
-      method,
-      RANK_TRIAL_LIMIT,
-      rankCache,
-    );
-  });
-
-  let stack: StackResult | null = null;
-  let cost: CostResult | null = null;
-  if (model.template === 'linear-stack') {
+  const stackOf = (gap: OutputSummary): StackResult | null => {
+    if (model.template !== 'linear-stack') return null;
     const analytic = evaluateStack(model);
-    const gap = outputs[0];
     const byId = new Map<string, DriverItem>(gap.drivers.items.map((d) => [d.id, d]));
-    stack = {
+    return {
       analytic,
       monteCarlo: {
         mean: gap.mean,
@@ -321,12 +381,15 @@ function summarize(
         }))
         .sort((a, b) => b.analyticShare - a.analyticShare || (a.id < b.id ? -1 : 1)),
     };
-  }
+  };
+  let stack = stackOf(outputs[0]);
+  let cost: CostResult | null = null;
   if (model.template === 'cost-range') {
     const analytic = evaluateCost(model);
-    const total = outputs[0];
-    const sorted = sortedById.get('total') as Float64Array;
-    const [at, p10, p50, p80, p90] = percentileEstimates(sorted, [model.confidence, 0.1, 0.5, 0.8, 0.9]);
+    const i = plan.outputs.findIndex((o) => o.id === 'total');
+    const total = outputs[i];
+    const valid = stages[i].valid;
+    const [at, p10, p50, p80, p90] = percentileEstimatesBySelection(valid, [model.confidence, 0.1, 0.5, 0.8, 0.9]);
     cost = {
       analytic,
       confidence: model.confidence,
@@ -338,8 +401,8 @@ function summarize(
       p80: p80.value,
       p90: p90.value,
       exceedBudget: total.limits?.above ?? null,
-      sumMostLikelyRank: fractionAtOrBelow(sorted, analytic.sumMostLikely),
-      baseEstimateRank: fractionAtOrBelow(sorted, analytic.baseEstimate),
+      sumMostLikelyRank: fractionAtOrBelowOf(valid, analytic.sumMostLikely),
+      baseEstimateRank: fractionAtOrBelowOf(valid, analytic.baseEstimate),
     };
   }
 
@@ -354,7 +417,8 @@ function summarize(
     }
   }
 
-  return {
+  let correlation: AchievedCorrelation[] = [];
+  const result = (): RunResult => ({
     engine: ENGINE_VERSION,
     template: model.template,
     title: model.title,
@@ -376,7 +440,41 @@ function summarize(
     warnings,
     samples,
     timing: { samplingMs: 0, statisticsMs: 0, totalMs: 0 },
+  });
+
+  return {
+    headline: result,
+    charts() {
+      outputs = outputs.map((o, i) => stages[i].charts(o).summary);
+      stack = stack ? { ...stack, monteCarlo: { ...stack.monteCarlo } } : null;
+      return result();
+    },
+    drivers() {
+      outputs = outputs.map((o, i) => stages[i].drivers(o));
+      stack = stackOf(outputs[0]);
+      correlation = plan.groups.map((g) => {
+        const method = groupOf.get(g.ids[0]) === 'iman-conover' ? 'iman-conover' : 'copula';
+        return achievedCorrelation(
+          g.ids,
+          g.ids.map((id) => inCols.get(id) as Float64Array),
+          g.matrix,
+          method,
+          RANK_TRIAL_LIMIT,
+          rankCache,
+        );
+      });
+      return result();
+    },
   };
+}
+
+/** Fraction of the values <= v (what fractionAtOrBelow reads from the sorted values, by counting). */
+function fractionAtOrBelowOf(values: Float64Array, v: number): number {
+  const n = values.length;
+  if (n === 0) return NaN;
+  let c = 0;
+  for (let k = 0; k < n; k++) if (values[k] <= v) c++;
+  return c / n;
 }
 
 /** Let queued messages (cancel, a newer run) through between steps. */

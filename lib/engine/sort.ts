@@ -2,8 +2,11 @@
  * LSD radix sorting of Float64Array keys (IEEE-754 bits mapped to an unsigned order:
  * flip all bits of negatives, the sign bit of positives), six 11-bit passes, skipping any
  * pass whose digit is the same for every key. About twice as fast as the native
- * TypedArray sort for a million doubles. NaN must be removed by the caller.
+ * TypedArray sort for a million doubles. NaN must be removed by the caller. Smooth columns
+ * go to the bucket sort first (bucket-sort.ts: three passes, the same order), which declines
+ * skewed or discrete ones.
  */
+import { bucketAverageRanks, bucketSortedCopy } from './bucket-sort';
 
 const RADIX_BITS = 11;
 const BUCKETS = 1 << RADIX_BITS;
@@ -107,6 +110,8 @@ function prefix(c: Uint32Array, n: number): boolean {
 export function sortedCopy(values: Float64Array): Float64Array {
   const n = values.length;
   if (n < 2048) return Float64Array.from(values).sort();
+  const byBuckets = bucketSortedCopy(values);
+  if (byBuckets) return byBuckets;
   let src: Uint32Array = toKeys(values);
   let dst: Uint32Array = new Uint32Array(2 * n);
   const counts = histograms(src, n);
@@ -170,6 +175,10 @@ export function argsort(values: Float64Array): Uint32Array {
 /** Ranks 1..n with ties given their average rank. */
 export function averageRanks(values: Float64Array): Float64Array {
   const n = values.length;
+  if (n >= 2048) {
+    const byBuckets = bucketAverageRanks(values);
+    if (byBuckets) return byBuckets;
+  }
   const { order, keys } = argsortWithKeys(values);
   // Compare keys as int32: equal bits, and no unsigned values above 2^31 to box.
   const k32 = new Int32Array(keys.buffer, keys.byteOffset, keys.length);

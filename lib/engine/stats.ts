@@ -4,6 +4,7 @@
  */
 import { lgamma, normalSf } from './special';
 import { averageRanks, sortedCopy } from './sort';
+import { orderStatistics } from './select';
 import * as detMath from './det-math';
 
 // Bound once: module interop in some runtimes turns each imported call into a getter call.
@@ -71,15 +72,28 @@ export function meanVariance(values: Float64Array): { n: number; mean: number; v
 
 /** Hyndman-Fan type 6 percentile of ascending data, p in [0, 1]. */
 export function percentileSorted(sorted: Float64Array | number[], p: number): number {
-  const n = sorted.length;
+  return percentileAt(sorted.length, p, (i) => sorted[i]);
+}
+
+/** 0-based ranks of the sorted data a type 6 percentile of n values reads. */
+function percentileReads(n: number, p: number): number[] {
+  const h = p * (n + 1);
+  if (h <= 1) return [0];
+  if (h >= n) return [n - 1];
+  const j = Math.floor(h);
+  return h - j === 0 ? [j - 1] : [j - 1, j];
+}
+
+/** Type 6 percentile of n values given the value at each 0-based rank of their sorted order. */
+function percentileAt(n: number, p: number, at: (rank: number) => number): number {
   if (n === 0) return NaN;
   const h = p * (n + 1); // 1-based rank
-  if (h <= 1) return sorted[0];
-  if (h >= n) return sorted[n - 1];
+  if (h <= 1) return at(0);
+  if (h >= n) return at(n - 1);
   const j = Math.floor(h);
   const g = h - j;
-  const lo = sorted[j - 1];
-  const hi = sorted[j];
+  const lo = at(j - 1);
+  const hi = at(j);
   return g === 0 ? lo : lo + g * (hi - lo);
 }
 
@@ -158,15 +172,39 @@ export interface PercentileEstimate {
 }
 
 export function percentileEstimates(sorted: Float64Array, levels: number[]): PercentileEstimate[] {
-  const n = sorted.length;
-  return levels.map((p) => {
-    const r = orderStatisticRanks(n, p);
+  return estimatesFrom(sorted.length, levels, (i) => sorted[i]);
+}
+
+function estimatesFrom(n: number, levels: number[], at: (rank: number) => number, ranks = levels.map((p) => orderStatisticRanks(n, p))): PercentileEstimate[] {
+  return levels.map((p, i) => {
+    const r = ranks[i];
     return {
       p,
-      value: percentileSorted(sorted, p),
-      ci: r.low !== null && r.high !== null ? { low: sorted[r.low - 1], high: sorted[r.high - 1] } : null,
+      value: percentileAt(n, p, at),
+      ci: r.low !== null && r.high !== null ? { low: at(r.low - 1), high: at(r.high - 1) } : null,
     };
   });
+}
+
+/**
+ * percentileEstimates of `values` (any order, no NaN) without sorting them: the few order
+ * statistics the percentiles and their intervals read are found by selection (select.ts),
+ * and are exactly the sorted column's values at those ranks, so the estimates are too.
+ */
+export function percentileEstimatesBySelection(values: Float64Array, levels: number[]): PercentileEstimate[] {
+  const n = values.length;
+  if (n === 0) return estimatesFrom(0, levels, () => NaN);
+  const ranks = levels.map((p) => orderStatisticRanks(n, p));
+  const wanted: number[] = [];
+  levels.forEach((p, i) => {
+    wanted.push(...percentileReads(n, p));
+    const r = ranks[i];
+    if (r.low !== null && r.high !== null) wanted.push(r.low - 1, r.high - 1);
+  });
+  const found = orderStatistics(values, wanted);
+  const byRank = new Map<number, number>();
+  wanted.forEach((r, i) => byRank.set(r, found[i]));
+  return estimatesFrom(n, levels, (i) => byRank.get(i) as number, ranks);
 }
 
 export interface HistogramBin {
@@ -255,6 +293,59 @@ export function pearson(a: Float64Array, b: Float64Array): number {
     sbb += db * db;
   }
   return saa > 0 && sbb > 0 ? sab / Math.sqrt(saa * sbb) : NaN;
+}
+
+/** A column less its mean, and its sum of squared deviations (as pearson computes them). */
+export interface Centred {
+  dev: Float64Array;
+  ss: number;
+}
+
+const centredByColumn = new WeakMap<Float64Array, Centred>();
+
+/**
+ * The column centred once and kept with it (ranks of unchanged inputs live across runs), so
+ * Pearson's r of two columns is one dot product (pearsonCentred; the same formula as pearson,
+ * its cross-product summed in four interleaved parts, so it may differ in the last bits).
+ */
+export function centred(a: Float64Array): Centred {
+  let c = centredByColumn.get(a);
+  if (c) return c;
+  const n = a.length;
+  let m = 0;
+  for (let k = 0; k < n; k++) m += a[k];
+  m /= n;
+  const dev = new Float64Array(n);
+  let ss = 0;
+  for (let k = 0; k < n; k++) {
+    const d = a[k] - m;
+    dev[k] = d;
+    ss += d * d;
+  }
+  c = { dev, ss };
+  centredByColumn.set(a, c);
+  return c;
+}
+
+export function pearsonCentred(a: Centred, b: Centred): number {
+  const x = a.dev;
+  const y = b.dev;
+  const n = x.length;
+  // Four running sums (no chain of dependent additions), combined in a fixed order.
+  let s0 = 0;
+  let s1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  let k = 0;
+  for (; k + 3 < n; k += 4) {
+    s0 += x[k] * y[k];
+    s1 += x[k + 1] * y[k + 1];
+    s2 += x[k + 2] * y[k + 2];
+    s3 += x[k + 3] * y[k + 3];
+  }
+  for (; k < n; k++) s0 += x[k] * y[k];
+  const sab = s0 + s1 + (s2 + s3);
+  return a.ss > 0 && b.ss > 0 ? sab / Math.sqrt(a.ss * b.ss) : NaN;
 }
 
 /** Pearson correlation matrix of several columns (each standardised once). */

@@ -8,8 +8,9 @@ import {
   capability,
   ecdfPoints,
   histogram,
-  pearson,
-  percentileEstimates,
+  centred,
+  pearsonCentred,
+  percentileEstimatesBySelection,
   welford,
   wilsonInterval,
   type EcdfPoint,
@@ -134,7 +135,55 @@ export interface OutputSummaryWithSorted {
   sorted: Float64Array;
 }
 
+/** Everything summarizeOutput does, in the order a viewer needs it. */
+export interface OutputStages {
+  /** Moments, percentiles (by selection), limits and convergence; histogram, ECDF and drivers empty. */
+  headline: OutputSummary;
+  /** The finite values of the column (the column itself when all are finite). */
+  valid: Float64Array;
+  /** The headline with the histogram and ECDF (sorts the valid values). */
+  charts(from: OutputSummary): { summary: OutputSummary; sorted: Float64Array };
+  /** A summary with its drivers. */
+  drivers(from: OutputSummary): OutputSummary;
+}
+
+export const NO_DRIVERS_YET: DriverReport = { method: 'spearman', trials: 0, items: [] };
+
+/** Smallest and largest value as the ascending sort orders them (-0 before +0). */
+function extremes(values: Float64Array): { min: number; max: number } {
+  let min = Infinity;
+  let max = -Infinity;
+  for (let k = 0; k < values.length; k++) {
+    const x = values[k];
+    if (x < min) min = x;
+    if (x > max) max = x;
+  }
+  if (min === 0 || max === 0) {
+    let negZero = false;
+    let posZero = false;
+    for (let k = 0; k < values.length; k++) {
+      if (values[k] !== 0) continue;
+      if (Object.is(values[k], -0)) negZero = true;
+      else posZero = true;
+    }
+    if (min === 0) min = negZero ? -0 : 0;
+    if (max === 0) max = posZero ? 0 : -0;
+  }
+  return { min, max };
+}
+
 export function summarizeOutput(id: string, label: string, unit: string, column: Float64Array, opts: SummaryOptions): OutputSummaryWithSorted {
+  const stages = summarizeOutputStaged(id, label, unit, column, opts);
+  const { summary, sorted } = stages.charts(stages.headline);
+  return { summary: stages.drivers(summary), sorted };
+}
+
+/**
+ * The summary of one output in three steps: the headline figures need no sort (selection
+ * for the percentiles, counts for the limits); the charts sort the column once; drivers
+ * rank it. Each step gives the same numbers whatever ran before.
+ */
+export function summarizeOutputStaged(id: string, label: string, unit: string, column: Float64Array, opts: SummaryOptions): OutputStages {
   const n = column.length;
   let nan = 0;
   let pinf = 0;
@@ -158,11 +207,10 @@ export function summarizeOutput(id: string, label: string, unit: string, column:
   }
   const m = valid.length;
   const w = opts.moments && opts.moments.n === m ? opts.moments : welford(valid);
-  const sorted = sortedCopy(valid);
   const mean = m > 0 ? w.mean : null;
   const sd = m > 1 ? Math.sqrt(w.variance) : null;
   const sem = sd !== null ? sd / Math.sqrt(m) : null;
-  const percentiles = m > 0 ? percentileEstimates(sorted, opts.percentiles) : [];
+  const percentiles = m > 0 ? percentileEstimatesBySelection(valid, opts.percentiles) : [];
 
   // Limits: counts are exact comparisons on the valid trials.
   let limits: LimitReport | null = null;
@@ -190,8 +238,6 @@ export function summarizeOutput(id: string, label: string, unit: string, column:
       ppk: cap?.ppk ?? null,
     };
   }
-
-  const drivers = computeDrivers(column, opts.drivers, opts.rankCache);
 
   // Convergence verdict.
   const reasons: string[] = [];
@@ -241,27 +287,36 @@ export function summarizeOutput(id: string, label: string, unit: string, column:
   }
   const verdict = m === 0 ? 'No valid trials: every trial gave NaN or an infinite value.' : `${enough ? 'Enough trials' : 'Not enough trials'}: ${reasons[0] ?? 'the output is constant.'}`;
 
+  const ends = m > 0 ? extremes(valid) : null;
+  const headline: OutputSummary = {
+    id,
+    label,
+    unit,
+    trials: n,
+    valid: m,
+    invalid: { nan, positiveInfinity: pinf, negativeInfinity: ninf, total: invalidTotal },
+    mean,
+    sd,
+    sem,
+    min: ends ? ends.min : null,
+    max: ends ? ends.max : null,
+    percentiles,
+    histogram: [],
+    ecdf: [],
+    limits,
+    drivers: NO_DRIVERS_YET,
+    convergence: { sem, worstPercentileHalfWidth: worst, enough: m > 0 && enough, reasons, verdict },
+  };
   return {
-    summary: {
-      id,
-      label,
-      unit,
-      trials: n,
-      valid: m,
-      invalid: { nan, positiveInfinity: pinf, negativeInfinity: ninf, total: invalidTotal },
-      mean,
-      sd,
-      sem,
-      min: m > 0 ? sorted[0] : null,
-      max: m > 0 ? sorted[m - 1] : null,
-      percentiles,
-      histogram: histogram(sorted, opts.histogramBins),
-      ecdf: ecdfPoints(sorted, opts.ecdfPoints),
-      limits,
-      drivers,
-      convergence: { sem, worstPercentileHalfWidth: worst, enough: m > 0 && enough, reasons, verdict },
+    headline,
+    valid,
+    charts(from) {
+      const sorted = sortedCopy(valid);
+      return { summary: { ...from, histogram: histogram(sorted, opts.histogramBins), ecdf: ecdfPoints(sorted, opts.ecdfPoints) }, sorted };
     },
-    sorted,
+    drivers(from) {
+      return { ...from, drivers: computeDrivers(column, opts.drivers, opts.rankCache) };
+    },
   };
 }
 
@@ -284,9 +339,10 @@ export function computeDrivers(output: Float64Array, drivers: { id: string; labe
     for (let i = 0; i < m; i++) out[i] = col[keep[i]];
     return averageRanks(out);
   };
-  const yr = ranksOf(output);
+  // Centred ranks are kept with the ranks of unchanged inputs: each rho is one dot product.
+  const yr = centred(ranksOf(output));
   const rhos = drivers.map((d) => {
-    const r = pearson(ranksOf(d.column), yr);
+    const r = pearsonCentred(centred(ranksOf(d.column)), yr);
     return Number.isFinite(r) ? r : 0;
   });
   const total = rhos.reduce((s, r) => s + r * r, 0);

@@ -5,10 +5,15 @@
  * after a dial move), and the parts are merged here in chunk order, so the result is the
  * same bit for bit whatever W is. Starting a run cancels the previous one (its promise
  * rejects with RunCancelledError), which is what a moving dial needs.
+ *
+ * After a dial move, the merged input columns of unchanged inputs are kept here (ColumnStore),
+ * so the workers do not send them again; the merge then posts the headline figures, the
+ * charts and the drivers one after another (onStage), yielding in between so the page can
+ * show the number a viewer watches first.
  */
 import { prepareRunWith, type ChunkPart, type PreparedRun } from './chunks';
 import { ModelValidationError, RunCancelledError, SamplingError, type SamplingErrorCode } from './errors';
-import { inputWindow, mergeParts, type Progress, type RunResult, type SampleSelection } from './merge';
+import { ColumnStore, inputWindow, mergeStaged, storedInputs, yieldToEventLoop, type Progress, type ResultStage, type RunResult, type SampleSelection } from './merge';
 import type { ModelCheck } from './set-dials';
 import type { CheckedModel } from './checked-model';
 import { RankStore } from './stats';
@@ -21,6 +26,11 @@ export interface WorkerRunOptions {
   histogramBins?: number;
   ecdfPoints?: number;
   onProgress?: (p: Progress) => void;
+  /**
+   * The result as it is built on this thread: 'headline' (the figures, no charts or drivers
+   * yet), then 'charts' (no drivers yet); the promise then resolves with the complete result.
+   */
+  onStage?: (stage: Exclude<ResultStage, 'drivers'>, result: RunResult) => void;
   signal?: AbortSignal;
 }
 
@@ -60,8 +70,12 @@ export class EngineWorkerClient {
   private readonly createWorker: () => Worker;
   private nextId = 1;
   private active: ActiveRun | null = null;
+  /** The run whose result is being merged on this thread (between its steps), if any. */
+  private merging: number | null = null;
   /** Ranks of unchanged inputs, kept between runs (drivers and achieved correlations). */
   private readonly ranks = new RankStore();
+  /** Merged input windows of unchanged inputs, kept between runs: workers do not send them again. */
+  private readonly columns = new ColumnStore();
 
   private readonly check: ModelCheck;
   private readonly explain: ((model: CheckedModel, dialValues?: Record<string, number>) => Promise<unknown>) | null;
@@ -115,7 +129,7 @@ export class EngineWorkerClient {
         return;
       case 'done':
         a.waiting.delete(worker);
-        if (a.waiting.size === 0) this.finish(a);
+        if (a.waiting.size === 0) void this.finish(a);
         return;
       case 'error':
         this.fail(toError(msg.error));
@@ -126,16 +140,40 @@ export class EngineWorkerClient {
     }
   }
 
-  private finish(a: ActiveRun): void {
+  /**
+   * Merge on this thread in three steps, yielding between them so the page shows the
+   * headline figure before the charts and the charts before the drivers. A newer run or a
+   * cancel between the steps drops this one.
+   */
+  private async finish(a: ActiveRun): Promise<void> {
+    const live = () => this.merging === a.runId;
+    this.merging = a.runId;
     this.active = null;
     a.cleanup();
     try {
       a.options.onProgress?.({ runPhase: 'statistics', done: a.done, total: a.prep.settings.trials, elapsedMs: now() - a.started });
       this.ranks.beginRun();
-      const result = mergeParts(a.prep, a.parts, a.options, { ranks: this.ranks });
+      const staged = mergeStaged(a.prep, a.parts, a.options, { ranks: this.ranks, columns: this.columns });
+      const onStage = a.options.onStage;
+      // Every step runs (each adds to the result); only their posting is optional.
+      const headline = staged.headline();
+      if (onStage) {
+        onStage('headline', headline);
+        await yieldToEventLoop();
+        if (!live()) return a.reject(new RunCancelledError());
+      }
+      const charts = staged.charts();
+      if (onStage) {
+        onStage('charts', charts);
+        await yieldToEventLoop();
+        if (!live()) return a.reject(new RunCancelledError());
+      }
+      const result = staged.drivers();
+      this.merging = null;
       a.options.onProgress?.({ runPhase: 'done', done: a.done, total: a.prep.settings.trials, elapsedMs: now() - a.started });
       a.resolve(result);
     } catch (err) {
+      if (this.merging === a.runId) this.merging = null;
       a.reject(err);
     }
   }
@@ -175,15 +213,19 @@ export class EngineWorkerClient {
       this.active = { runId, prep, options, parts: [], done: 0, waiting, started: now(), resolve, reject, cleanup: () => signal?.removeEventListener('abort', onAbort) };
       options.onProgress?.({ runPhase: 'sampling', done: 0, total: prep.settings.trials, elapsedMs: 0 });
       const window = inputWindow(prep, options.samples);
+      // Columns this thread keeps from earlier runs are not sent again (common random numbers).
+      this.columns.beginRun();
+      const skipInputs = storedInputs(prep, window, this.columns);
       assigned.forEach((chunkIndices, i) => {
         if (!chunkIndices.length) return;
-        this.worker(i).postMessage({ type: 'chunks', runId, model, dialValues: options.dialValues, chunkIndices, inputWindow: window } satisfies WorkerRequest);
+        this.worker(i).postMessage({ type: 'chunks', runId, model, dialValues: options.dialValues, chunkIndices, inputWindow: window, skipInputs } satisfies WorkerRequest);
       });
     });
   }
 
   /** Cancel the run in progress, if any (its promise rejects with RunCancelledError). */
   cancel(): void {
+    this.merging = null;
     const a = this.active;
     if (!a) return;
     this.fail(new RunCancelledError());

@@ -41,7 +41,7 @@ export function serveChunks(check: ModelCheck): void {
           scope.postMessage({ type: 'cancelled', runId: req.runId });
           return;
         }
-        const part = runner.runOne(prep, k, { inputWindow: req.inputWindow });
+        const part = runner.runOne(prep, k, { inputWindow: req.inputWindow, skipInputs: req.skipInputs });
         scope.postMessage({ type: 'part', runId: req.runId, part }, partTransferList(part));
         // Let a cancel or a newer run in between chunks.
         await yieldToEventLoop();

@@ -17,6 +17,8 @@ export interface WorkerChunksRequest {
   chunkIndices: number[];
   /** Return input columns of the chunks starting before this trial. */
   inputWindow: number;
+  /** Except these (the page keeps them from an earlier run). */
+  skipInputs?: string[];
 }
 
 export interface WorkerCancelRequest {

@@ -10,7 +10,8 @@
  *  - R2: cost range, 40 beta-PERT items (90, 100, 130), items 1-20 pairwise 0.3 through the
  *    copula, 10 risk events (p 0.1, impact triangular 5, 10, 30), 200,000 trials;
  *  - R3: 20-contributor linear stack, 50,000 trials, one dial moved: the interactive path
- *    (a runner that keeps the unchanged contributors' columns and ranks), full report.
+ *    (a runner that keeps the unchanged contributors' columns, their merged windows and
+ *    ranks, as the page's pool does), full report.
  *
  * Times are reported as wall clock and as this process's CPU time (user + system): on a
  * shared machine the CPU time is the steadier figure. When python3 with NumPy is present,
@@ -23,7 +24,7 @@ import { ChunkRunner, EMPTY_MOMENTS, mergeMoments, type ChunkPart, type Moments 
 import { prepareRun } from '@/lib/engine/prepare-run';
 import { createMarginal, type DistributionSpec } from '@/lib/engine/distributions';
 import { createColumnSampler, type SamplerContext } from '@/lib/engine/samplers';
-import { mergeParts, runModelSync } from '@/lib/engine/simulate';
+import { ColumnStore, mergeParts, runModelSync } from '@/lib/engine/simulate';
 import { percentilesBySelection, RankStore } from '@/lib/engine/stats';
 import { createNodeEnginePool } from '@/tests/support/node-engine-pool';
 
@@ -254,14 +255,16 @@ const r3Model = {
 // The interactive path: the thread keeps its runner (input columns) and rank store between runs.
 const r3runner = new ChunkRunner({ cache: true });
 const r3ranks = new RankStore();
+const r3columns = new ColumnStore();
 let dial = 4.9;
 const r3run = time(() => {
   dial = dial >= 5.1 ? 4.9 : +(dial + 0.01).toFixed(2);
   const prep = prepareRun(r3Model, { part2: dial });
   r3runner.beginRun();
   r3ranks.beginRun();
+  r3columns.beginRun();
   const parts = r3runner.run(prep, Array.from({ length: prep.chunkCount }, (_, k) => k), { inputWindow: 25_000 });
-  return mergeParts(prep, parts, {}, { ranks: r3ranks });
+  return mergeParts(prep, parts, {}, { ranks: r3ranks, columns: r3columns });
 });
 // The same run from nothing (a fresh runner: every column sampled, every rank computed).
 const r3fresh = time(() => runModelSync(r3Model, { dialValues: { part2: 5.03 } }));

@@ -13,6 +13,7 @@ declare global {
     engineParity: {
       run(models: Record<string, unknown>, workers?: number): Promise<Record<string, Fingerprint>>;
       supersede(): Promise<{ first: string; second: string; progressEvents: number }>;
+      dialMoves(model: unknown, moves: Record<string, number>[], workers: number, samples: 'none' | 'all'): Promise<{ final: Fingerprint[]; stages: string[][]; headlines: string[] }>;
     };
   }
 }
@@ -39,6 +40,34 @@ window.engineParity = {
       out[name] = fingerprint(await poolOf(workers).run(checked(model), { samples: 'all' }));
     }
     return out;
+  },
+  /**
+   * Dial moves on one pool, as a viewer makes them: each run keeps the unchanged inputs'
+   * columns (workers and page) and posts its headline and charts steps before the result.
+   */
+  async dialMoves(model, moves, workers, samples) {
+    const pool = new EngineWorkerClient({ createWorker: () => new Worker('/worker.js'), check: validateModel, workers });
+    const final: Fingerprint[] = [];
+    const stages: string[][] = [];
+    const headlines: string[] = [];
+    for (const dialValues of moves) {
+      const seen: string[] = [];
+      let headline = '';
+      const r = await pool.run(model, {
+        dialValues,
+        samples,
+        onStage: (stage, partial) => {
+          seen.push(stage);
+          if (stage === 'headline') headline = JSON.stringify([partial.outputs.map((o) => [o.mean, o.sd, o.percentiles, o.limits, o.min, o.max]), partial.stack?.monteCarlo ?? null, partial.cost ? { ...partial.cost, analytic: null } : null]);
+        },
+      });
+      seen.push('done');
+      stages.push(seen);
+      headlines.push(headline === JSON.stringify([r.outputs.map((o) => [o.mean, o.sd, o.percentiles, o.limits, o.min, o.max]), r.stack?.monteCarlo ?? null, r.cost ? { ...r.cost, analytic: null } : null]) ? 'same' : headline);
+      final.push(fingerprint(r));
+    }
+    pool.terminate();
+    return { final, stages, headlines };
   },
   async supersede() {
     const big = JSON.parse(JSON.stringify(EXAMPLE_MODELS.formula));

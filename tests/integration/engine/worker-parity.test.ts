@@ -108,6 +108,31 @@ describe('engine worker pool in Chromium', () => {
     await page.close();
   });
 
+  it.each([
+    ['linear-stack', [{}, { spacer_length: 24.19 }, { spacer_length: 24.19, housing_k: 2.5 }, { spacer_length: 24.07 }, {}], 'all'],
+    ['cost-range', [{}, { lead_paint_p: 0.55 }, { lead_paint_p: 0.55, surface_rho: 0.7 }, { budget_dial: 650 }], 'none'],
+    ['formula', [{}, { flow_mean: 0.055 }, { flow_mean: 0.055, service_factor: 1.2 }], 'all'],
+  ] as const)('%s: dial moves on a pool that keeps unchanged columns give a fresh Node run bit for bit, headline step first', async (name, moves, samples) => {
+    const model = EXAMPLE_MODELS[name];
+    const page = await browser.newPage();
+    await page.goto(base);
+    await page.waitForFunction(() => 'engineParity' in window);
+    for (const workers of [1, 3]) {
+      const r = await page.evaluate(([m, mv, w, s]) => window.engineParity.dialMoves(m, mv, w, s), [model, [...moves] as Record<string, number>[], workers, samples] as const);
+      moves.forEach((dialValues, i) => {
+        const node = fingerprint(runModelSync(model, { dialValues, samples }));
+        expect(r.stages[i]).toEqual(['headline', 'charts', 'done']);
+        // The headline step's figures are the final result's, not a preview.
+        expect(r.headlines[i]).toBe('same');
+        expect(r.final[i].columns).toEqual(node.columns);
+        expect(r.final[i].samples).toBe(node.samples);
+        expect(JSON.parse(r.final[i].stats)).toEqual(JSON.parse(node.stats));
+        expect(r.final[i].stats).toBe(node.stats);
+      });
+    }
+    await page.close();
+  });
+
   it('a new run cancels the one in progress; progress is posted while it runs', async () => {
     const page = await browser.newPage();
     await page.goto(base);

@@ -206,3 +206,59 @@ describe('SimulationController', () => {
     expect(c.getSnapshot().status).toBe('idle');
   });
 });
+
+describe('SimulationController, posting order and quick single changes', () => {
+  it('runs a lone change at once, but debounces a burst', async () => {
+    const { c, client, tick } = setup(30);
+    c.setInputs({ m: 1 }, { d: 1 }, 'k1');
+    client.last.resolve(fakeResult('one'));
+    await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
+    tick(500);
+    c.setInputs({ m: 1 }, { d: 2 }, 'k2');
+    expect(client.calls).toHaveLength(2);
+    expect(c.getSnapshot().status).toBe('running');
+    tick(5);
+    c.setInputs({ m: 1 }, { d: 3 }, 'k3');
+    expect(client.calls).toHaveLength(2);
+    expect(c.getSnapshot().status).toBe('waiting');
+    vi.advanceTimersByTime(30);
+    expect(client.calls).toHaveLength(3);
+    expect(client.last.options.dialValues).toEqual({ d: 3 });
+  });
+
+  it('shows the headline step at once, the earlier charts meanwhile, and the full result last', async () => {
+    const { c, client, tick } = setup(30);
+    const out = (mean: number, bins: number) => ({ id: 'gap', mean, histogram: Array.from({ length: bins }, () => ({ x0: 0, x1: 1, count: 1 })), ecdf: [], drivers: { method: 'spearman', trials: bins, items: [] } });
+    const result = (mean: number, bins: number) => ({ template: 'formula', title: `m${mean}`, inputs: [], correlation: [], stack: null, outputs: [out(mean, bins)] }) as unknown as RunResult;
+    c.setInputs({ m: 1 }, { d: 1 }, 'k1');
+    client.last.resolve(result(1, 3));
+    await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
+    tick(100);
+    c.setInputs({ m: 1 }, { d: 2 }, 'k2');
+    client.last.options.onStage?.('headline', result(2, 0));
+    let s = c.getSnapshot();
+    expect(s.status).toBe('running');
+    expect(s.stale).toBe(false);
+    expect(s.pending).toBe('charts');
+    expect(s.result?.outputs[0].mean).toBe(2);
+    expect(s.result?.outputs[0].histogram).toHaveLength(3); // the previous run's, until the charts step
+    // The charts step is shown only when the complete result does not follow within a frame.
+    client.last.options.onStage?.('charts', result(2, 5));
+    expect(c.getSnapshot().pending).toBe('charts');
+    vi.advanceTimersByTime(16);
+    expect(c.getSnapshot().pending).toBe('drivers');
+    expect(c.getSnapshot().result?.outputs[0].histogram).toHaveLength(5);
+    client.last.resolve(result(2, 5));
+    await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
+    s = c.getSnapshot();
+    expect(s.pending).toBeNull();
+    expect(s.result?.title).toBe('m2');
+    // A stopped run leaves its headline step flagged stale, and its inputs can be run again.
+    tick(100);
+    c.setInputs({ m: 1 }, { d: 3 }, 'k3');
+    client.last.options.onStage?.('headline', result(3, 0));
+    c.cancel();
+    expect(c.getSnapshot().stale).toBe(true);
+    expect(c.getSnapshot().pending).toBeNull();
+  });
+});
