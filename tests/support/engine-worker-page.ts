@@ -53,7 +53,7 @@ window.engineParity = {
     for (const dialValues of moves) {
       const seen: string[] = [];
       let headline = '';
-      const r = await pool.run(model, {
+      const r = await pool.run(checked(model), {
         dialValues,
         samples,
         onStage: (stage, partial) => {

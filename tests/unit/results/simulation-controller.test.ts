@@ -210,15 +210,15 @@ describe('SimulationController', () => {
 describe('SimulationController, posting order and quick single changes', () => {
   it('runs a lone change at once, but debounces a burst', async () => {
     const { c, client, tick } = setup(30);
-    c.setInputs({ m: 1 }, { d: 1 }, 'k1');
+    c.setInputs(token(1), { d: 1 }, 'k1');
     client.last.resolve(fakeResult('one'));
     await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
     tick(500);
-    c.setInputs({ m: 1 }, { d: 2 }, 'k2');
+    c.setInputs(token(1), { d: 2 }, 'k2');
     expect(client.calls).toHaveLength(2);
     expect(c.getSnapshot().status).toBe('running');
     tick(5);
-    c.setInputs({ m: 1 }, { d: 3 }, 'k3');
+    c.setInputs(token(1), { d: 3 }, 'k3');
     expect(client.calls).toHaveLength(2);
     expect(c.getSnapshot().status).toBe('waiting');
     vi.advanceTimersByTime(30);
@@ -230,11 +230,11 @@ describe('SimulationController, posting order and quick single changes', () => {
     const { c, client, tick } = setup(30);
     const out = (mean: number, bins: number) => ({ id: 'gap', mean, histogram: Array.from({ length: bins }, () => ({ x0: 0, x1: 1, count: 1 })), ecdf: [], drivers: { method: 'spearman', trials: bins, items: [] } });
     const result = (mean: number, bins: number) => ({ template: 'formula', title: `m${mean}`, inputs: [], correlation: [], stack: null, outputs: [out(mean, bins)] }) as unknown as RunResult;
-    c.setInputs({ m: 1 }, { d: 1 }, 'k1');
+    c.setInputs(token(1), { d: 1 }, 'k1');
     client.last.resolve(result(1, 3));
     await vi.waitFor(() => expect(c.getSnapshot().status).toBe('done'));
     tick(100);
-    c.setInputs({ m: 1 }, { d: 2 }, 'k2');
+    c.setInputs(token(1), { d: 2 }, 'k2');
     client.last.options.onStage?.('headline', result(2, 0));
     let s = c.getSnapshot();
     expect(s.status).toBe('running');
@@ -255,7 +255,7 @@ describe('SimulationController, posting order and quick single changes', () => {
     expect(s.result?.title).toBe('m2');
     // A stopped run leaves its headline step flagged stale, and its inputs can be run again.
     tick(100);
-    c.setInputs({ m: 1 }, { d: 3 }, 'k3');
+    c.setInputs(token(1), { d: 3 }, 'k3');
     client.last.options.onStage?.('headline', result(3, 0));
     c.cancel();
     expect(c.getSnapshot().stale).toBe(true);
