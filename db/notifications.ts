@@ -4,6 +4,7 @@ import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';
 import { claimNext, leaseOps, transition } from '@/db/job-lease';
 import type { Role } from '@/db/users';
+import type { NotificationPrefs, WaitingVersion } from '@/lib/api-types';
 import { NOTIFICATION_KINDS, type NotificationKind } from '@/lib/notifications/kinds';
 
 // Notification mails (migrations/20261203800100_notifications.ts) and each person's choices of which to receive.
@@ -137,7 +138,7 @@ export async function listMailJobs(firmId: string, limit = 200): Promise<MailJob
   return rows.map(toJob);
 }
 
-export async function getNotificationPrefs(userId: string): Promise<Record<NotificationKind, boolean>> {
+export async function getNotificationPrefs(userId: string): Promise<NotificationPrefs> {
   const rows = await getDb()('notification_prefs').where({ user_id: userId }).select('kind', 'enabled');
   const out = Object.fromEntries(NOTIFICATION_KINDS.map((k) => [k, true])) as Record<NotificationKind, boolean>;
   for (const r of rows) if ((NOTIFICATION_KINDS as readonly string[]).includes(r.kind)) out[r.kind as NotificationKind] = Boolean(r.enabled);
@@ -153,7 +154,7 @@ export async function setNotificationPrefs(userId: string, prefs: Partial<Record
 }
 
 /** Unchecked versions of live (not archived) models in the firm that `userId` did not write: what waits for them. */
-export async function listVersionsAwaitingCheck(firmId: string, userId: string): Promise<{ modelId: string; modelTitle: string; number: number; authorName: string | null; note: string | null; createdAt: string }[]> {
+export async function listVersionsAwaitingCheck(firmId: string, userId: string): Promise<WaitingVersion[]> {
   const rows = await getDb()('model_versions as v')
     .join('models as m', 'm.id', 'v.model_id')
     .leftJoin('users as u', 'u.id', 'v.author_id')

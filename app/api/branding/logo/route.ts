@@ -6,6 +6,7 @@ import { writeTransaction } from '@/db/knex';
 import { recordAudit } from '@/db/audit';
 import { processLogo, MAX_LOGO_BYTES } from '@/lib/datasets/logo';
 import { logoResponse } from '@/lib/datasets/logo-http';
+import type { LogoSaved } from '@/lib/api-types';
 
 const fail = (message: string) => new AppError('validation_failed', message, { fields: { file: [message] } });
 
@@ -29,7 +30,7 @@ export const PUT = route(async (req) => {
     await putLogo(m.firmId, m.userId, r, trx);
     await recordAudit({ firmId: m.firmId, actorUserId: m.userId, action: 'branding.logo_changed', targetType: 'firm', targetId: m.firmId, detail: { hash: r.hash, width: r.width, height: r.height, from: r.source } }, trx);
   });
-  return json({ hash: r.hash, width: r.width, height: r.height, contentType: r.contentType, url: `/api/branding/logo/${m.firmId}` });
+  return json<LogoSaved>({ hash: r.hash, width: r.width, height: r.height, contentType: r.contentType, url: `/api/branding/logo/${m.firmId}` });
 });
 
 export const DELETE = route(async () => {
