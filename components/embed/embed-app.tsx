@@ -5,7 +5,8 @@ import { WidgetView } from '@/components/widget/widget-view';
 import { createEmbedEngine } from '@/lib/engine/embed-engine';
 import type { EmbedWidgetPayload } from '@/lib/embed/payload';
 import { viewerMessage } from '@/lib/embed/messages';
-import { createEmbedClient, EmbedAccessError, type EmbedClient } from './embed-client';
+import { ApiError } from '@/lib/client/request';
+import { createEmbedClient, refusalOf, type EmbedClient } from './embed-client';
 import { EmbedNotice } from './embed-notice';
 import { SnapshotRequestForm } from '@/components/snapshots/snapshot-request-form';
 
@@ -65,7 +66,10 @@ export function EmbedApp({ passId, origin, firmName }: { passId: string; origin:
     const wait = receivePass(passId, origin);
     wait.promise
       .then(async (pass) => {
-        if (!pass) throw new EmbedAccessError(401, `${viewerMessage('missing', null).title}. ${viewerMessage('missing', null).body}`);
+        if (!pass) {
+          const m = viewerMessage('missing', null);
+          throw new ApiError(401, 'unauthorized', `${m.title}. ${m.body}`, { title: m.title });
+        }
         const c = createEmbedClient({ passId, pass, origin });
         const payload = await c.loadWidget();
         if (!live) return;
@@ -74,8 +78,8 @@ export function EmbedApp({ passId, origin, firmName }: { passId: string; origin:
       })
       .catch((err: unknown) => {
         if (!live) return;
-        const e = err instanceof EmbedAccessError ? err : new EmbedAccessError(0, 'This widget cannot be shown. Check the connection and reload the page.');
-        setState({ phase: 'refused', title: e.title, body: e.body });
+        const r = refusalOf(err);
+        setState({ phase: 'refused', title: r.title, body: r.body });
       });
     const timers = pending.current;
     return () => {
@@ -99,7 +103,8 @@ export function EmbedApp({ passId, origin, firmName }: { passId: string; origin:
         timers.delete(dialId);
         client?.reportDial(dialId, value).catch((err: unknown) => {
           // A pass revoked while the viewer works: the next call says so, and the widget gives way to the notice.
-          if (err instanceof EmbedAccessError && (err.status === 401 || err.status === 403)) setState({ phase: 'refused', title: err.title, body: err.body });
+          const r = refusalOf(err);
+          if (r.status === 401 || r.status === 403) setState({ phase: 'refused', title: r.title, body: r.body });
         });
       }, DIAL_SETTLE_MS),
     );

@@ -2,13 +2,14 @@
 
 import { useContext, useId, useState, type FormEvent } from 'react';
 import { PinnedViewContext } from '@/components/widget/pin-context';
+import { ApiError } from '@/lib/client/request';
 
 // "E-mail this view" inside the embed: an address, a send button, and the server's answer in plain words
 // (domain refusals, limits with their retry time). `send` posts with the embed page's bearer token.
 
 export interface SnapshotRequestFormProps {
-  /** Posts { email, dialValues, pinnedDialValues?, version } to /api/embed/passes/[id]/snapshots with the bearer; resolves to the Response. */
-  send: (body: { email: string; dialValues: Record<string, number>; pinnedDialValues?: Record<string, number>; version?: number }) => Promise<Response>;
+  /** Posts { email, dialValues, pinnedDialValues?, version } to /api/embed/passes/[id]/snapshots with the bearer; throws the refusal as an ApiError. */
+  send: (body: { email: string; dialValues: Record<string, number>; pinnedDialValues?: Record<string, number>; version?: number }) => Promise<{ message?: string } | undefined>;
   dialValues: Record<string, number>;
   version?: number;
 }
@@ -27,12 +28,14 @@ export function SnapshotRequestForm({ send, dialValues, version }: SnapshotReque
     e.preventDefault();
     setPhase({ kind: 'sending' });
     try {
-      const res = await send({ email, dialValues, version, ...(pinned ? { pinnedDialValues: pinned } : {}) });
-      const body = (await res.json().catch(() => ({}))) as { message?: string; error?: { message?: string; fields?: Record<string, string[]> } };
-      if (res.status === 202) setPhase({ kind: 'sent', message: body.message ?? `On its way to ${email}.` });
-      else setPhase({ kind: 'error', message: body.error?.fields?.email?.[0] && res.status === 422 ? body.error.fields.email[0] : (body.error?.message ?? 'The request could not be sent. Try again.') });
-    } catch {
-      setPhase({ kind: 'error', message: 'The request could not be sent. Check the connection and try again.' });
+      const accepted = await send({ email, dialValues, version, ...(pinned ? { pinnedDialValues: pinned } : {}) });
+      setPhase({ kind: 'sent', message: accepted?.message ?? `On its way to ${email}.` });
+    } catch (err) {
+      // A refusal says what was wrong with the request (the address, first); a failed connection, an ended session or a
+      // server fault gets the same plain sentence.
+      const refused = err instanceof ApiError && err.status >= 400 && err.status < 500 && err.status !== 401;
+      const email422 = refused && err.status === 422 ? err.fields?.email?.[0] : undefined;
+      setPhase({ kind: 'error', message: refused ? (email422 ?? err.message) : 'The request could not be sent. Check the connection and try again.' });
     }
   }
 
