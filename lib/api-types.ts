@@ -209,3 +209,31 @@ export interface LogoSaved {
   contentType: string;
   url: string;
 }
+
+// ── Development mailbox (the local SMTP fake, GET /api/dev/mailbox) ────────────────────────────────────────────
+
+export interface MailboxAttachment {
+  index: number;
+  filename: string | null;
+  contentType: string;
+  size: number;
+  contentId: string | null;
+}
+
+/** One message the local SMTP fake stored; the mailbox lists them as `{ messages }`, newest first. */
+export interface MailboxMessage {
+  id: string;
+  receivedAt: string;
+  date: string | null;
+  messageId: string | null;
+  from: string | null;
+  fromName: string | null;
+  to: string[];
+  cc: string[];
+  envelopeTo: string[];
+  subject: string;
+  text: string;
+  html: string | null;
+  attachments: MailboxAttachment[];
+  size: number;
+}
