@@ -4,7 +4,6 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import { WidgetView } from '@/components/widget/widget-view';
 import { createEmbedEngine } from '@/lib/engine/embed-engine';
 import type { EmbedWidgetPayload } from '@/lib/embed/payload';
-import { viewerMessage } from '@/lib/embed/messages';
 import { ApiError } from '@/lib/client/request';
 import { createEmbedClient, refusalOf, type EmbedClient } from './embed-client';
 import { EmbedNotice } from './embed-notice';
@@ -54,8 +53,10 @@ function receivePass(passId: string, origin: string | null): { promise: Promise<
   return { promise, cancel: () => cleanup() };
 }
 
-export function EmbedApp({ passId, origin, firmName }: { passId: string; origin: string | null; firmName: string | null }) {
+/** `noPass`: what to show when no pass arrives (worded on the server, so the viewer messages stay out of this bundle). */
+export function EmbedApp({ passId, origin, firmName, noPass }: { passId: string; origin: string | null; firmName: string | null; noPass: { title: string; body: string } }) {
   const [state, setState] = useState<State>({ phase: 'loading' });
+  const { title: noPassTitle, body: noPassBody } = noPass;
   const [client, setClient] = useState<EmbedClient | null>(null);
   const pending = useRef(new Map<string, ReturnType<typeof setTimeout>>());
   // The view the viewer sees, for "E-mail this view"; empty means the author's values.
@@ -66,10 +67,7 @@ export function EmbedApp({ passId, origin, firmName }: { passId: string; origin:
     const wait = receivePass(passId, origin);
     wait.promise
       .then(async (pass) => {
-        if (!pass) {
-          const m = viewerMessage('missing', null);
-          throw new ApiError(401, 'unauthorized', `${m.title}. ${m.body}`, { title: m.title });
-        }
+        if (!pass) throw new ApiError(401, 'unauthorized', `${noPassTitle}. ${noPassBody}`, { title: noPassTitle });
         const c = createEmbedClient({ passId, pass, origin });
         const payload = await c.loadWidget();
         if (!live) return;
@@ -87,7 +85,7 @@ export function EmbedApp({ passId, origin, firmName }: { passId: string; origin:
       wait.cancel();
       for (const t of timers.values()) clearTimeout(t);
     };
-  }, [passId, origin]);
+  }, [passId, origin, noPassTitle, noPassBody]);
 
   const onDialChange = useCallback((values: Record<string, number>, dialId: string | null) => {
     setDialValues(values);
