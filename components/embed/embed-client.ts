@@ -20,16 +20,17 @@ export function refusalOf(err: unknown): { status: number; title: string; body: 
   return { status: 0, title: CANNOT_SHOW, body: 'Check the connection and reload the page.' };
 }
 
-/** "E-mail this view": accepted (202) with the sentence to show. */
-export interface SnapshotAccepted {
-  message?: string;
+/** "E-mail this view" in words: accepted (202) with the server's sentence, or what was wrong (null: say to try again). */
+export interface SnapshotAnswer {
+  ok: boolean;
+  message: string | null;
 }
 
 export interface EmbedClient {
   loadWidget(): Promise<EmbedWidgetPayload>;
   reportDial(dialId: string, value: number): Promise<void>;
-  /** Throws the refusal as an ApiError (its field messages name the address when that is what was wrong). */
-  sendSnapshot(body: { email: string; dialValues: Record<string, number>; pinnedDialValues?: Record<string, number>; version?: number }): Promise<SnapshotAccepted>;
+  /** Never throws: a refusal says what was wrong (the address, first); a lost connection, an ended session or a server fault gives null. */
+  sendSnapshot(body: { email: string; dialValues: Record<string, number>; pinnedDialValues?: Record<string, number>; version?: number }): Promise<SnapshotAnswer>;
 }
 
 const base: RequestOptions = { credentials: 'omit', cache: 'no-store', fallback: embedFallback };
@@ -63,6 +64,13 @@ export function createEmbedClient(o: { passId: string; pass: string; origin: str
     reportDial: async (dialId, value) => {
       await call<void>('POST', `${passPath}/events`, { kind: 'dial', dialId, value });
     },
-    sendSnapshot: (body) => call<SnapshotAccepted>('POST', `${passPath}/snapshots`, body),
+    sendSnapshot: (body) =>
+      call<{ message?: string } | undefined>('POST', `${passPath}/snapshots`, body).then(
+        (a) => ({ ok: true, message: a?.message ?? null }),
+        (err: unknown) => {
+          const refused = err instanceof ApiError && err.status >= 400 && err.status < 500 && err.status !== 401;
+          return { ok: false, message: refused ? ((err.status === 422 && err.fields?.email?.[0]) || err.message) : null };
+        },
+      ),
   };
 }

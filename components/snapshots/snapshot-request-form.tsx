@@ -2,14 +2,13 @@
 
 import { useContext, useId, useState, type FormEvent } from 'react';
 import { PinnedViewContext } from '@/components/widget/pin-context';
-import { ApiError } from '@/lib/client/request';
 
 // "E-mail this view" inside the embed: an address, a send button, and the server's answer in plain words
 // (domain refusals, limits with their retry time). `send` posts with the embed page's bearer token.
 
 export interface SnapshotRequestFormProps {
-  /** Posts { email, dialValues, pinnedDialValues?, version } to /api/embed/passes/[id]/snapshots with the bearer; throws the refusal as an ApiError. */
-  send: (body: { email: string; dialValues: Record<string, number>; pinnedDialValues?: Record<string, number>; version?: number }) => Promise<{ message?: string } | undefined>;
+  /** Posts { email, dialValues, pinnedDialValues?, version } to /api/embed/passes/[id]/snapshots with the bearer; resolves to the answer in words. */
+  send: (body: { email: string; dialValues: Record<string, number>; pinnedDialValues?: Record<string, number>; version?: number }) => Promise<{ ok: boolean; message: string | null }>;
   dialValues: Record<string, number>;
   version?: number;
 }
@@ -27,16 +26,9 @@ export function SnapshotRequestForm({ send, dialValues, version }: SnapshotReque
   async function submit(e: FormEvent) {
     e.preventDefault();
     setPhase({ kind: 'sending' });
-    try {
-      const accepted = await send({ email, dialValues, version, ...(pinned ? { pinnedDialValues: pinned } : {}) });
-      setPhase({ kind: 'sent', message: accepted?.message ?? `On its way to ${email}.` });
-    } catch (err) {
-      // A refusal says what was wrong with the request (the address, first); a failed connection, an ended session or a
-      // server fault gets the same plain sentence.
-      const refused = err instanceof ApiError && err.status >= 400 && err.status < 500 && err.status !== 401;
-      const email422 = refused && err.status === 422 ? err.fields?.email?.[0] : undefined;
-      setPhase({ kind: 'error', message: refused ? (email422 ?? err.message) : 'The request could not be sent. Check the connection and try again.' });
-    }
+    const answer = await send({ email, dialValues, version, ...(pinned ? { pinnedDialValues: pinned } : {}) });
+    if (answer.ok) setPhase({ kind: 'sent', message: answer.message ?? `On its way to ${email}.` });
+    else setPhase({ kind: 'error', message: answer.message ?? 'The request could not be sent. Check the connection and try again.' });
   }
 
   if (!open)

@@ -1,6 +1,5 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { createEmbedClient, refusalOf } from '@/components/embed/embed-client';
-import { ApiError } from '@/lib/client/request';
 import { toErrorResponse } from '@/lib/http/handler';
 import { AppError, titled } from '@/lib/http/errors';
 
@@ -65,12 +64,21 @@ describe('embed client', () => {
     expect(refusalOf(await client().loadWidget().catch((e: unknown) => e))).toEqual({ status: 0, title: 'This widget cannot be shown', body: 'Check the connection and reload the page.' });
   });
 
-  it('"E-mail this view": 202 resolves with the sentence; a refused address comes back as a field message', async () => {
-    answer(session('t1'), ok({ message: 'On its way to a@portal.example.' }, 202), toErrorResponse(new AppError('validation_failed', 'Some fields need attention.', { fields: { email: ['Snapshots go only to addresses at portal.example.'] } })));
+  it('"E-mail this view": 202 gives the sentence; a refused address its field message; a limit its message; a fault nothing', async () => {
+    answer(
+      session('t1'),
+      ok({ message: 'On its way to a@portal.example.' }, 202),
+      toErrorResponse(new AppError('validation_failed', 'Some fields need attention.', { fields: { email: ['Snapshots go only to addresses at portal.example.'] } })),
+      toErrorResponse(new AppError('rate_limited', 'Three snapshots an hour from one viewer; try again in 20 minutes.', { retryAfter: 1200 })),
+      new Response('<html>Bad gateway</html>', { status: 502 }),
+      new TypeError('Failed to fetch'),
+    );
     const c = client();
-    expect(await c.sendSnapshot({ email: 'a@portal.example', dialValues: {} })).toEqual({ message: 'On its way to a@portal.example.' });
-    const err = await c.sendSnapshot({ email: 'a@elsewhere.example', dialValues: {} }).catch((e: unknown) => e);
-    expect(err).toBeInstanceOf(ApiError);
-    expect((err as ApiError).fields?.email).toEqual(['Snapshots go only to addresses at portal.example.']);
+    const body = { email: 'a@portal.example', dialValues: {} };
+    expect(await c.sendSnapshot(body)).toEqual({ ok: true, message: 'On its way to a@portal.example.' });
+    expect(await c.sendSnapshot(body)).toEqual({ ok: false, message: 'Snapshots go only to addresses at portal.example.' });
+    expect(await c.sendSnapshot(body)).toEqual({ ok: false, message: 'Three snapshots an hour from one viewer; try again in 20 minutes.' });
+    expect(await c.sendSnapshot(body)).toEqual({ ok: false, message: null });
+    expect(await c.sendSnapshot(body)).toEqual({ ok: false, message: null });
   });
 });
