@@ -1,17 +1,10 @@
 import 'server-only';
+import type { ApiKey } from '@/lib/api-types';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, newSecret, nowIso, sha256 } from '@/db/ids';
 
-export interface ApiKeyRow {
-  id: string;
-  name: string;
-  prefix: string;
-  createdAt: string;
-  createdByName: string | null;
-  lastUsedAt: string | null;
-  revokedAt: string | null;
-}
+export type ApiKeyRow = ApiKey;
 
 export async function listApiKeys(firmId: string): Promise<ApiKeyRow[]> {
   const rows = await getDb()('api_keys as k')

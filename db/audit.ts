@@ -1,4 +1,5 @@
 import 'server-only';
+import type { AuditEntry } from '@/lib/api-types';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { nowIso } from '@/db/ids';
@@ -24,16 +25,7 @@ export async function recordAudit(entry: AuditInput, trx?: Knex.Transaction): Pr
   });
 }
 
-export interface AuditRow {
-  id: number;
-  at: string;
-  action: string;
-  targetType: string | null;
-  targetId: string | null;
-  detail: Record<string, unknown> | null;
-  actorName: string | null;
-  actorEmail: string | null;
-}
+export type AuditRow = AuditEntry;
 
 export async function listAudit(firmId: string, opts: { limit: number; beforeId?: number }): Promise<AuditRow[]> {
   const q = getDb()('audit_log as a')

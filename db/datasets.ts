@@ -1,4 +1,5 @@
 import 'server-only';
+import type { DatasetRecord, DatasetRow } from '@/lib/api-types';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';
@@ -8,25 +9,7 @@ import { newId, nowIso } from '@/db/ids';
 type Db = Knex | Knex.Transaction;
 const db = (trx?: Knex.Transaction): Db => trx ?? getDb();
 
-export interface DatasetRow {
-  id: string;
-  name: string;
-  unit: string;
-  columnName: string;
-  fileName: string;
-  hash: string;
-  sizeBytes: number;
-  rowCount: number;
-  droppedRows: number[];
-  uploadedBy: string | null;
-  uploadedByName: string | null;
-  createdAt: string;
-  useCount: number;
-}
-
-export interface DatasetRecord extends DatasetRow {
-  values: number[];
-}
+export type { DatasetRow, DatasetRecord };
 
 const COLUMNS = [
   'd.id',

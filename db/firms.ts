@@ -1,15 +1,16 @@
 import 'server-only';
+import type { PaperSize, Units } from '@/lib/api-types';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 
 export interface Firm {
   id: string;
   name: string;
-  unitsDefault: string;
+  unitsDefault: Units;
   currencyDefault: string;
   brandColor: string;
   requireCheck: boolean;
-  paperSize: 'A4' | 'Letter';
+  paperSize: PaperSize;
   createdAt: string;
 }
 
@@ -19,11 +20,11 @@ function toFirm(r: Record<string, unknown>): Firm {
   return {
     id: r.id as string,
     name: r.name as string,
-    unitsDefault: r.units_default as string,
+    unitsDefault: r.units_default as Units,
     currencyDefault: r.currency_default as string,
     brandColor: r.brand_color as string,
     requireCheck: Boolean(r.require_check),
-    paperSize: r.paper_size as 'A4' | 'Letter',
+    paperSize: r.paper_size as PaperSize,
     createdAt: r.created_at as string,
   };
 }

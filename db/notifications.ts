@@ -4,6 +4,7 @@ import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';
 import { claimNext, leaseOps, transition } from '@/db/job-lease';
 import type { Role } from '@/db/users';
+import type { NotificationPrefs, WaitingVersion } from '@/lib/api-types';
 import type { NotificationKind } from '@/lib/notifications/kinds';
 
 // Notification mails (migrations/20261203800100_notifications.ts) and each person's choices of which to receive.
@@ -152,7 +153,7 @@ export async function setNotificationPrefs(userId: string, prefs: Partial<Record
 }
 
 /** Unchecked versions of live (not archived) models in the firm that `userId` did not write: what waits for them. */
-export async function listVersionsAwaitingCheck(firmId: string, userId: string): Promise<{ modelId: string; modelTitle: string; number: number; authorName: string | null; note: string | null; createdAt: string }[]> {
+export async function listVersionsAwaitingCheck(firmId: string, userId: string): Promise<WaitingVersion[]> {
   const rows = await getDb()('model_versions as v')
     .join('models as m', 'm.id', 'v.model_id')
     .leftJoin('users as u', 'u.id', 'v.author_id')

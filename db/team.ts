@@ -3,17 +3,9 @@ import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, nowIso, sha256 } from '@/db/ids';
 import type { Role } from '@/db/users';
+import type { Invitation, TeamMember } from '@/lib/api-types';
 
-export interface MemberRow {
-  id: string;
-  userId: string;
-  name: string;
-  email: string;
-  role: Role;
-  status: 'active' | 'removed';
-  lastActiveAt: string | null;
-  joinedAt: string;
-}
+export type MemberRow = TeamMember;
 
 export async function listMembers(firmId: string): Promise<MemberRow[]> {
   const rows = await getDb()('memberships as m')
@@ -73,14 +65,7 @@ export async function insertMembership(firmId: string, userId: string, role: Rol
   return id;
 }
 
-export interface InvitationRow {
-  id: string;
-  email: string;
-  role: Role;
-  expiresAt: string;
-  createdAt: string;
-  invitedByName: string | null;
-}
+export type InvitationRow = Invitation;
 
 export async function listPendingInvitations(firmId: string): Promise<InvitationRow[]> {
   const rows = await getDb()('invitations as i')

@@ -3,7 +3,9 @@ import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';
 
-export type Role = 'owner' | 'author' | 'checker';
+import type { Role } from '@/lib/api-types';
+
+export type { Role };
 export const ROLES: readonly Role[] = ['owner', 'author', 'checker'];
 
 export interface SessionMember {

@@ -2,16 +2,9 @@
 
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
+import type { ApiKey } from '@/lib/api-types';
 
-export interface ApiKey {
-  id: string;
-  name: string;
-  prefix: string;
-  createdAt: string;
-  createdByName: string | null;
-  lastUsedAt: string | null;
-  revokedAt: string | null;
-}
+export type { ApiKey } from '@/lib/api-types';
 
 /** The firm's API keys for the simulate API (owner only). */
 export function useApiKeys() {

@@ -3,13 +3,14 @@
 import Link from 'next/link';
 import { useState } from 'react';
 import { useRouter } from 'next/navigation';
-import useSWR from 'swr';
 import { signIn } from 'next-auth/react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { PASSWORD_RULE, nameField, passwordField } from '@/lib/auth/schemas';
-import { ApiError, api, applyServerErrors, fetcher } from '@/lib/client/api';
+import { ApiError, applyServerErrors } from '@/lib/client/api';
+import type { InvitationView } from '@/lib/api-types';
+import { useInvitation } from '@/components/hooks/use-invitation';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';
@@ -17,14 +18,6 @@ import { Banner } from '@/components/ui/banner';
 import { Loading } from '@/components/ui/loading';
 import { formatDateTime } from '@/components/ui/format';
 import { AuthCard } from './auth-card';
-
-interface InvitationView {
-  firmName: string;
-  email: string;
-  role: 'author' | 'checker' | 'owner';
-  expiresAt: string;
-  existingAccount: boolean;
-}
 
 const ROLE_WORDS: Record<InvitationView['role'], { label: string; does: string }> = {
   author: { label: 'Author', does: 'You will build models, save versions and publish checked versions to clients.' },
@@ -36,7 +29,7 @@ const newAccountSchema = z.object({ name: nameField, password: passwordField });
 const existingAccountSchema = z.object({ name: z.string().optional(), password: z.string().min(1, 'Enter the password of your Stochos account.') });
 type Values = { name?: string; password: string };
 
-function AcceptForm({ token, invitation }: { token: string; invitation: InvitationView }) {
+function AcceptForm({ invitation, accept }: { invitation: InvitationView; accept: ReturnType<typeof useInvitation>['accept'] }) {
   const router = useRouter();
   const [messages, setMessages] = useState<string[]>([]);
   const [leaving, setLeaving] = useState(false);
@@ -53,7 +46,7 @@ function AcceptForm({ token, invitation }: { token: string; invitation: Invitati
     setMessages([]);
     let email: string;
     try {
-      ({ email } = await api.post<{ email: string }>('/api/invitations/accept', { token, password: values.password, ...(existing ? {} : { name: values.name }) }));
+      ({ email } = await accept({ password: values.password, ...(existing ? {} : { name: values.name }) }));
     } catch (err) {
       if (err instanceof ApiError && err.status === 410) {
         setGone(err.message);
@@ -112,10 +105,7 @@ function GoneNotice({ message }: { message: string }) {
 }
 
 export function InviteAcceptance({ token }: { token: string }) {
-  const { data, error } = useSWR<InvitationView>(`/api/invitations/${encodeURIComponent(token)}`, fetcher, {
-    revalidateOnFocus: false,
-    shouldRetryOnError: false,
-  });
+  const { data, error, accept } = useInvitation(token);
 
   if (error) {
     if (error instanceof ApiError && error.status === 410) {
@@ -166,7 +156,7 @@ export function InviteAcceptance({ token }: { token: string }) {
           <time dateTime={data.expiresAt}>{formatDateTime(data.expiresAt)}</time>
         </dd>
       </dl>
-      <AcceptForm token={token} invitation={data} />
+      <AcceptForm invitation={data} accept={accept} />
     </AuthCard>
   );
 }

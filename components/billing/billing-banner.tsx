@@ -1,6 +1,6 @@
 import 'server-only';
 import Link from 'next/link';
-import type { Role } from '@/db/users';
+import type { Role } from '@/lib/api-types';
 import { billingStatus, authoringBlockedMessage } from '@/lib/billing/access';
 import { Banner } from '@/components/ui/banner';
 import { billingDate, statusSentence } from './status-words';

@@ -11,10 +11,12 @@ import { ConfirmButton } from '@/components/ui/confirm-button';
 import { Term } from '@/components/ui/term';
 import { LAW_LABELS, type FitOk, type Law } from '@/lib/datasets/fit';
 import { empiricalChoice, fittedChoice } from '@/lib/datasets/use';
-import type { DatasetDetail } from '@/lib/datasets/service';
+import type { DatasetDetail } from '@/lib/api-types';
 import { FitPlots } from './fit-plots';
 import { CapabilityPanel } from './capability-panel';
 import { UseInStack } from './use-in-stack';
+import { deleteDataset } from './use-datasets';
+import { errorMessage } from '@/lib/client/api';
 
 const num = (v: number) => (Number.isFinite(v) ? +v.toPrecision(6) + '' : '—');
 
@@ -33,10 +35,12 @@ export function DatasetDetailView({ detail, canEdit }: { detail: DatasetDetail; 
   const choiceJson = (c: unknown) => JSON.stringify(c, null, 2);
 
   async function remove() {
-    const res = await fetch(`/api/datasets/${ds.id}?confirm=1`, { method: 'DELETE' });
-    if (!res.ok) {
-      setDeleteError((await res.json()).error?.message ?? 'The dataset could not be deleted.');
-      throw new Error('delete failed');
+    setDeleteError(null);
+    try {
+      await deleteDataset(ds.id);
+    } catch (err) {
+      setDeleteError(errorMessage(err));
+      throw err;
     }
     router.push('/app/datasets');
     router.refresh();

@@ -1,13 +1,14 @@
 'use client';
 
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Select } from '@/components/ui/field';
 import { Banner } from '@/components/ui/banner';
+import { LoadError } from '@/components/ui/load-error';
+import { errorMessage } from '@/lib/client/api';
+import { recordDatasetUse, useDataset, useDatasets } from './use-datasets';
 import { LAW_LABELS, type FitOk } from '@/lib/datasets/fit';
 import { empiricalChoice, fittedChoice, type DatasetChoice } from '@/lib/datasets/use';
-import type { DatasetDetail } from '@/lib/datasets/service';
-import type { DatasetRow } from '@/db/datasets';
 
 export interface DatasetPickerProps {
   /** 'input': any engine distribution (fitted law or empirical); 'stack': a linear-stack contributor (normal-fit or empirical). */
@@ -19,36 +20,21 @@ export interface DatasetPickerProps {
 
 /** Choose a dataset from the firm's library and take a fitted law (parameters copied) or its empirical distribution. */
 export function DatasetPicker({ target, modelId, onPick }: DatasetPickerProps) {
-  const [list, setList] = useState<DatasetRow[] | null>(null);
+  const library = useDatasets();
+  const list = library.data?.datasets ?? null;
   const [datasetId, setDatasetId] = useState('');
-  const [detail, setDetail] = useState<DatasetDetail | null>(null);
+  const { data: detail, error: detailError } = useDataset(datasetId || null);
   const [option, setOption] = useState('empirical');
   const [error, setError] = useState<string | null>(null);
   const [pending, setPending] = useState(false);
 
-  useEffect(() => {
-    fetch('/api/datasets')
-      .then((r) => (r.ok ? r.json() : Promise.reject(new Error())))
-      .then((b: { datasets: DatasetRow[] }) => setList(b.datasets))
-      .catch(() => setError('The dataset library could not be loaded.'));
-  }, []);
-
-  useEffect(() => {
-    if (!datasetId) return;
-    let live = true;
-    fetch(`/api/datasets/${datasetId}`)
-      .then((r) => (r.ok ? r.json() : Promise.reject(new Error())))
-      .then((d: DatasetDetail) => {
-        if (!live) return;
-        setDetail(d);
-        const best = (d.fits ?? []).find((f): f is FitOk => f.ok && (target !== 'stack' || f.law === 'normal'));
-        setOption(best ? best.law : 'empirical');
-      })
-      .catch(() => setError('The dataset could not be loaded.'));
-    return () => {
-      live = false;
-    };
-  }, [datasetId, target]);
+  // A newly chosen dataset starts on its best fit (for a stack: the normal fit), else on the empirical law.
+  const [optionFor, setOptionFor] = useState<string | null>(null);
+  if (detail && optionFor !== detail.dataset.id) {
+    setOptionFor(detail.dataset.id);
+    const best = (detail.fits ?? []).find((f): f is FitOk => f.ok && (target !== 'stack' || f.law === 'normal'));
+    setOption(best ? best.law : 'empirical');
+  }
 
   const fits = (detail?.fits ?? []).filter((f): f is FitOk => f.ok && (target !== 'stack' || f.law === 'normal'));
   const options = [
@@ -64,13 +50,10 @@ export function DatasetPicker({ target, modelId, onPick }: DatasetPickerProps) {
     setPending(true);
     setError(null);
     try {
-      if (modelId) {
-        const res = await fetch(`/api/datasets/${ds.id}/uses`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ modelId, method: choice.source.method }) });
-        if (!res.ok) throw new Error((await res.json()).error?.message ?? 'The use could not be recorded.');
-      }
+      if (modelId) await recordDatasetUse(ds.id, { modelId, method: choice.source.method });
       onPick(choice);
     } catch (err) {
-      setError((err as Error).message);
+      setError(errorMessage(err));
     } finally {
       setPending(false);
     }
@@ -94,6 +77,8 @@ export function DatasetPicker({ target, modelId, onPick }: DatasetPickerProps) {
           </Button>
         </>
       )}
+      {library.error ? <LoadError error={library.error} what="the dataset library" onRetry={() => void library.mutate()} /> : null}
+      {detailError ? <LoadError error={detailError} what="the dataset" /> : null}
       {error && <Banner tone="danger">{error}</Banner>}
     </div>
   );

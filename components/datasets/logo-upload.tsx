@@ -4,6 +4,8 @@ import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Banner } from '@/components/ui/banner';
 import { Card } from '@/components/ui/card';
+import { removeLogo, saveLogo } from '@/components/hooks/use-settings';
+import { errorMessage } from '@/lib/client/api';
 
 /** Firm logo for widgets, embeds and PDFs. The owner uploads; everyone sees the current one. */
 export function LogoUpload({ firmId, canEdit }: { firmId: string; canEdit: boolean }) {
@@ -15,26 +17,18 @@ export function LogoUpload({ firmId, canEdit }: { firmId: string; canEdit: boole
   const [done, setDone] = useState<string | null>(null);
 
   async function send(method: 'PUT' | 'DELETE') {
+    if (method === 'PUT' && !file) return;
     setPending(true);
     setError(null);
     setDone(null);
     try {
-      let body: FormData | undefined;
-      if (method === 'PUT') {
-        if (!file) return;
-        body = new FormData();
-        body.set('file', file);
-      }
-      const res = await fetch('/api/branding/logo', { method, body });
-      if (!res.ok) {
-        setError((await res.json()).error?.message ?? 'The logo could not be saved.');
-        return;
-      }
+      if (method === 'PUT') await saveLogo(file!);
+      else await removeLogo();
       setMissing(false);
       setVersion((v) => v + 1);
       setDone(method === 'PUT' ? 'Logo saved. Widgets, embeds and PDFs now show it.' : 'Logo removed.');
-    } catch {
-      setError('The request did not reach the server. Try again.');
+    } catch (err) {
+      setError(errorMessage(err));
     } finally {
       setPending(false);
     }

@@ -6,9 +6,15 @@ import { Button } from '@/components/ui/button';
 import { Select, TextField } from '@/components/ui/field';
 import { Banner } from '@/components/ui/banner';
 import { Card } from '@/components/ui/card';
+import { FieldError } from '@/components/ui/field';
+import { ApiError, errorMessage, fieldMessage } from '@/lib/client/api';
+import { uploadDataset } from './use-datasets';
 import { columnError, readColumn, readCsv, readCsvText, type CsvTable } from '@/lib/datasets/csv';
 
 type Source = { kind: 'file'; file: File; table: CsvTable } | { kind: 'text'; text: string; table: CsvTable };
+
+// The upload's fields as the server names them in a 422; each message goes beside its control.
+const FIELDS = ['file', 'column', 'name', 'unit', 'drop'] as const;
 
 /** Upload a CSV or paste a column: the file is checked here first (same rules as the server), then sent. */
 export function UploadForm() {
@@ -21,7 +27,7 @@ export function UploadForm() {
   const [drop, setDrop] = useState<number[]>([]);
   const [paste, setPaste] = useState('');
   const [pending, setPending] = useState(false);
-  const [serverError, setServerError] = useState<string | null>(null);
+  const [serverError, setServerError] = useState<unknown>(null);
 
   function pickColumn(t: CsvTable): number {
     const i = t.headers.findIndex((_, c) => readColumn(t, c).values.length > 0);
@@ -57,8 +63,14 @@ export function UploadForm() {
   }
 
   const col = source ? readColumn(source.table, column, drop) : null;
+
   const allProblems = source ? readColumn(source.table, column).problems : [];
   const blocking = source && col ? columnError(source.kind === 'file' ? source.file.name : 'Pasted column', source.table.headers[column], col) : null;
+  // A server message goes beside its control when that control is on screen, else in the banner.
+  const shown: Record<(typeof FIELDS)[number], boolean> = { file: true, column: !!source, name: !!source, unit: !!source, drop: allProblems.length > 0 };
+  const fieldErrors = Object.fromEntries(FIELDS.map((f) => [f, shown[f] ? fieldMessage(serverError, f) : undefined])) as Record<(typeof FIELDS)[number], string | undefined>;
+  const placed = FIELDS.filter((f) => fieldErrors[f]).length;
+  const elsewhere = serverError instanceof ApiError && serverError.fields ? Object.entries(serverError.fields).filter(([f]) => !fieldErrors[f as (typeof FIELDS)[number]]).flatMap(([, m]) => m) : [];
 
   async function submit(e: React.FormEvent) {
     e.preventDefault();
@@ -73,16 +85,11 @@ export function UploadForm() {
     if (source.kind === 'file') form.set('file', source.file);
     else form.set('text', source.text);
     try {
-      const res = await fetch('/api/datasets', { method: 'POST', body: form });
-      const body = await res.json();
-      if (!res.ok) {
-        setServerError(body.error?.message ?? 'The upload failed.');
-        return;
-      }
-      router.push(`/app/datasets/${body.id}`);
+      const { id } = await uploadDataset(form);
+      router.push(`/app/datasets/${id}`);
       router.refresh();
-    } catch {
-      setServerError('The upload did not reach the server. Check the connection and try again.');
+    } catch (err) {
+      setServerError(err);
     } finally {
       setPending(false);
     }
@@ -96,7 +103,16 @@ export function UploadForm() {
             <label htmlFor="dataset-file" className="block text-sm font-medium text-ink-800">
               CSV file
             </label>
-            <input id="dataset-file" type="file" accept=".csv,text/csv,text/plain" className="mt-1 block w-full text-sm" onChange={(e) => onFile(e.target.files?.[0])} />
+            <input
+              id="dataset-file"
+              type="file"
+              accept=".csv,text/csv,text/plain"
+              className="mt-1 block w-full text-sm"
+              aria-invalid={fieldErrors.file ? true : undefined}
+              aria-describedby={fieldErrors.file ? 'dataset-file-error' : undefined}
+              onChange={(e) => onFile(e.target.files?.[0])}
+            />
+            {fieldErrors.file && <FieldError id="dataset-file-error">{fieldErrors.file}</FieldError>}
           </div>
           <div>
             <label htmlFor="dataset-paste" className="block text-sm font-medium text-ink-800">
@@ -124,9 +140,10 @@ export function UploadForm() {
                   setDrop([]);
                 }}
                 options={source.table.headers.map((h, i) => ({ value: String(i), label: h }))}
+                error={fieldErrors.column}
               />
-              <TextField label="Name" value={name} onChange={(e) => setName(e.target.value)} required maxLength={120} />
-              <TextField label="Unit" hint="e.g. mm, ratio" value={unit} onChange={(e) => setUnit(e.target.value)} maxLength={24} />
+              <TextField label="Name" value={name} onChange={(e) => setName(e.target.value)} required maxLength={120} error={fieldErrors.name} />
+              <TextField label="Unit" hint="e.g. mm, ratio" value={unit} onChange={(e) => setUnit(e.target.value)} maxLength={24} error={fieldErrors.unit} />
             </div>
             <p className="text-sm text-ink-700" aria-live="polite">
               <span className="font-mono">{col?.values.length ?? 0}</span> numbers read from {source.table.rows.length} rows
@@ -146,16 +163,17 @@ export function UploadForm() {
                     </li>
                   ))}
                 </ul>
+                {fieldErrors.drop && <FieldError>{fieldErrors.drop}</FieldError>}
               </fieldset>
             )}
             {blocking && <Banner tone="warn">{blocking}</Banner>}
           </>
         )}
-        {serverError && (
+        {serverError ? (
           <Banner tone="danger" title="Nothing was stored">
-            {serverError}
+            {elsewhere.length ? elsewhere.join(' ') : placed ? `${placed === 1 ? 'One field needs' : `${placed} fields need`} attention: see the message beside it.` : errorMessage(serverError)}
           </Banner>
-        )}
+        ) : null}
         <Button type="submit" pending={pending} pendingLabel="Uploading…" disabled={!source || !!blocking || !name.trim()}>
           Store dataset
         </Button>

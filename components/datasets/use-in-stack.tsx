@@ -1,22 +1,19 @@
 'use client';
 
-import { useEffect, useMemo, useState } from 'react';
+import { useMemo, useState } from 'react';
 import Link from 'next/link';
 import { useRouter } from 'next/navigation';
 import { Button } from '@/components/ui/button';
 import { Select } from '@/components/ui/field';
 import { Banner } from '@/components/ui/banner';
 import { Term } from '@/components/ui/term';
+import { LoadError } from '@/components/ui/load-error';
+import { useModel, useModels } from '@/components/models/use-models';
+import { errorMessage } from '@/lib/client/api';
+import { recordDatasetUse } from './use-datasets';
 import { evaluateStack } from '@/lib/engine/analytic';
-import { linearStackSchema, type LinearStackModel } from '@/lib/engine/schema';
+import { linearStackSchema, validateModel, type LinearStackModel } from '@/lib/engine/schema';
 import { dataCapability } from '@/lib/datasets/summary';
-
-interface ModelRow {
-  id: string;
-  title: string;
-  template: string;
-  archivedAt: string | null;
-}
 
 type Method = 'normal-fit' | 'empirical';
 
@@ -28,39 +25,28 @@ const fmt = (v: number | null) => (v === null || !Number.isFinite(v) ? '—' : v
  */
 export function UseInStack({ dataset }: { dataset: { id: string; name: string; hash: string; unit: string; values: number[] } }) {
   const router = useRouter();
-  const [models, setModels] = useState<ModelRow[] | null>(null);
+  const library = useModels(false);
+  const models = library.data ? library.data.models.filter((m) => m.template === 'linear-stack' && !m.archivedAt) : null;
   const [modelId, setModelId] = useState('');
-  const [base, setBase] = useState<{ model: LinearStackModel; version: number } | null>(null);
+  const chosen = useModel(modelId || null);
   const [contributorId, setContributorId] = useState('');
   const [method, setMethod] = useState<Method>('normal-fit');
   const [pending, setPending] = useState(false);
   const [error, setError] = useState<string | null>(null);
   const [saved, setSaved] = useState<number | null>(null);
 
-  useEffect(() => {
-    fetch('/api/models')
-      .then((r) => (r.ok ? r.json() : Promise.reject(new Error())))
-      .then((b: { models: ModelRow[] }) => setModels(b.models.filter((m) => m.template === 'linear-stack' && !m.archivedAt)))
-      .catch(() => setError('The models could not be loaded.'));
-  }, []);
+  // The stack as last saved (or its draft before any version); it follows each save.
+  const detail = chosen.data;
+  const parsed = useMemo(() => (detail ? linearStackSchema.safeParse(detail.latest?.model ?? detail.model.draft) : null), [detail]);
+  const base = useMemo(() => (parsed?.success ? { model: parsed.data, version: detail?.latest?.number ?? 0 } : null), [parsed, detail]);
+  const notAStack = parsed !== null && !parsed.success;
 
-  useEffect(() => {
-    if (!modelId) return;
-    let live = true;
-    fetch(`/api/models/${modelId}`)
-      .then((r) => (r.ok ? r.json() : Promise.reject(new Error())))
-      .then((d: { model: { draft: unknown }; latest: { number: number; model: unknown } | null }) => {
-        const parsed = linearStackSchema.safeParse(d.latest?.model ?? d.model.draft);
-        if (!live) return;
-        if (!parsed.success) return setError('This model does not open as a linear stack; fix it in the editor first.');
-        setBase({ model: parsed.data, version: d.latest?.number ?? 0 });
-        setContributorId(parsed.data.contributors[0]?.id ?? '');
-      })
-      .catch(() => setError('The model could not be loaded.'));
-    return () => {
-      live = false;
-    };
-  }, [modelId]);
+  // A newly chosen model starts on its first contributor.
+  const [contributorFor, setContributorFor] = useState<string | null>(null);
+  if (base && detail && contributorFor !== detail.model.id) {
+    setContributorFor(detail.model.id);
+    setContributorId(base.model.contributors[0]?.id ?? '');
+  }
 
   const contributor = base?.model.contributors.find((c) => c.id === contributorId) ?? null;
   const next = useMemo(() => {
@@ -81,17 +67,19 @@ export function UseInStack({ dataset }: { dataset: { id: string; name: string; h
     setError(null);
     try {
       const note = `Contributor "${contributor.name}" now ${method === 'empirical' ? 'samples the measured values' : 'uses a normal fitted to the measured values'} of dataset "${dataset.name}" (sha256 ${dataset.hash}).`;
-      const res = await fetch(`/api/models/${modelId}/versions`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ baseVersion: base.version, note, model: next }) });
-      const body = await res.json();
-      if (!res.ok) throw new Error(body.error?.message ?? 'The version could not be saved.');
-      const use = await fetch(`/api/datasets/${dataset.id}/uses`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ modelId, method: method === 'normal-fit' ? 'normal' : 'empirical' }) });
-      if (!use.ok) throw new Error((await use.json()).error?.message ?? 'The use could not be recorded.');
-      setSaved(body.version.number);
-      setBase({ model: next, version: body.version.number });
+      // The changed stack is checked here, where it is made, like every model before it is saved.
+      const checked = validateModel(next);
+      if (!checked.ok) {
+        setError(`The changed stack does not check: ${checked.issues[0]?.message ?? 'unknown problem'}`);
+        return;
+      }
+      const version = await chosen.saveVersion({ baseVersion: base.version, note, model: checked.model });
+      await recordDatasetUse(dataset.id, { modelId, method: method === 'normal-fit' ? 'normal' : 'empirical' });
+      setSaved(version.number);
       // The delete warning and use counts on this page come from the server.
       router.refresh();
     } catch (err) {
-      setError((err as Error).message);
+      setError(errorMessage(err));
     } finally {
       setPending(false);
     }
@@ -143,6 +131,9 @@ export function UseInStack({ dataset }: { dataset: { id: string; name: string; h
         </dl>
       )}
       {contributor && <p className="text-xs text-ink-600">Gap Ppk here is the statistical (normal approximation) figure; the model’s Monte Carlo result is shown in the model itself.</p>}
+      {library.error ? <LoadError error={library.error} what="the models" onRetry={() => void library.mutate()} /> : null}
+      {chosen.error ? <LoadError error={chosen.error} what="the model" onRetry={() => void chosen.mutate()} /> : null}
+      {notAStack && <Banner tone="danger">This model does not open as a linear stack; fix it in the editor first.</Banner>}
       {error && <Banner tone="danger">{error}</Banner>}
       {saved !== null && (
         <Banner tone="success">

@@ -3,8 +3,9 @@
 // so client, server and import messages are shown beside the same field.
 
 import type { ModelIssue } from '@/lib/engine/errors';
+import type { FieldErrors as FieldMessages } from '@/lib/api-types';
 
-export type FieldMessages = Record<string, string[]>;
+export type { FieldMessages };
 
 /** Dotted key of an issue path; the whole model is "_" (as in the server's 422). */
 export function pathKey(path: readonly (string | number)[]): string {

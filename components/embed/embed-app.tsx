@@ -4,8 +4,8 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import { WidgetView } from '@/components/widget/widget-view';
 import { createEmbedEngine } from '@/lib/engine/embed-engine';
 import type { EmbedWidgetPayload } from '@/lib/embed/payload';
-import { viewerMessage } from '@/lib/embed/messages';
-import { createEmbedClient, EmbedAccessError, type EmbedClient } from './embed-client';
+import { ApiError } from '@/lib/client/request';
+import { createEmbedClient, refusalOf, type EmbedClient } from './embed-client';
 import { EmbedNotice } from './embed-notice';
 import { SnapshotRequestForm } from '@/components/snapshots/snapshot-request-form';
 
@@ -53,8 +53,10 @@ function receivePass(passId: string, origin: string | null): { promise: Promise<
   return { promise, cancel: () => cleanup() };
 }
 
-export function EmbedApp({ passId, origin, firmName }: { passId: string; origin: string | null; firmName: string | null }) {
+/** `noPass`: what to show when no pass arrives (worded on the server, so the viewer messages stay out of this bundle). */
+export function EmbedApp({ passId, origin, firmName, noPass }: { passId: string; origin: string | null; firmName: string | null; noPass: { title: string; body: string } }) {
   const [state, setState] = useState<State>({ phase: 'loading' });
+  const { title: noPassTitle, body: noPassBody } = noPass;
   const [client, setClient] = useState<EmbedClient | null>(null);
   const pending = useRef(new Map<string, ReturnType<typeof setTimeout>>());
   // The view the viewer sees, for "E-mail this view"; empty means the author's values.
@@ -65,7 +67,7 @@ export function EmbedApp({ passId, origin, firmName }: { passId: string; origin:
     const wait = receivePass(passId, origin);
     wait.promise
       .then(async (pass) => {
-        if (!pass) throw new EmbedAccessError(401, `${viewerMessage('missing', null).title}. ${viewerMessage('missing', null).body}`);
+        if (!pass) throw new ApiError(401, 'unauthorized', `${noPassTitle}. ${noPassBody}`, { title: noPassTitle });
         const c = createEmbedClient({ passId, pass, origin });
         const payload = await c.loadWidget();
         if (!live) return;
@@ -74,8 +76,8 @@ export function EmbedApp({ passId, origin, firmName }: { passId: string; origin:
       })
       .catch((err: unknown) => {
         if (!live) return;
-        const e = err instanceof EmbedAccessError ? err : new EmbedAccessError(0, 'This widget cannot be shown. Check the connection and reload the page.');
-        setState({ phase: 'refused', title: e.title, body: e.body });
+        const r = refusalOf(err);
+        setState({ phase: 'refused', title: r.title, body: r.body });
       });
     const timers = pending.current;
     return () => {
@@ -83,7 +85,7 @@ export function EmbedApp({ passId, origin, firmName }: { passId: string; origin:
       wait.cancel();
       for (const t of timers.values()) clearTimeout(t);
     };
-  }, [passId, origin]);
+  }, [passId, origin, noPassTitle, noPassBody]);
 
   const onDialChange = useCallback((values: Record<string, number>, dialId: string | null) => {
     setDialValues(values);
@@ -99,7 +101,8 @@ export function EmbedApp({ passId, origin, firmName }: { passId: string; origin:
         timers.delete(dialId);
         client?.reportDial(dialId, value).catch((err: unknown) => {
           // A pass revoked while the viewer works: the next call says so, and the widget gives way to the notice.
-          if (err instanceof EmbedAccessError && (err.status === 401 || err.status === 403)) setState({ phase: 'refused', title: err.title, body: err.body });
+          const r = refusalOf(err);
+          if (r.status === 401 || r.status === 403) setState({ phase: 'refused', title: r.title, body: r.body });
         });
       }, DIAL_SETTLE_MS),
     );

@@ -1,83 +1,76 @@
-// The embed page's API client. The bearer token lives only in this closure (never in cookies or storage):
-// a browser would not send the app's cookies inside a cross-site frame, and the page needs none.
+// The embed page's API client, over the app's one request helper (lib/client/request.ts: no SWR, no zod). The bearer
+// token lives only in this closure (never in cookies or storage): a browser would not send the app's cookies
+// inside a cross-site frame, and the page needs none.
+import { ApiError, requestJson, type Fallback, type RequestOptions } from '@/lib/client/request';
 import type { EmbedSessionResponse, EmbedWidgetPayload } from '@/lib/embed/payload';
 
-export class EmbedAccessError extends Error {
-  readonly status: number;
-  readonly title: string;
-  readonly body: string;
-  constructor(status: number, message: string) {
-    super(message);
-    this.status = status;
-    const i = message.indexOf('. ');
-    this.title = i > 0 ? message.slice(0, i) : 'This widget cannot be shown';
-    this.body = i > 0 ? message.slice(i + 2) : message;
+const CANNOT_SHOW = 'This widget cannot be shown';
+
+// A refusal without a readable body still reads as a heading and a sentence in the frame.
+const embedFallback: Fallback = (status) =>
+  status === 429
+    ? { code: 'rate_limited', title: 'Too many requests', message: 'Too many requests. Wait a moment and try again.' }
+    : { code: status === 401 ? 'unauthorized' : 'unavailable', title: CANNOT_SHOW, message: `${CANNOT_SHOW}. Reload the page to try again.` };
+
+/** What the frame shows instead of the widget: the server's heading and text (a refusal without a heading gets a general one). */
+export function refusalOf(err: unknown): { status: number; title: string; body: string } {
+  if (err instanceof ApiError && err.status > 0) {
+    return err.title ? { status: err.status, title: err.title, body: err.detail } : { status: err.status, title: CANNOT_SHOW, body: err.message };
   }
+  return { status: 0, title: CANNOT_SHOW, body: 'Check the connection and reload the page.' };
 }
 
-async function readError(res: Response): Promise<EmbedAccessError> {
-  let message = res.status === 429 ? 'Too many requests. Wait a moment and try again.' : 'This widget cannot be shown. Reload the page to try again.';
-  try {
-    const b = (await res.json()) as { error?: { message?: unknown } };
-    if (typeof b.error?.message === 'string') message = b.error.message;
-  } catch {
-    // no body
-  }
-  return new EmbedAccessError(res.status, message);
+/** "E-mail this view" in words: accepted (202) with the server's sentence, or what was wrong (null: say to try again). */
+export interface SnapshotAnswer {
+  ok: boolean;
+  message: string | null;
 }
 
 export interface EmbedClient {
   loadWidget(): Promise<EmbedWidgetPayload>;
   reportDial(dialId: string, value: number): Promise<void>;
-  /** "E-mail this view": the answer is returned as it is (202, or a refusal the form explains). */
-  sendSnapshot(body: { email: string; dialValues: Record<string, number>; version?: number }): Promise<Response>;
+  /** Never throws: a refusal says what was wrong (the address, first); a lost connection, an ended session or a server fault gives null. */
+  sendSnapshot(body: { email: string; dialValues: Record<string, number>; pinnedDialValues?: Record<string, number>; version?: number }): Promise<SnapshotAnswer>;
 }
+
+const base: RequestOptions = { credentials: 'omit', cache: 'no-store', fallback: embedFallback };
 
 export function createEmbedClient(o: { passId: string; pass: string; origin: string | null }): EmbedClient {
   let token: string | null = null;
   let expiresAt = 0;
 
   async function exchange(): Promise<void> {
-    const res = await fetch('/api/embed/session', {
-      method: 'POST',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ passId: o.passId, pass: o.pass, origin: o.origin }),
-      credentials: 'omit',
-      cache: 'no-store',
-    });
-    if (!res.ok) throw await readError(res);
-    const s = (await res.json()) as EmbedSessionResponse;
+    const s = await requestJson<EmbedSessionResponse>('/api/embed/session', { ...base, method: 'POST', body: { passId: o.passId, pass: o.pass, origin: o.origin } });
     token = s.token;
     expiresAt = s.expiresAt * 1000;
   }
 
   /** One call with the bearer; a refused token is exchanged again once (it may simply have run out). */
-  async function call(method: 'GET' | 'POST', path: string, body?: unknown, acceptRefusals = false): Promise<Response> {
-    for (let attempt = 0; attempt < 2; attempt++) {
+  async function call<T>(method: 'GET' | 'POST', path: string, body?: unknown): Promise<T> {
+    for (let attempt = 0; ; attempt++) {
       if (!token || expiresAt - Date.now() < 30_000) await exchange();
-      const res = await fetch(path, {
-        method,
-        headers: { authorization: `Bearer ${token}`, ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
-        body: body === undefined ? undefined : JSON.stringify(body),
-        credentials: 'omit',
-        cache: 'no-store',
-      });
-      if (res.status === 401 && attempt === 0) {
+      try {
+        return await requestJson<T>(path, { ...base, method, body, headers: { authorization: `Bearer ${token}` } });
+      } catch (err) {
+        if (attempt > 0 || !(err instanceof ApiError) || err.status !== 401) throw err;
         token = null;
-        continue;
       }
-      if (!res.ok && !(acceptRefusals && res.status >= 400 && res.status < 500 && res.status !== 401)) throw await readError(res);
-      return res;
     }
-    throw new EmbedAccessError(401, 'This widget cannot be shown. Reload the page to try again.');
   }
 
-  const base = `/api/embed/passes/${encodeURIComponent(o.passId)}`;
+  const passPath = `/api/embed/passes/${encodeURIComponent(o.passId)}`;
   return {
-    loadWidget: async () => (await (await call('GET', `${base}/widget`)).json()) as EmbedWidgetPayload,
+    loadWidget: () => call<EmbedWidgetPayload>('GET', `${passPath}/widget`),
     reportDial: async (dialId, value) => {
-      await call('POST', `${base}/events`, { kind: 'dial', dialId, value });
+      await call<void>('POST', `${passPath}/events`, { kind: 'dial', dialId, value });
     },
-    sendSnapshot: (body) => call('POST', `${base}/snapshots`, body, true),
+    sendSnapshot: (body) =>
+      call<{ message?: string } | undefined>('POST', `${passPath}/snapshots`, body).then(
+        (a) => ({ ok: true, message: a?.message ?? null }),
+        (err: unknown) => {
+          const refused = err instanceof ApiError && err.status >= 400 && err.status < 500 && err.status !== 401;
+          return { ok: false, message: refused ? ((err.status === 422 && err.fields?.email?.[0]) || err.message) : null };
+        },
+      ),
   };
 }

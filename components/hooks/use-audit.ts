@@ -2,22 +2,9 @@
 
 import useSWRInfinite from 'swr/infinite';
 import { fetcher } from '@/lib/client/api';
+import type { AuditPage } from '@/lib/api-types';
 
-export interface AuditEntry {
-  id: number;
-  at: string;
-  action: string;
-  targetType: string | null;
-  targetId: string | null;
-  detail: Record<string, unknown> | null;
-  actorName: string | null;
-  actorEmail: string | null;
-}
-
-export interface AuditPage {
-  entries: AuditEntry[];
-  nextBefore: number | null;
-}
+export type { AuditEntry, AuditPage } from '@/lib/api-types';
 
 /** The audit log, newest first, one page at a time ("Load older" asks for the next page). */
 export function useAudit() {

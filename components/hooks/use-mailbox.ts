@@ -2,27 +2,9 @@
 
 import useSWR from 'swr';
 import { ApiError, fetcher } from '@/lib/client/api';
+import type { MailboxMessage as MailMessage } from '@/lib/api-types';
 
-export interface MailAttachment {
-  index?: number;
-  filename: string | null;
-  contentType: string;
-  size: number;
-}
-
-/** One message of the local SMTP fake (see lib/fakes/smtp/server.ts). */
-export interface MailMessage {
-  id: string;
-  receivedAt?: string;
-  date: string | null;
-  from: string | null;
-  fromName?: string | null;
-  to: string[] | string;
-  subject: string;
-  text: string;
-  html: string | null;
-  attachments: MailAttachment[];
-}
+export type { MailboxAttachment as MailAttachment, MailboxMessage as MailMessage } from '@/lib/api-types';
 
 export const MAILBOX_KEY = '/api/dev/mailbox';
 

@@ -2,15 +2,10 @@
 
 import useSWR from 'swr';
 import { fetcher } from '@/lib/client/api';
+import type { Me } from '@/lib/api-types';
 
-export type Role = 'owner' | 'author' | 'checker';
+export type { Me, Role } from '@/lib/api-types';
 
-export interface Me {
-  user: { id: string; name: string; email: string };
-  firm: { id: string; name: string };
-  role: Role;
-  permissions: string[];
-}
 
 export const ME_KEY = '/api/me';
 

@@ -2,9 +2,9 @@
 
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
-import type { NotificationKind } from '@/lib/notifications/kinds';
+import type { NotificationPrefs, WaitingVersion } from '@/lib/api-types';
 
-export type NotificationPrefs = Record<NotificationKind, boolean>;
+export type { NotificationPrefs, WaitingVersion } from '@/lib/api-types';
 
 export const NOTIFICATION_PREFS_KEY = '/api/me/notifications';
 
@@ -21,15 +21,6 @@ export function useNotificationPrefs() {
         revalidate: false,
       }),
   };
-}
-
-export interface WaitingVersion {
-  modelId: string;
-  modelTitle: string;
-  number: number;
-  authorName: string | null;
-  note: string | null;
-  createdAt: string;
 }
 
 /** Versions waiting for the signed-in checker; refreshed every minute and whenever the window regains focus. */

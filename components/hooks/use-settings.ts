@@ -2,18 +2,9 @@
 
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
+import type { FirmSettings, LogoSaved } from '@/lib/api-types';
 
-export type Units = 'mm' | 'in' | 'um';
-export type PaperSize = 'A4' | 'Letter';
-
-export interface FirmSettings {
-  name: string;
-  unitsDefault: Units;
-  currencyDefault: string;
-  brandColor: string;
-  requireCheck: boolean;
-  paperSize: PaperSize;
-}
+export type { FirmSettings, PaperSize, Units } from '@/lib/api-types';
 
 export const SETTINGS_KEY = '/api/settings';
 
@@ -30,3 +21,12 @@ export function useSettings() {
     },
   };
 }
+
+/** The firm's logo for widgets, embeds and PDFs (owner only): multipart `file`; removing answers 404 when there is none. */
+export function saveLogo(file: File): Promise<LogoSaved> {
+  const form = new FormData();
+  form.set('file', file);
+  return api.put<LogoSaved>('/api/branding/logo', form);
+}
+
+export const removeLogo = (): Promise<void> => api.delete('/api/branding/logo');

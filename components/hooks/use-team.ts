@@ -2,41 +2,9 @@
 
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
-import type { Role } from './use-me';
+import type { Invitation, InvitedRole, Role, Team, TeamMember } from '@/lib/api-types';
 
-export interface TeamMember {
-  id: string; // membership id
-  userId: string;
-  name: string;
-  email: string;
-  role: Role;
-  status: 'active' | 'removed';
-  lastActiveAt: string | null;
-  joinedAt: string;
-}
-
-export interface Invitation {
-  id: string;
-  email: string;
-  role: 'author' | 'checker';
-  expiresAt: string;
-  createdAt: string;
-  invitedByName: string | null;
-}
-
-export interface SeatUsage {
-  allowed: number;
-  used: number;
-  pendingInvitations: number;
-  reason: string;
-}
-
-export interface Team {
-  members: TeamMember[];
-  invitations: Invitation[];
-  /** Seats are authors and checkers; the owner and client viewers are free. */
-  seats?: SeatUsage;
-}
+export type { Invitation, SeatUsage, Team, TeamMember } from '@/lib/api-types';
 
 export const TEAM_KEY = '/api/team';
 
@@ -46,7 +14,7 @@ export function useTeam() {
   const { mutate } = swr;
   return {
     ...swr,
-    invite: async (body: { email: string; role: 'author' | 'checker' }) => {
+    invite: async (body: { email: string; role: InvitedRole }) => {
       const res = await api.post<{ invitation: Invitation }>('/api/team/invitations', body);
       await mutate();
       return res.invitation;

@@ -4,6 +4,7 @@ import useSWR, { mutate as mutateKey } from 'swr';
 import { api, fetcher } from '@/lib/client/api';
 import type { CheckedModel } from '@/lib/engine/checked-model';
 import type { CheckComment, ModelListRow, ModelRecord, TemplateId, VersionRecord, VersionSummary, WidgetRecord } from '@/lib/models/types';
+import type { ModelDetail } from '@/lib/api-types';
 
 // One hook per resource of the studio; actions revalidate what they change.
 
@@ -11,13 +12,7 @@ export const modelsKey = (includeArchived: boolean) => `/api/models${includeArch
 export const modelKey = (id: string) => `/api/models/${encodeURIComponent(id)}`;
 export const versionKey = (id: string, n: number) => `/api/models/${encodeURIComponent(id)}/versions/${n}`;
 
-export interface ModelDetail {
-  model: ModelRecord;
-  versions: VersionSummary[];
-  latest: VersionRecord | null;
-  widget: WidgetRecord | null;
-  requireCheck: boolean;
-}
+export type { ModelDetail } from '@/lib/api-types';
 
 export interface CreateModelBody {
   title?: string;
@@ -48,17 +43,22 @@ export function useModels(includeArchived: boolean) {
   };
 }
 
-export function useModel(id: string) {
-  const swr = useSWR<ModelDetail>(modelKey(id), fetcher);
+/** One model with its versions and live widget; nothing is asked while `id` is null (no model chosen yet). */
+export function useModel(id: string | null) {
+  const swr = useSWR<ModelDetail>(id ? modelKey(id) : null, fetcher);
   const { mutate } = swr;
+  const key = () => {
+    if (!id) throw new Error('Choose a model first.');
+    return modelKey(id);
+  };
   return {
     ...swr,
     rename: async (title: string) => {
-      await api.patch(modelKey(id), { title });
+      await api.patch(key(), { title });
       await mutate();
     },
     saveVersion: async (body: { baseVersion: number | null; note: string; model: CheckedModel }) => {
-      const res = await api.post<{ version: VersionRecord }>(`${modelKey(id)}/versions`, body);
+      const res = await api.post<{ version: VersionRecord }>(`${key()}/versions`, body);
       await mutate();
       return res.version;
     },

@@ -7,8 +7,8 @@ import { PinnedViewContext } from '@/components/widget/pin-context';
 // (domain refusals, limits with their retry time). `send` posts with the embed page's bearer token.
 
 export interface SnapshotRequestFormProps {
-  /** Posts { email, dialValues, pinnedDialValues?, version } to /api/embed/passes/[id]/snapshots with the bearer; resolves to the Response. */
-  send: (body: { email: string; dialValues: Record<string, number>; pinnedDialValues?: Record<string, number>; version?: number }) => Promise<Response>;
+  /** Posts { email, dialValues, pinnedDialValues?, version } to /api/embed/passes/[id]/snapshots with the bearer; resolves to the answer in words. */
+  send: (body: { email: string; dialValues: Record<string, number>; pinnedDialValues?: Record<string, number>; version?: number }) => Promise<{ ok: boolean; message: string | null }>;
   dialValues: Record<string, number>;
   version?: number;
 }
@@ -26,14 +26,9 @@ export function SnapshotRequestForm({ send, dialValues, version }: SnapshotReque
   async function submit(e: FormEvent) {
     e.preventDefault();
     setPhase({ kind: 'sending' });
-    try {
-      const res = await send({ email, dialValues, version, ...(pinned ? { pinnedDialValues: pinned } : {}) });
-      const body = (await res.json().catch(() => ({}))) as { message?: string; error?: { message?: string; fields?: Record<string, string[]> } };
-      if (res.status === 202) setPhase({ kind: 'sent', message: body.message ?? `On its way to ${email}.` });
-      else setPhase({ kind: 'error', message: body.error?.fields?.email?.[0] && res.status === 422 ? body.error.fields.email[0] : (body.error?.message ?? 'The request could not be sent. Try again.') });
-    } catch {
-      setPhase({ kind: 'error', message: 'The request could not be sent. Check the connection and try again.' });
-    }
+    const answer = await send({ email, dialValues, version, ...(pinned ? { pinnedDialValues: pinned } : {}) });
+    if (answer.ok) setPhase({ kind: 'sent', message: answer.message ?? `On its way to ${email}.` });
+    else setPhase({ kind: 'error', message: answer.message ?? 'The request could not be sent. Check the connection and try again.' });
   }
 
   if (!open)

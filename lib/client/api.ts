@@ -1,28 +1,13 @@
-// Browser-side JSON client for the Stochos API. No React here: hooks and forms build on top of it.
+// The browser's one client for the Stochos API, over ./request.ts. No React and no SWR here: the SWR hooks (one per
+// resource) and the forms build on `api`; the embed page uses ./request.ts directly with its bearer token, so it
+// stays light.
 import type { FieldValues, Path, UseFormSetError } from 'react-hook-form';
+import { ApiError, requestJson, type Fallback, type RequestOptions } from './request';
 
-export type FieldMessages = Record<string, string[]>;
+export { ApiError, errorFrom, parseRetryAfter, requestJson } from './request';
+export type { Fallback, FieldMessages, RequestOptions } from './request';
 
-/** Every failed API call becomes one of these, shaped like the server's error body. */
-export class ApiError extends Error {
-  readonly status: number;
-  readonly code: string;
-  readonly fields?: FieldMessages;
-  readonly retryAfter?: number;
-  readonly id?: string;
-
-  constructor(status: number, code: string, message: string, extra: { fields?: FieldMessages; retryAfter?: number; id?: string } = {}) {
-    super(message);
-    this.name = 'ApiError';
-    this.status = status;
-    this.code = code;
-    this.fields = extra.fields;
-    this.retryAfter = extra.retryAfter;
-    this.id = extra.id;
-  }
-}
-
-// Used when a response carries no readable error body (a proxy page, an empty 502 ...).
+// What a failure reads when the response carries no readable error body (a proxy page, an empty 502 ...).
 const FALLBACK: Record<number, [string, string]> = {
   400: ['bad_request', 'The request could not be read. Reload the page and try again.'],
   401: ['unauthorized', 'Sign in to continue. Your session may have ended.'],
@@ -30,62 +15,28 @@ const FALLBACK: Record<number, [string, string]> = {
   404: ['not_found', 'That was not found. It may have been removed.'],
   409: ['conflict', 'That conflicts with the current state. Reload and try again.'],
   410: ['gone', 'That link has expired or was already used.'],
+  413: ['payload_too_large', 'That is larger than the server accepts. Send less data.'],
   415: ['unsupported_media_type', 'The request was sent in a format the server does not accept.'],
   422: ['validation_failed', 'Some fields need attention.'],
   429: ['rate_limited', 'Too many attempts. Wait a moment and try again.'],
 };
 
-interface ErrorBodyShape {
-  error?: { code?: unknown; message?: unknown; fields?: unknown; retryAfter?: unknown; id?: unknown };
-}
+const appFallback: Fallback = (status) => {
+  const [code, message] = FALLBACK[status] ?? ['internal', 'Something went wrong on our side. Try again in a moment.'];
+  return { code, message };
+};
 
-function isFieldMessages(v: unknown): v is FieldMessages {
-  if (!v || typeof v !== 'object' || Array.isArray(v)) return false;
-  return Object.values(v).every((m) => Array.isArray(m) && m.every((s) => typeof s === 'string'));
-}
+const NETWORK_MESSAGE = 'Could not reach Stochos. Check your connection and try again.';
 
-function errorFrom(res: Response, body: unknown): ApiError {
-  const [fallbackCode, fallbackMessage] = FALLBACK[res.status] ?? ['internal', 'Something went wrong on our side. Try again in a moment.'];
-  const e = (body as ErrorBodyShape | null)?.error;
-  const headerRetry = Number(res.headers.get('retry-after'));
-  const retryAfter = typeof e?.retryAfter === 'number' ? e.retryAfter : Number.isFinite(headerRetry) && headerRetry > 0 ? headerRetry : undefined;
-  return new ApiError(
-    res.status,
-    typeof e?.code === 'string' ? e.code : fallbackCode,
-    typeof e?.message === 'string' && e.message ? e.message : fallbackMessage,
-    { fields: isFieldMessages(e?.fields) ? e.fields : undefined, retryAfter, id: typeof e?.id === 'string' ? e.id : undefined },
-  );
-}
+const APP: RequestOptions = { fallback: appFallback, networkMessage: NETWORK_MESSAGE };
 
-async function request<T>(method: string, url: string, body?: unknown): Promise<T> {
-  const headers: Record<string, string> = { accept: 'application/json' };
-  if (body !== undefined) headers['content-type'] = 'application/json';
-  let res: Response;
-  try {
-    res = await fetch(url, { method, headers, body: body === undefined ? undefined : JSON.stringify(body), credentials: 'same-origin' });
-  } catch {
-    throw new ApiError(0, 'network', 'Could not reach Stochos. Check your connection and try again.');
-  }
-  if (res.status === 204) return undefined as T;
-  const text = await res.text();
-  let parsed: unknown = null;
-  if (text) {
-    try {
-      parsed = JSON.parse(text);
-    } catch {
-      parsed = null;
-    }
-  }
-  if (!res.ok) throw errorFrom(res, parsed);
-  return parsed as T;
-}
-
+/** JSON bodies are sent as JSON; a FormData body goes as multipart (an upload). */
 export const api = {
-  get: <T>(url: string) => request<T>('GET', url),
-  post: <T>(url: string, body?: unknown) => request<T>('POST', url, body ?? {}),
-  patch: <T>(url: string, body: unknown) => request<T>('PATCH', url, body),
-  put: <T>(url: string, body: unknown) => request<T>('PUT', url, body),
-  delete: <T = void>(url: string) => request<T>('DELETE', url),
+  get: <T>(url: string) => requestJson<T>(url, APP),
+  post: <T>(url: string, body?: unknown) => requestJson<T>(url, { ...APP, method: 'POST', body: body ?? {} }),
+  patch: <T>(url: string, body: unknown) => requestJson<T>(url, { ...APP, method: 'PATCH', body }),
+  put: <T>(url: string, body: unknown) => requestJson<T>(url, { ...APP, method: 'PUT', body }),
+  delete: <T = void>(url: string) => requestJson<T>(url, { ...APP, method: 'DELETE' }),
 };
 
 /** SWR fetcher: the key is the URL. */
@@ -101,6 +52,12 @@ export function errorMessage(err: unknown): string {
   }
   if (err instanceof Error && err.message) return err.message;
   return 'Something went wrong. Try again in a moment.';
+}
+
+/** The server's message for one field of a 422 (joined), if it gave one. */
+export function fieldMessage(err: unknown, field: string): string | undefined {
+  const m = err instanceof ApiError ? err.fields?.[field] : undefined;
+  return m?.length ? m.join(' ') : undefined;
 }
 
 export function formatWait(seconds: number): string {

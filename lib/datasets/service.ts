@@ -1,4 +1,5 @@
 import 'server-only';
+import type { DatasetCreated, DatasetDetail, DatasetUseRecorded } from '@/lib/api-types';
 import { createHash } from 'node:crypto';
 import { z } from 'zod';
 import { AppError, notFound } from '@/lib/http/errors';
@@ -10,7 +11,7 @@ import { getModel } from '@/db/models';
 import type { Member } from '@/lib/auth/guard';
 import { columnError, MAX_UPLOAD_BYTES, readColumn, readCsv } from './csv';
 import { CRITICAL_VALUE_NOTE, fitAll, TooFewValuesError, type FitResult } from './fit';
-import { summarise, type DatasetSummary } from './summary';
+import { summarise } from './summary';
 import { LAWS } from './fit';
 import { datasetCsv } from './export';
 
@@ -28,7 +29,7 @@ export const uploadFieldsSchema = z.object({
 const fail = (field: string, message: string) => new AppError('validation_failed', message, { fields: { [field]: [message] } });
 
 /** Reads a multipart upload (a file, or a pasted column as `text`), checks it all, and stores it; nothing is stored on any failure. */
-export async function uploadDataset(m: Member, req: Request): Promise<{ id: string }> {
+export async function uploadDataset(m: Member, req: Request): Promise<DatasetCreated> {
   const type = req.headers.get('content-type') ?? '';
   if (!type.startsWith('multipart/form-data')) throw new AppError('unsupported_media_type', 'Send the upload as multipart/form-data (a file or a pasted column).');
   // The file may be 5 MB; the form around it gets 64 KiB more. Bytes are counted as they arrive (413 beyond).
@@ -74,14 +75,7 @@ export async function uploadDataset(m: Member, req: Request): Promise<{ id: stri
   return { id };
 }
 
-export interface DatasetDetail {
-  dataset: Omit<DatasetRecord, 'values'> & { values: number[] };
-  summary: DatasetSummary;
-  fits: FitResult[] | null;
-  fitRefused: string | null;
-  criticalValueNote: string;
-  usedBy: { id: string; title: string }[];
-}
+export type { DatasetDetail };
 
 export function fitDataset(values: number[]): { fits: FitResult[] | null; fitRefused: string | null } {
   try {
@@ -117,7 +111,7 @@ export const useSchema = z.object({
   method: z.enum(['empirical', ...LAWS], { error: 'Say how the model uses the dataset: empirical or a fitted law.' }),
 });
 
-export async function recordUse(m: Member, id: string, body: z.infer<typeof useSchema>): Promise<{ id: string; hash: string }> {
+export async function recordUse(m: Member, id: string, body: z.infer<typeof useSchema>): Promise<DatasetUseRecorded> {
   return writeTransaction(async (trx) => {
     const ds = await getDataset(m.firmId, id, trx);
     if (!ds) throw notFound('That dataset');

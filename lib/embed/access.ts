@@ -4,7 +4,7 @@ import { getEmbedAccess, type EmbedAccessRow, type EmbedPass } from '@/db/embed-
 import { getPublishedWidgetMeta, type PublishedWidget } from '@/db/widgets';
 import { getFirm } from '@/db/firms';
 import { versionModel } from '@/lib/embed/model-cache';
-import { AppError } from '@/lib/http/errors';
+import { AppError, titled } from '@/lib/http/errors';
 import { peekPassToken, verifyPassToken, verifySessionToken, type SessionClaims } from '@/lib/embed/tokens';
 import { viewerMessage, type AccessFailure } from '@/lib/embed/messages';
 
@@ -109,10 +109,10 @@ export interface Viewer extends Granted {
 export async function requireViewer(req: Request, passId: string): Promise<Viewer> {
   const header = req.headers.get('authorization') ?? '';
   const m = /^Bearer\s+([A-Za-z0-9_.-]+)$/.exec(header);
-  if (!m) throw new AppError('unauthorized', 'This widget needs its access token. Reload the page.');
+  if (!m) throw titled('unauthorized', 'This widget needs its access token', 'Reload the page.');
   const v = await verifySessionToken(m[1]!);
   if (!v.ok) {
-    throw new AppError('unauthorized', v.failure === 'expired' ? 'The viewing session has ended. Reload the page to continue.' : 'The access token is not valid. Reload the page.');
+    throw v.failure === 'expired' ? titled('unauthorized', 'The viewing session has ended', 'Reload the page to continue.') : titled('unauthorized', 'The access token is not valid', 'Reload the page.');
   }
   if (!UUID.test(passId) || v.claims.passId !== passId) throw new AppError('forbidden', 'This access token was issued for another widget.');
   const a = await getEmbedAccess(passId, v.claims.passJti);

@@ -1,18 +1,8 @@
 import { z } from 'zod';
 
-export type ErrorCode =
-  | 'bad_request'
-  | 'unauthorized'
-  | 'forbidden'
-  | 'not_found'
-  | 'conflict'
-  | 'gone'
-  | 'payload_too_large'
-  | 'unsupported_media_type'
-  | 'validation_failed'
-  | 'rate_limited'
-  | 'unavailable'
-  | 'internal';
+import type { ErrorCode, FieldErrors, ErrorBody } from '@/lib/api-types';
+
+export type { ErrorCode, FieldErrors, ErrorBody };
 
 const STATUS: Record<ErrorCode, number> = {
   bad_request: 400,
@@ -29,22 +19,23 @@ const STATUS: Record<ErrorCode, number> = {
   unavailable: 503,
 };
 
-export type FieldErrors = Record<string, string[]>;
-
 /** The one error type of the server layer; `toErrorResponse` maps it to JSON. */
 export class AppError extends Error {
   readonly code: ErrorCode;
   readonly status: number;
   readonly fields?: FieldErrors;
   readonly retryAfter?: number;
+  /** A heading the message starts with, for pages that show the two apart (the embed notice). */
+  readonly title?: string;
 
-  constructor(code: ErrorCode, message: string, extra: { fields?: FieldErrors; retryAfter?: number } = {}) {
+  constructor(code: ErrorCode, message: string, extra: { fields?: FieldErrors; retryAfter?: number; title?: string } = {}) {
     super(message);
     this.name = 'AppError';
     this.code = code;
     this.status = STATUS[code];
     this.fields = extra.fields;
     this.retryAfter = extra.retryAfter;
+    this.title = extra.title;
   }
 }
 
@@ -52,6 +43,9 @@ export const unauthorized = (m = 'Sign in to continue.') => new AppError('unauth
 export const forbidden = (m = 'Your role does not allow this.') => new AppError('forbidden', m);
 export const notFound = (what = 'That record') => new AppError('not_found', `${what} was not found.`);
 export const conflict = (m: string) => new AppError('conflict', m);
+
+/** A refusal told as a heading and a sentence: the message reads "Title. Body." and carries the title apart. */
+export const titled = (code: ErrorCode, title: string, body: string) => new AppError(code, `${title}. ${body}`, { title });
 
 /** zod issues → `{ "a.b.0": ["message"] }`; the root path is "_". */
 export function fieldsFromZod(error: z.ZodError): FieldErrors {
@@ -71,7 +65,3 @@ export function fieldError(field: string, message: string): AppError {
   return new AppError('validation_failed', message, { fields: { [field]: [message] } });
 }
 
-/** JSON error body shared by every route handler: `{ error: { code, message, fields?, retryAfter?, id? } }`. */
-export interface ErrorBody {
-  error: { code: ErrorCode; message: string; fields?: FieldErrors; retryAfter?: number; id?: string };
-}

@@ -13,7 +13,7 @@ export function toErrorResponse(err: unknown, requestId: string = randomUUID()):
     const headers: Record<string, string> = {};
     if (err.retryAfter) headers['Retry-After'] = String(err.retryAfter);
     return NextResponse.json(
-      { error: { code: err.code, message: err.message, fields: err.fields, retryAfter: err.retryAfter } },
+      { error: { code: err.code, message: err.message, fields: err.fields, retryAfter: err.retryAfter, title: err.title } },
       { status: err.status, headers },
     );
   }

@@ -29,6 +29,7 @@ import { utcStamp } from '@/lib/models/templates';
 import { notifyCheckDecided, notifyCheckRequested, notifyWidgetPublished } from '@/lib/notifications/queue';
 import type { CheckInput, CreateModelInput, PublishInput, SaveVersionInput, WidgetPatchInput } from '@/lib/models/schemas';
 import type { ModelRecord, VersionRecord, VersionSummary, WidgetRecord } from '@/lib/models/types';
+import type { ModelDetail } from '@/lib/api-types';
 
 // The studio's rules: versions are immutable and numbered without gaps, a later save never silently overwrites,
 // checkers never check their own work, and only checked versions reach clients unless the firm says otherwise.
@@ -41,13 +42,7 @@ export interface ModelAbilities {
   publish: boolean;
 }
 
-export interface ModelDetail {
-  model: ModelRecord;
-  versions: VersionSummary[];
-  latest: VersionRecord | null;
-  widget: WidgetRecord | null;
-  requireCheck: boolean;
-}
+export type { ModelDetail };
 
 async function mustGetModel(firmId: string, id: string, trx?: Knex.Transaction): Promise<ModelRecord> {
   const m = await getModel(firmId, id, trx);

@@ -1,4 +1,4 @@
-import type { Role } from '@/db/users';
+import type { Role } from '@/lib/api-types';
 
 // The kinds of notification e-mail, who receives each and how the settings page names it. Shared by the server
 // (queueing) and the browser (the settings card), so it imports nothing server-only.

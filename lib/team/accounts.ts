@@ -1,4 +1,5 @@
 import 'server-only';
+import type { InvitationView } from '@/lib/api-types';
 import { z } from 'zod';
 import { writeTransaction } from '@/db/knex';
 import { findUserIdByEmail, hasActiveMembership, insertUser, bumpSessionVersion, getUserCredentials, markEmailVerified, type Role } from '@/db/users';
@@ -117,7 +118,7 @@ function assertInvitationUsable(inv: Awaited<ReturnType<typeof getInvitationByTo
   if (Date.parse(inv.expiresAt) < Date.now()) throw new AppError('gone', 'This invitation has expired. Ask the firm’s owner to send a new one.');
 }
 
-export async function describeInvitation(token: string) {
+export async function describeInvitation(token: string): Promise<InvitationView> {
   const inv = await getInvitationByToken(token);
   assertInvitationUsable(inv);
   return { firmName: inv.firmName, email: inv.email, role: inv.role, expiresAt: inv.expiresAt, existingAccount: Boolean(await findUserIdByEmail(inv.email)) };

@@ -1,15 +1,11 @@
 import 'server-only';
+import type { SeatUsage } from '@/lib/api-types';
 import type { Knex } from 'knex';
 import { countActiveByRole, countLiveInvitations } from '@/db/team';
 import { getSeatAllowance } from '@/lib/team/seat-allowance';
 import { AppError } from '@/lib/http/errors';
 
-export interface SeatUsage {
-  allowed: number;
-  used: number;
-  pendingInvitations: number;
-  reason: string;
-}
+export type { SeatUsage };
 
 /** Seats are authors and checkers; the owner and client viewers are free. */
 export async function seatUsage(firmId: string, trx?: Knex.Transaction): Promise<SeatUsage> {

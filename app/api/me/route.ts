@@ -1,9 +1,10 @@
 import { route, json } from '@/lib/http/handler';
 import { requireMember } from '@/lib/auth/guard';
 import { PERMISSIONS, can, type Permission } from '@/lib/auth/permissions';
+import type { Me } from '@/lib/api-types';
 
 export const GET = route(async () => {
   const m = await requireMember();
   const permissions = (Object.keys(PERMISSIONS) as Permission[]).filter((p) => can(m.role, p));
-  return json({ user: { id: m.userId, name: m.name, email: m.email }, firm: { id: m.firmId, name: m.firmName }, role: m.role, permissions });
+  return json<Me>({ user: { id: m.userId, name: m.name, email: m.email }, firm: { id: m.firmId, name: m.firmName }, role: m.role, permissions });
 });

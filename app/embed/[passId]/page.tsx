@@ -31,7 +31,7 @@ export default async function EmbedPage({ params, searchParams }: { params: Prom
   if (claimed && !allowed) return <EmbedNotice {...viewerMessage('origin', r.firmName)} firmName={r.firmName} />;
   return (
     <>
-      <EmbedApp passId={r.pass.id} origin={allowed} firmName={r.firmName} />
+      <EmbedApp passId={r.pass.id} origin={allowed} firmName={r.firmName} noPass={viewerMessage('missing', null)} />
       <FrameFit origin={allowed} />
     </>
   );

@@ -44,31 +44,9 @@ import { randomBytes } from 'node:crypto';
 import { simpleParser, type AddressObject, type ParsedMail } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import { refuseUnlessLocal } from '../local-only';
+import type { MailboxAttachment, MailboxMessage } from '@/lib/api-types';
 
-export interface MailboxAttachment {
-  index: number;
-  filename: string | null;
-  contentType: string;
-  size: number;
-  contentId: string | null;
-}
-
-export interface MailboxMessage {
-  id: string;
-  receivedAt: string;
-  date: string | null;
-  messageId: string | null;
-  from: string | null;
-  fromName: string | null;
-  to: string[];
-  cc: string[];
-  envelopeTo: string[];
-  subject: string;
-  text: string;
-  html: string | null;
-  attachments: MailboxAttachment[];
-  size: number;
-}
+export type { MailboxAttachment, MailboxMessage };
 
 export interface FakeSmtpOptions {
   /** SMTP port; 0 picks a free one. Default 2525. */

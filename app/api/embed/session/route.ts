@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { NextResponse } from 'next/server';
 import { route, readJson } from '@/lib/http/handler';
-import { AppError } from '@/lib/http/errors';
+import { titled } from '@/lib/http/errors';
 import { checkPass } from '@/lib/embed/access';
 import { viewerMessage } from '@/lib/embed/messages';
 import { normaliseOrigin } from '@/lib/embed/schemas';
@@ -24,14 +24,14 @@ export const POST = route(async (req) => {
   const r = await checkPass(input.passId, input.pass);
   if (!r.ok) {
     const msg = viewerMessage(r.failure, r.firmName);
-    throw new AppError(r.failure === 'mismatch' ? 'forbidden' : 'unauthorized', `${msg.title}. ${msg.body}`);
+    throw titled(r.failure === 'mismatch' ? 'forbidden' : 'unauthorized', msg.title, msg.body);
   }
   let origin: string | null = null;
   if (input.origin) {
     const o = normaliseOrigin(input.origin);
     if (!o.ok || !r.client.allowedOrigins.includes(o.origin)) {
       const msg = viewerMessage('origin', r.widget.firmName);
-      throw new AppError('forbidden', `${msg.title}. ${msg.body}`);
+      throw titled('forbidden', msg.title, msg.body);
     }
     origin = o.origin;
   }
