@@ -6,7 +6,7 @@ import { AppError, notFound } from '@/lib/http/errors';
 import { readForm } from '@/lib/http/handler';
 import { writeTransaction } from '@/db/knex';
 import { recordAudit } from '@/db/audit';
-import { archiveDataset, getDataset, insertDataset, listDatasets, modelsUsingDataset, recordDatasetUse, type DatasetRecord, type DatasetRow } from '@/db/datasets';
+import { archiveDataset, getDataset, insertDataset, listDatasets, modelsUsingDataset, recordDatasetUse, type DatasetRow } from '@/db/datasets';
 import { getModel } from '@/db/models';
 import type { Member } from '@/lib/auth/guard';
 import { columnError, MAX_UPLOAD_BYTES, readColumn, readCsv } from './csv';
