@@ -9,7 +9,9 @@ import type { CheckedModel } from '@/lib/engine/checked-model';
 // Snapshot jobs (migrations/20261201000600_snapshots.ts). The worker's state changes are conditional on the
 // job's current state and lease holder, so two workers can never both move the same job forward.
 
-export type SnapshotState = 'queued' | 'rendering' | 'sending' | 'sent' | 'failed';
+import type { SnapshotListRow, SnapshotState } from '@/lib/api-types';
+
+export type { SnapshotListRow, SnapshotState };
 
 export interface SnapshotJob {
   id: string;
@@ -223,19 +225,6 @@ export async function getSnapshotContext(jobId: string): Promise<SnapshotContext
   };
 }
 
-export interface SnapshotListRow {
-  id: string;
-  createdAt: string;
-  clientId: string;
-  clientName: string;
-  widgetId: string;
-  widgetTitle: string;
-  recipient: string;
-  state: SnapshotState;
-  attempts: number;
-  lastError: string | null;
-  sentAt: string | null;
-}
 
 export async function listSnapshotJobs(firmId: string, opts: { clientId?: string; limit?: number } = {}): Promise<SnapshotListRow[]> {
   const q = getDb()('snapshot_jobs as j')

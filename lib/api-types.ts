@@ -5,6 +5,7 @@ import type { NotificationKind } from '@/lib/notifications/kinds';
 import type { ModelRecord, VersionRecord, VersionSummary, WidgetRecord } from '@/lib/models/types';
 import type { DatasetSummary } from '@/lib/datasets/summary';
 import type { FitResult } from '@/lib/datasets/fit';
+import type { BillingStatus } from '@/lib/billing/status';
 
 // ── Errors ────────────────────────────────────────────────────────────────────────────────────────────────────
 
@@ -236,4 +237,78 @@ export interface MailboxMessage {
   html: string | null;
   attachments: MailboxAttachment[];
   size: number;
+}
+
+// ── Billing ─────────────────────────────────────────────────────────────────────────────────────────────────
+
+export interface Plan {
+  priceId: string;
+  name: string;
+  unitAmount: number;
+  currency: string;
+  interval: string;
+}
+
+export interface SeatPreview {
+  seats: number;
+  currentSeats: number;
+  currency: string;
+  unitAmount: number | null;
+  /** Charged now for the rest of the period (0 when seats go down). */
+  dueNow: number;
+  /** Net of the proration lines; negative is a credit used against later invoices. */
+  prorationTotal: number;
+  lines: { description: string; amount: number }[];
+  periodEnd: string | null;
+  /** What each following month costs at the new quantity. */
+  nextPeriodAmount: number | null;
+  prorationDate: number;
+  quote: string;
+}
+
+export interface InvoiceView {
+  id: string;
+  number: string | null;
+  status: 'paid' | 'failed' | 'open' | 'void' | 'uncollectible' | 'draft';
+  total: number;
+  amountPaid: number;
+  amountDue: number;
+  currency: string;
+  seats: number | null;
+  periodStart: string | null;
+  periodEnd: string | null;
+  createdAt: string;
+  hostedInvoiceUrl: string | null;
+}
+
+export interface BillingSummary {
+  firmName: string;
+  provider: 'local fake' | 'stripe';
+  status: BillingStatus;
+  plan: Omit<Plan, 'priceId'> | null;
+  seats: { paid: number | null; allowed: number; used: number; pendingInvitations: number };
+  subscription: { id: string; status: string; quantity: number; currentPeriodEnd: string | null; cancelAtPeriodEnd: boolean } | null;
+  upcoming: { date: string | null; amount: number; currency: string } | null;
+  invoices: InvoiceView[];
+  /** Set when the payment provider could not be reached for the live parts (price, next invoice). */
+  providerError: string | null;
+  limits: { min: number; max: number };
+}
+
+// ── Snapshots ───────────────────────────────────────────────────────────────────────────────────────────────
+
+export type SnapshotState = 'queued' | 'rendering' | 'sending' | 'sent' | 'failed';
+
+export interface SnapshotListRow {
+  id: string;
+  createdAt: string;
+  clientId: string;
+  clientName: string;
+  widgetId: string;
+  widgetTitle: string;
+  recipient: string;
+  state: SnapshotState;
+  attempts: number;
+  lastError: string | null;
+  sentAt: string | null;
 }

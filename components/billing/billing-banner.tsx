@@ -1,19 +1,18 @@
-import 'server-only';
 import Link from 'next/link';
 import type { Role } from '@/lib/api-types';
-import { billingStatus, authoringBlockedMessage } from '@/lib/billing/access';
+import type { BillingStatus } from '@/lib/billing/status';
 import { Banner } from '@/components/ui/banner';
 import { billingDate, statusSentence } from './status-words';
 
 const TRIAL_WARNING_DAYS = 3;
 
 /**
- * The billing notice across the dashboard (server component, database only, no call to Stripe).
+ * The billing notice across the dashboard. The layout reads the status (database only, no call to Stripe) and the
+ * read-only message the server gives for it.
  * Owners see what needs doing (trial ending, payment overdue, read-only, ending subscription); authors and checkers
  * see no billing data, only that editing is paused when it is.
  */
-export async function BillingBanner({ firmId, role }: { firmId: string; role: Role }) {
-  const s = await billingStatus(firmId);
+export function BillingBanner({ status: s, blockedMessage, role }: { status: BillingStatus; blockedMessage: string | null; role: Role }) {
   if (role !== 'owner') {
     if (s.authoring) return null;
     return (
@@ -35,7 +34,7 @@ export async function BillingBanner({ firmId, role }: { firmId: string; role: Ro
     case 'canceled':
       return (
         <Banner tone="danger" title="Models are read-only">
-          {authoringBlockedMessage(s)?.replace(' on the Billing page (/app/billing)', '')} {link}
+          {blockedMessage?.replace(' on the Billing page (/app/billing)', '')} {link}
         </Banner>
       );
     case 'trial':

@@ -1,4 +1,4 @@
-import type { Role } from '@/db/users';
+import type { Role } from '@/lib/api-types';
 
 // Who may do what inside a firm. The owner runs the account; seats (authors, checkers) do the engineering.
 export const PERMISSIONS = {

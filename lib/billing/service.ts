@@ -12,7 +12,10 @@ import { seatUsage, type SeatUsage } from '@/lib/team/seats';
 import { billingStatus, defaultTrialEnd } from './access';
 import { MAX_SEATS, MIN_SEATS, SEAT_PRICE_LOOKUP_KEY } from './plan';
 import { providerError } from './provider-errors';
-import { currentSubscription, seatsWord, type BillingStatus } from './status';
+import { currentSubscription, seatsWord } from './status';
+import type { BillingSummary, InvoiceView, Plan, SeatPreview } from '@/lib/api-types';
+
+export type { BillingSummary, InvoiceView, Plan, SeatPreview };
 import { stripe, usingFakeStripe } from './stripe';
 
 // The owner's billing actions. The firm always comes from the signed-in member, never from the request body.
@@ -22,13 +25,6 @@ const appUrl = () => env().APP_URL.replace(/\/+$/, '');
 
 // ---------- price ----------
 
-export interface Plan {
-  priceId: string;
-  name: string;
-  unitAmount: number;
-  currency: string;
-  interval: string;
-}
 
 let planCache: { at: number; key: string; plan: Plan } | null = null;
 
@@ -175,22 +171,6 @@ function checkQuote(firmId: string, subId: string, seats: number, prorationDate:
   if (Date.now() - issuedAt > QUOTE_MINUTES * 60_000) throw fieldError('quote', `The price preview is older than ${QUOTE_MINUTES} minutes. Preview the change again.`);
 }
 
-export interface SeatPreview {
-  seats: number;
-  currentSeats: number;
-  currency: string;
-  unitAmount: number | null;
-  /** Charged now for the rest of the period (0 when seats go down). */
-  dueNow: number;
-  /** Net of the proration lines; negative is a credit used against later invoices. */
-  prorationTotal: number;
-  lines: { description: string; amount: number }[];
-  periodEnd: string | null;
-  /** What each following month costs at the new quantity. */
-  nextPeriodAmount: number | null;
-  prorationDate: number;
-  quote: string;
-}
 
 async function checkedChange(m: Member, seats: number): Promise<SubscriptionRow> {
   assertSeatRange(seats);
@@ -270,34 +250,7 @@ export async function setCancelAtPeriodEnd(m: Member, cancel: boolean): Promise<
 
 // ---------- summary ----------
 
-export interface InvoiceView {
-  id: string;
-  number: string | null;
-  status: 'paid' | 'failed' | 'open' | 'void' | 'uncollectible' | 'draft';
-  total: number;
-  amountPaid: number;
-  amountDue: number;
-  currency: string;
-  seats: number | null;
-  periodStart: string | null;
-  periodEnd: string | null;
-  createdAt: string;
-  hostedInvoiceUrl: string | null;
-}
 
-export interface BillingSummary {
-  firmName: string;
-  provider: 'local fake' | 'stripe';
-  status: BillingStatus;
-  plan: Omit<Plan, 'priceId'> | null;
-  seats: { paid: number | null; allowed: number; used: number; pendingInvitations: number };
-  subscription: { id: string; status: string; quantity: number; currentPeriodEnd: string | null; cancelAtPeriodEnd: boolean } | null;
-  upcoming: { date: string | null; amount: number; currency: string } | null;
-  invoices: InvoiceView[];
-  /** Set when the payment provider could not be reached for the live parts (price, next invoice). */
-  providerError: string | null;
-  limits: { min: number; max: number };
-}
 
 function invoiceView(i: InvoiceRow): InvoiceView {
   const status = i.status === 'open' && i.attemptCount > 0 ? 'failed' : (i.status as InvoiceView['status']);
