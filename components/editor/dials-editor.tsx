@@ -7,7 +7,7 @@ import { controlClasses } from '@/components/ui/field';
 import type { StochosModel } from '@/lib/engine/schema';
 import { useEditor } from './editor-context';
 import { FieldShell, GroupMessages, KeyInput, InlineMessages, NumberInput, RowMessages, TextInput } from './fields';
-import { allIds, dialTargetOptions, makeId, suggestDial, targetKey, type DialTargetOption } from './model-helpers';
+import { allIds, dialTargetOptions, makeId, suggestDial, targetKey, type DialTargetOption, type WatchedDraft } from './model-helpers';
 import { EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
 import type { ModelDraft } from './form-values';
 
@@ -63,7 +63,7 @@ function TargetSelect({ index, options, what }: { index: number; options: DialTa
 }
 
 /** Which parameters and limits a client viewer may move, each with label, unit, range, step and default. */
-export function DialsEditor({ model }: { model: StochosModel }) {
+export function DialsEditor({ model }: { model: StochosModel | WatchedDraft }) {
   const { control, getValues } = useFormContext();
   const { readOnly, idFor } = useEditor();
   const { fields, append, remove, move } = useFieldArray({ control, name: 'dials', keyName: '_key' });

@@ -10,15 +10,9 @@ import { useEditor } from './editor-context';
 import { AddButton, RowButtons } from './parts';
 import { DISTRIBUTION_KINDS, distributionKind, reshapeDistribution, type DistributionKind } from './model-helpers';
 import { shortNumber } from './numbers';
+import type { DistributionDraft, FormulaDraft } from './form-values';
 
-interface DistValue {
-  type?: string;
-  min?: number;
-  max?: number;
-  values?: number[];
-  probabilities?: number[];
-  points?: { x?: number; y?: number }[];
-}
+type DraftOf<T extends DistributionDraft['type']> = Extract<DistributionDraft, { type?: T }>;
 
 /** The law select: a truncated normal is offered as its own choice but stored as a normal with bounds. */
 function KindSelect({ path, what, kind }: { path: string; what: string; kind: DistributionKind | undefined }) {
@@ -34,7 +28,10 @@ function KindSelect({ path, what, kind }: { path: string; what: string; kind: Di
             disabled={readOnly}
             aria-invalid={invalid || undefined}
             aria-describedby={describedBy}
-            onChange={(e) => setValue(path, reshapeDistribution(getValues(path), e.target.value as DistributionKind), { shouldDirty: true })}
+            onChange={(e) => {
+              const next = DISTRIBUTION_KINDS.find((k) => k.value === e.target.value)?.value;
+              if (next) setValue(path, reshapeDistribution(getValues(path), next), { shouldDirty: true });
+            }}
             className={controlClasses(invalid, 'h-8 appearance-none pr-7 pl-2 text-sm')}
           >
             {kind ? null : <option value="">Choose a distribution…</option>}
@@ -53,7 +50,7 @@ function KindSelect({ path, what, kind }: { path: string; what: string; kind: Di
   );
 }
 
-function DiscreteRows({ path, what, d }: { path: string; what: string; d: DistValue }) {
+function DiscreteRows({ path, what, d }: { path: string; what: string; d: DraftOf<'discrete'> }) {
   const { setValue } = useFormContext();
   const values = d.values ?? [];
   const probs = d.probabilities ?? [];
@@ -133,7 +130,7 @@ function DrawnPreview({ points, what }: { points: { x?: number; y?: number }[]; 
   );
 }
 
-function DrawnRows({ path, what, d }: { path: string; what: string; d: DistValue }) {
+function DrawnRows({ path, what, d }: { path: string; what: string; d: DraftOf<'drawn'> }) {
   const { setValue } = useFormContext();
   const points = d.points ?? [];
   return (
@@ -192,9 +189,8 @@ function DrawnRows({ path, what, d }: { path: string; what: string; d: DistValue
 }
 
 /** Picks a law and shows exactly the parameter fields that law takes. */
-export function DistributionPicker({ path, what, unit }: { path: string; what: string; unit?: string }) {
-  const { control } = useFormContext();
-  const d = (useWatch({ control, name: path }) ?? {}) as DistValue;
+export function DistributionPicker({ path, what, unit }: { path: `inputs.${number}.distribution`; what: string; unit?: string }) {
+  const d = useWatch<FormulaDraft, typeof path>({ name: path });
   const kind = distributionKind(d);
   const u = unit || undefined;
   const num = (key: string, label: string, opts: { unit?: string; placeholder?: string; hint?: string } = {}) => (
@@ -244,7 +240,7 @@ export function DistributionPicker({ path, what, unit }: { path: string; what: s
       params = num('p', 'Probability of 1', { hint: 'Gives 1 with this probability, else 0.' });
       break;
     case 'discrete':
-      params = <DiscreteRows path={path} what={what} d={d} />;
+      params = d?.type === 'discrete' ? <DiscreteRows path={path} what={what} d={d} /> : null;
       break;
     case 'empirical':
       params = (
@@ -254,7 +250,7 @@ export function DistributionPicker({ path, what, unit }: { path: string; what: s
       );
       break;
     case 'drawn':
-      params = <DrawnRows path={path} what={what} d={d} />;
+      params = d?.type === 'drawn' ? <DrawnRows path={path} what={what} d={d} /> : null;
       break;
     default:
       params = null;

@@ -55,7 +55,7 @@ function Inputs() {
                   </div>
                 </div>
                 <div className="mt-2 border-t border-ink-100 pt-2">
-                  <DistributionPicker path={`${p}.distribution`} what={what} unit={row.unit} />
+                  <DistributionPicker path={`inputs.${i}.distribution`} what={what} unit={row.unit} />
                 </div>
               </li>
             );

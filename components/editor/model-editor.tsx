@@ -2,7 +2,7 @@
 
 import { useCallback, useEffect, useId, useMemo, useRef, useState } from 'react';
 import { FormProvider, useForm, useWatch, type FieldErrors } from 'react-hook-form';
-import type { CheckedModel, StochosModel } from '@/lib/engine/schema';
+import type { CheckedModel } from '@/lib/engine/schema';
 import type { ModelDraft } from './form-values';
 import { TEMPLATE_LABELS } from '@/lib/models/templates';
 import { EditorContext, domIdFor, type EditorContextValue } from './editor-context';
@@ -101,7 +101,7 @@ function ProblemList({ messages, prefix }: { messages: FieldMessages; prefix: st
 
 function Dials() {
   // The dial picker reads the draft as it stands; its helpers tolerate missing fields.
-  const all = useWatch() as StochosModel;
+  const all = useWatch<ModelDraft>();
   return <DialsEditor model={all} />;
 }
 

@@ -3,7 +3,8 @@
 import { createMarginal, type DistributionSpec } from '@/lib/engine/distributions';
 import { RESERVED_NAMES } from '@/lib/engine/formula';
 import { DISTRIBUTION_PARAMS, resolveDialTarget, type DialTarget, type Distribution, type StochosModel } from '@/lib/engine/schema';
-import type { DialTargetDraft } from './form-values';
+import type { DeepPartialSkipArrayKey } from 'react-hook-form';
+import type { DialTargetDraft, ModelDraft } from './form-values';
 
 // ---- Ids ---------------------------------------------------------------------------------------------------
 
@@ -209,13 +210,20 @@ function valueAt(model: unknown, path: (string | number)[]): number | undefined 
   return typeof cur === 'number' ? cur : undefined;
 }
 
-/** Everything a dial could move in this model, grouped for a picker; targets the engine would refuse are left out. */
-export function dialTargetOptions(model: StochosModel): DialTargetOption[] {
+/** The editor's draft as watched (react-hook-form's view of it: every field optional). */
+export type WatchedDraft = DeepPartialSkipArrayKey<ModelDraft>;
+
+/**
+ * Everything a dial could move in this model (a checked one or the draft being typed), grouped for a picker;
+ * targets the engine would refuse are left out.
+ */
+export function dialTargetOptions(model: StochosModel | WatchedDraft): DialTargetOption[] {
   const out: DialTargetOption[] = [];
   const add = (group: string, label: string, target: DialTarget, bounds?: [number, number]) => {
     let resolved: ReturnType<typeof resolveDialTarget>;
     try {
-      resolved = resolveDialTarget(model, target, '');
+      // The engine's resolver reads a draft too: a part still missing throws, and the target is left out.
+      resolved = resolveDialTarget(model as StochosModel, target, '');
     } catch {
       return;
     }
@@ -253,7 +261,7 @@ export function dialTargetOptions(model: StochosModel): DialTargetOption[] {
     }
   } else if (model.template === 'formula') {
     for (const inp of model.inputs ?? []) {
-      if (!inp || typeof inp.id !== 'string' || !inp.distribution) continue;
+      if (!inp || typeof inp.id !== 'string' || !inp.distribution?.type) continue;
       for (const p of DISTRIBUTION_PARAMS[inp.distribution.type] ?? []) {
         add(name(inp), PARAM_LABELS[p] ?? p, { kind: 'input-param', inputId: inp.id, param: p }, p === 'p' ? [0, 1] : undefined);
       }
