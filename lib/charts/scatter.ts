@@ -1,3 +1,4 @@
+import { argsort } from '@/lib/engine/sort';
 import { coveringDomain, linear, linearAxis, makeBox, xTickCount, yTickCount, type Axis, type Box } from './axis';
 import { axesNodes, translate, type SceneText } from './frame';
 import { formatPercent, formatValue } from './format';
@@ -116,12 +117,29 @@ export interface ScatterGroup {
   outShare: number;
 }
 
+const ordersByColumn = new WeakMap<object, { n: number; order: Uint32Array }>();
+
+/** Indices i < n of the finite x values, ascending by x (ties in index order): a radix argsort, cached per column. */
+function orderByX(xv: ArrayLike<number>, n: number): Uint32Array {
+  // Only typed arrays (the engine's columns, never edited) are cached.
+  const cache = ArrayBuffer.isView(xv);
+  const kept = cache ? ordersByColumn.get(xv) : undefined;
+  if (kept && kept.n === n) return kept.order;
+  const finite: number[] = [];
+  for (let i = 0; i < n; i++) if (Number.isFinite(xv[i])) finite.push(i);
+  const values = Float64Array.from(finite, (i) => xv[i]);
+  const order = argsort(values).map((k) => finite[k]);
+  if (cache) ordersByColumn.set(xv, { n, order });
+  return order;
+}
+
 /** The table behind a scatter: the input split into equal-count groups, with the output's mean and share beyond the limits in each. */
 export function scatterGroups(xv: ArrayLike<number>, yv: ArrayLike<number>, limits?: SpecLimits, groups = 10): ScatterGroup[] {
   const n = Math.min(xv.length, yv.length);
+  // Trials by x (stable), kept with an input's column: after a dial move only the output changed.
+  const byX = orderByX(xv, n);
   const order: number[] = [];
-  for (let i = 0; i < n; i++) if (Number.isFinite(xv[i]) && Number.isFinite(yv[i])) order.push(i);
-  order.sort((a, b) => xv[a] - xv[b]);
+  for (let j = 0; j < byX.length; j++) if (Number.isFinite(yv[byX[j]])) order.push(byX[j]);
   const g = Math.max(1, Math.min(groups, order.length));
   const out: ScatterGroup[] = [];
   for (let k = 0; k < g; k++) {

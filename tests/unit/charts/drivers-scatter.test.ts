@@ -120,3 +120,32 @@ describe('scatter', () => {
     expect(groups[9].meanY).toBeCloseTo((900 + 999) / 2, 9);
   });
 });
+
+describe('scatter groups from a kept order', () => {
+  it('equal the groups of a plain stable sort, with ties and non-finite values, and again after the output changes', () => {
+    fc.assert(
+      fc.property(fc.array(fc.tuple(fc.integer({ min: -20, max: 20 }), fc.integer({ min: -50, max: 50 })), { minLength: 1, maxLength: 300 }), (pairs) => {
+        const xs = Float64Array.from(pairs, ([x], i) => (i % 17 === 5 ? NaN : x / 4));
+        const naive = (ys: Float64Array) => {
+          const order = [...xs.keys()].filter((i) => Number.isFinite(xs[i]) && Number.isFinite(ys[i])).sort((a, b) => xs[a] - xs[b]);
+          return order.map((i) => [xs[i], ys[i]]);
+        };
+        for (const shift of [0, 3]) {
+          const ys = Float64Array.from(pairs, ([, y], i) => (i % 13 === 7 ? Infinity : y + shift));
+          const got = scatterGroups(xs, ys, { upper: 10 }, 4);
+          const rows = naive(ys);
+          const g = Math.max(1, Math.min(4, rows.length));
+          const want = [];
+          for (let k = 0; k < g; k++) {
+            const s = Math.floor((k * rows.length) / g);
+            const e = Math.floor(((k + 1) * rows.length) / g);
+            if (e <= s) continue;
+            const part = rows.slice(s, e);
+            want.push({ from: part[0][0], to: part[part.length - 1][0], trials: e - s, meanY: part.reduce((t, r) => t + r[1], 0) / (e - s), outShare: part.filter((r) => r[1] > 10).length / (e - s) });
+          }
+          expect(got).toEqual(want);
+        }
+      }),
+    );
+  });
+});
