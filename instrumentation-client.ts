@@ -6,3 +6,4 @@
 // Interpreted parsing is as correct and fast enough in forms. tests/unit/hardening/zod-jitless.test.ts checks it.
 const g = globalThis as { __zod_globalConfig?: { jitless?: boolean } };
 (g.__zod_globalConfig ??= {}).jitless = true;
+export {};
