@@ -2,7 +2,7 @@
 
 import { useCallback, useEffect, useRef, useState } from 'react';
 import { WidgetView } from '@/components/widget/widget-view';
-import { createEmbedEngine } from '@/lib/engine/embed-engine';
+import { createEmbedEngine, dropWarmEngine, prewarmEmbedEngine } from '@/lib/engine/embed-engine';
 import type { EmbedWidgetPayload } from '@/lib/embed/payload';
 import { viewerMessage } from '@/lib/embed/messages';
 import { createEmbedClient, EmbedAccessError, type EmbedClient } from './embed-client';
@@ -62,6 +62,8 @@ export function EmbedApp({ passId, origin, firmName }: { passId: string; origin:
 
   useEffect(() => {
     let live = true;
+    // The engine's workers start while the pass and the widget are on their way.
+    prewarmEmbedEngine();
     const wait = receivePass(passId, origin);
     wait.promise
       .then(async (pass) => {
@@ -75,6 +77,7 @@ export function EmbedApp({ passId, origin, firmName }: { passId: string; origin:
       .catch((err: unknown) => {
         if (!live) return;
         const e = err instanceof EmbedAccessError ? err : new EmbedAccessError(0, 'This widget cannot be shown. Check the connection and reload the page.');
+        dropWarmEngine();
         setState({ phase: 'refused', title: e.title, body: e.body });
       });
     const timers = pending.current;
