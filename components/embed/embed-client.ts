@@ -2,6 +2,9 @@
 // a browser would not send the app's cookies inside a cross-site frame, and the page needs none.
 import type { EmbedSessionResponse, EmbedWidgetPayload } from '@/lib/embed/payload';
 
+/** How long the frame waits for the loader's pass before it says the pass is missing. */
+export const PASS_WAIT_MS = 10_000;
+
 export class EmbedAccessError extends Error {
   readonly status: number;
   readonly title: string;
@@ -15,15 +18,21 @@ export class EmbedAccessError extends Error {
   }
 }
 
+/** The error for a refused answer: the server's message, or a plain one for its status. */
+export function accessError(status: number, serverMessage: string | null): EmbedAccessError {
+  const fallback = status === 429 ? 'Too many requests. Wait a moment and try again.' : 'This widget cannot be shown. Reload the page to try again.';
+  return new EmbedAccessError(status, serverMessage ?? fallback);
+}
+
 async function readError(res: Response): Promise<EmbedAccessError> {
-  let message = res.status === 429 ? 'Too many requests. Wait a moment and try again.' : 'This widget cannot be shown. Reload the page to try again.';
+  let message: string | null = null;
   try {
     const b = (await res.json()) as { error?: { message?: unknown } };
     if (typeof b.error?.message === 'string') message = b.error.message;
   } catch {
     // no body
   }
-  return new EmbedAccessError(res.status, message);
+  return accessError(res.status, message);
 }
 
 export interface EmbedClient {
@@ -33,9 +42,10 @@ export interface EmbedClient {
   sendSnapshot(body: { email: string; dialValues: Record<string, number>; version?: number }): Promise<Response>;
 }
 
-export function createEmbedClient(o: { passId: string; pass: string; origin: string | null }): EmbedClient {
-  let token: string | null = null;
-  let expiresAt = 0;
+/** `session`: a token the page already holds for this pass (the early start's exchange). */
+export function createEmbedClient(o: { passId: string; pass: string; origin: string | null; session?: { token: string; expiresAt: number } }): EmbedClient {
+  let token: string | null = o.session?.token ?? null;
+  let expiresAt = (o.session?.expiresAt ?? 0) * 1000;
 
   async function exchange(): Promise<void> {
     const res = await fetch('/api/embed/session', {

@@ -25,12 +25,15 @@ const newWorker = () => new Worker(new URL('./embed-worker.ts', import.meta.url)
 
 /** Workers started ahead of the first run (prewarmEmbedEngine), handed to the next pool. */
 const warm: Worker[] = [];
+let prewarmed = false;
 
 /**
  * Start the pool's workers now, so that fetching and starting their code overlaps with the
  * page's own start (the pass hand-over, the widget request) instead of delaying the first run.
  */
 export function prewarmEmbedEngine(workers: number = defaultPoolSize()): void {
+  if (prewarmed || typeof Worker === 'undefined') return;
+  prewarmed = true;
   while (warm.length < workers) warm.push(newWorker());
 }
 

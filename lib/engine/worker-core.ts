@@ -7,7 +7,7 @@
  */
 import { ChunkRunner, prepareRunWith } from './chunks';
 import { ModelValidationError, SamplingError } from './errors';
-import { yieldToEventLoop } from './merge';
+import { yieldToEventLoop } from './yield';
 import type { ModelCheck } from './set-dials';
 import { partTransferList, type WorkerChunksRequest, type WorkerErrorPayload, type WorkerRequest, type WorkerResponse } from './worker-protocol';
 
