@@ -8,6 +8,8 @@
 import jsep from 'jsep';
 import { compileFormula, FORMULA_CONSTANTS, FORMULA_FUNCTIONS, FormulaError, type BinaryOp, type FormulaFunction, type FormulaNode, type FormulaScope } from './formula';
 import { provideParser } from './optional-parts';
+// The functions formulas may call come with the parser (a formula is parsed before it is compiled).
+import './det-math-extra';
 
 const own = (obj: object, key: string) => Object.prototype.hasOwnProperty.call(obj, key);
 

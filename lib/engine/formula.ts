@@ -10,9 +10,10 @@
  * powers associate to the right (2^3^2 = 2^9).
  */
 import * as detMath from './det-math';
+import { formulaMathPart } from './optional-parts';
 
 // Bound once: module interop in some runtimes turns each imported call into a getter call.
-const { acos, asin, atan, atan2, cos, exp, hypotN, ln, log10, pow, sin, tan } = detMath;
+const { asin, cos, exp, ln, pow, sin } = detMath;
 
 export type BinaryOp = '+' | '-' | '*' | '/' | '^' | '<' | '<=' | '>' | '>=' | '==' | '!=' | '&&' | '||';
 
@@ -143,17 +144,15 @@ const UNARY_FNS: Partial<Record<FormulaFunction, (x: number) => number>> = {
   exp: exp,
   ln: ln,
   log: ln,
-  log10: log10,
   floor: Math.floor,
   ceil: Math.ceil,
   round: Math.round,
   sin: sin,
   cos: cos,
-  tan: tan,
   asin: asin,
-  acos: acos,
-  atan: atan,
 };
+/** Unary functions from det-math-extra.ts (optional-parts.ts): looked up when a formula is compiled. */
+const EXTRA_UNARY = new Set<FormulaFunction>(['log10', 'tan', 'acos', 'atan']);
 
 function vec(run: (start: number, count: number) => Float64Array): Compiled {
   return { scalar: false, run };
@@ -384,7 +383,7 @@ function compileBinary(op: BinaryOp, a: Compiled, b: Compiled): Compiled {
 }
 
 function compileCall(fn: FormulaFunction, args: Compiled[]): Compiled {
-  const unary = own(UNARY_FNS, fn) ? UNARY_FNS[fn] : undefined;
+  const unary = own(UNARY_FNS, fn) ? UNARY_FNS[fn] : EXTRA_UNARY.has(fn) ? formulaMathPart()[fn as 'log10' | 'tan' | 'acos' | 'atan'] : undefined;
   if (unary) {
     const a = args[0];
     if (a.scalar) return { scalar: true, value: unary(a.value) };
@@ -456,6 +455,7 @@ function compileCall(fn: FormulaFunction, args: Compiled[]): Compiled {
     }
     case 'hypot': {
       if (args.length === 1) return compileCall('abs', args);
+      const { hypotN } = formulaMathPart();
       if (args.every((a) => a.scalar)) return { scalar: true, value: hypotN(...args.map((a) => (a as { value: number }).value)) };
       const buf = new Float64Array(FORMULA_BLOCK);
       const vals = new Array<number>(args.length);
@@ -472,6 +472,7 @@ function compileCall(fn: FormulaFunction, args: Compiled[]): Compiled {
       });
     }
     case 'atan2': {
+      const { atan2 } = formulaMathPart();
       const [y, x] = args;
       if (y.scalar && x.scalar) return { scalar: true, value: atan2(y.value, x.value) };
       const buf = new Float64Array(FORMULA_BLOCK);

@@ -1,6 +1,6 @@
 /**
- * Engine parts that only some models need: the formula parser (jsep, formula-parse.ts) for
- * formula models, and the eigendecomposition (ml-matrix, linalg.ts) for correlated inputs.
+ * Engine parts that only some models need: the formula parser (jsep, formula-parse.ts) and the
+ * functions only formulas call (det-math-extra.ts) for formula models, and the eigendecomposition (ml-matrix, linalg.ts) for correlated inputs.
  * The run code (compile.ts, chunks.ts, correlation.ts) reaches them through this module, and
  * each registers itself here when it loads. The schema imports both, so every run checked
  * with the schema (studio, server, tests) has them. The embed runs published, server-checked
@@ -9,12 +9,15 @@
  */
 import type * as Linalg from './linalg';
 import type * as FormulaParse from './formula-parse';
+import type * as DetMathExtra from './det-math-extra';
 
 export type LinalgPart = Pick<typeof Linalg, 'checkCorrelation' | 'symmetricSqrt' | 'inverseSqrt' | 'nearestCorrelation'>;
 export type ParserPart = Pick<typeof FormulaParse, 'parseFormula'>;
+export type FormulaMathPart = Pick<typeof DetMathExtra, 'acos' | 'atan' | 'atan2' | 'hypotN' | 'log10' | 'tan'>;
 
 let linalg: LinalgPart | null = null;
 let parser: ParserPart | null = null;
+let formulaMath: FormulaMathPart | null = null;
 
 export function provideLinalg(part: LinalgPart): void {
   linalg = part;
@@ -22,6 +25,16 @@ export function provideLinalg(part: LinalgPart): void {
 
 export function provideParser(part: ParserPart): void {
   parser = part;
+}
+
+export function provideFormulaMath(part: FormulaMathPart): void {
+  formulaMath = part;
+}
+
+/** Functions only formulas call (det-math-extra.ts, loaded with the parser: a formula is parsed before it is compiled). */
+export function formulaMathPart(): FormulaMathPart {
+  if (!formulaMath) throw new Error('The formula functions are not loaded: call loadPartsFor(model) before preparing a run of a formula model without the schema.');
+  return formulaMath;
 }
 
 /** The correlation code (throws if it was not loaded: a programming error, see loadPartsFor). */
