@@ -8,9 +8,25 @@ const common = [
   { key: 'Cross-Origin-Resource-Policy', value: 'same-site' },
 ];
 
+// Browser bundles take @stdlib's built-in variants directly. Each of these packages picks, at load time, the
+// platform's own Float64Array / Uint*Array / Object.defineProperty when present (always, in every browser the app
+// supports) and otherwise a polyfill, which brings feature tests and a printf-style message formatter along. The
+// engine's math is unchanged (the same built-ins are used); the embed page carries several KiB less. Node keeps the
+// packages as published.
+const stdlibBuiltins = {
+  'utils-define-property': 'lib/builtin.js',
+  'array-float64': 'lib/main.js',
+  'array-uint32': 'lib/main.js',
+  'array-uint16': 'lib/main.js',
+  'array-uint8': 'lib/main.js',
+};
+
 const nextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
+  turbopack: {
+    resolveAlias: Object.fromEntries(Object.entries(stdlibBuiltins).map(([pkg, file]) => [`@stdlib/${pkg}`, { browser: `./node_modules/@stdlib/${pkg}/${file}` }])),
+  },
   // `npm test` type-checks the whole project with `tsc --noEmit` first; the build need not do it twice.
   typescript: { ignoreBuildErrors: true },
   // Native and Node-only packages stay out of the server bundle.

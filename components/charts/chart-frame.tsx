@@ -3,7 +3,6 @@
 import { useId, useState, type ReactNode, type Ref } from 'react';
 import type { Scene } from '@/lib/charts/scene';
 import { cx } from '@/components/ui/cx';
-import { downloadPng, downloadSvg, fileSlug } from './download';
 import { SceneSvg } from './scene-svg';
 
 export interface ChartFrameProps {
@@ -49,16 +48,19 @@ export function ChartFrame({ title, fileTitle, scene, measureRef, table, caption
   const [asTable, setAsTable] = useState(false);
   const [busy, setBusy] = useState(false);
   const [failed, setFailed] = useState<string | null>(null);
-  const name = fileSlug(fileTitle ?? scene.title);
   const offset = scene.nodes[0]?.type === 'group' ? { x: scene.nodes[0].dx ?? 0, y: scene.nodes[0].dy ?? 0 } : undefined;
 
-  async function png() {
+  // The download code (SVG writer, PNG drawing) is fetched on the first click: most viewers never download.
+  async function save(kind: 'png' | 'svg') {
     setBusy(true);
     setFailed(null);
     try {
-      await downloadPng(scene, name);
+      const { downloadPng, downloadSvg, fileSlug } = await import('./download');
+      const name = fileSlug(fileTitle ?? scene.title);
+      if (kind === 'png') await downloadPng(scene, name);
+      else downloadSvg(scene, name);
     } catch (e) {
-      setFailed(e instanceof Error ? e.message : 'The PNG could not be made.');
+      setFailed(e instanceof Error ? e.message : `The ${kind.toUpperCase()} could not be made.`);
     } finally {
       setBusy(false);
     }
@@ -78,11 +80,11 @@ export function ChartFrame({ title, fileTitle, scene, measureRef, table, caption
           </button>
           {downloads ? (
             <>
-              <button type="button" className={TOOL} onClick={() => void png()} disabled={busy} aria-label={`Download ${scene.title} as PNG`}>
+              <button type="button" className={TOOL} onClick={() => void save('png')} disabled={busy} aria-label={`Download ${scene.title} as PNG`}>
                 <Icon d="M8 2v8m0 0 3-3m-3 3L5 7M2.5 11.5v2h11v-2" />
                 PNG
               </button>
-              <button type="button" className={TOOL} onClick={() => downloadSvg(scene, name)} aria-label={`Download ${scene.title} as SVG`}>
+              <button type="button" className={TOOL} onClick={() => void save('svg')} disabled={busy} aria-label={`Download ${scene.title} as SVG`}>
                 <Icon d="M8 2v8m0 0 3-3m-3 3L5 7M2.5 11.5v2h11v-2" />
                 SVG
               </button>

@@ -4,6 +4,9 @@
 import { ApiError, requestJson, type Fallback, type RequestOptions } from '@/lib/client/request';
 import type { EmbedSessionResponse, EmbedWidgetPayload } from '@/lib/embed/payload';
 
+/** How long the frame waits for the loader's pass before it says the pass is missing. */
+export const PASS_WAIT_MS = 10_000;
+
 const CANNOT_SHOW = 'This widget cannot be shown';
 
 // A refusal without a readable body still reads as a heading and a sentence in the frame.
@@ -35,9 +38,16 @@ export interface EmbedClient {
 
 const base: RequestOptions = { credentials: 'omit', cache: 'no-store', fallback: embedFallback };
 
-export function createEmbedClient(o: { passId: string; pass: string; origin: string | null }): EmbedClient {
-  let token: string | null = null;
-  let expiresAt = 0;
+/** The refusal the early start met, as the error the page's own steps would have thrown. */
+export function earlyRefusal(status: number, message: string | null, title: string | null): ApiError {
+  const f = embedFallback(status);
+  return new ApiError(status, f.code, message ?? f.message, { title: title ?? (message ? undefined : f.title) });
+}
+
+/** `session`: a token the page already holds for this pass (the early start's exchange). */
+export function createEmbedClient(o: { passId: string; pass: string; origin: string | null; session?: { token: string; expiresAt: number } }): EmbedClient {
+  let token: string | null = o.session?.token ?? null;
+  let expiresAt = (o.session?.expiresAt ?? 0) * 1000;
 
   async function exchange(): Promise<void> {
     const s = await requestJson<EmbedSessionResponse>('/api/embed/session', { ...base, method: 'POST', body: { passId: o.passId, pass: o.pass, origin: o.origin } });

@@ -1,6 +1,6 @@
 'use client';
 
-import { useCallback, useId, useMemo, useState, type CSSProperties, type ReactNode } from 'react';
+import { lazy, Suspense, useCallback, useId, useMemo, useState, type CSSProperties, type ReactNode } from 'react';
 import { cautionsFor, lowTrialCaution } from '@/lib/cautions';
 import { formatCount, formatDuration } from '@/lib/charts/format';
 import { headlineFigure } from '@/lib/results/headline';
@@ -17,7 +17,6 @@ import { DialControl } from './dial-control';
 import { atDefaults, initialDialValues, type DialSpec } from './dial-values';
 import { modelOutline } from './model-outline';
 import { WidgetChart, type ChartPanel } from './widget-panels';
-import { CompareView } from './compare-view';
 import { PinnedViewContext } from './pin-context';
 import type { RunResult } from '@/lib/engine';
 import type { CheckedModel } from '@/lib/engine/checked-model';
@@ -65,6 +64,9 @@ export interface WidgetViewProps {
   createEngine: () => RunClient;
   className?: string;
 }
+
+// The side-by-side comparison is fetched when a viewer first pins a view, not with the page.
+const CompareView = lazy(() => import('./compare-view').then((m) => ({ default: m.CompareView })));
 
 const CHART_PANELS = new Set<string>(['spread', 'cumulative', 'drivers']);
 
@@ -268,7 +270,11 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
             </div>
           ) : null}
 
-          {pin && result ? <CompareView pinned={pin} current={result} headline={widget.headline} dials={dials} titleId={`${uid}-compare`} /> : null}
+          {pin && result ? (
+            <Suspense fallback={<p className="text-xs text-ink-600">Preparing the comparison…</p>}>
+              <CompareView pinned={pin} current={result} headline={widget.headline} dials={dials} titleId={`${uid}-compare`} />
+            </Suspense>
+          ) : null}
 
           <CautionsList cautions={cautions} />
 

@@ -28,7 +28,7 @@ import { createMarginal, type Marginal } from './distributions';
 import { ModelValidationError } from './errors';
 import { compileFormula, type FormulaNode } from './formula';
 import { compilePlan, type Plan } from './compile';
-import { checkCorrelation, symmetricSqrt } from './linalg';
+import { linalgPart } from './optional-parts';
 import { createColumnSampler, type SamplerContext } from './samplers';
 import type { StochosModel } from './schema';
 import { DRIVER_TRIAL_LIMIT, RANK_TRIAL_LIMIT } from './summary';
@@ -194,7 +194,7 @@ export function prepareRunWith(check: ModelCheck, model: unknown, dialValues?: R
   const grouped = new Set<string>();
   const method = settings.correlationMethod === 'iman-conover' ? 'iman-conover' : 'copula';
   for (const g of plan.groups) {
-    if (!check && !checkCorrelation(g.matrix).positiveSemiDefinite) throw new Error('The correlation matrix is not valid with these dial values.');
+    if (!check && !linalgPart().checkCorrelation(g.matrix).positiveSemiDefinite) throw new Error('The correlation matrix is not valid with these dial values.');
     g.ids.forEach((id) => grouped.add(id));
     const streamIds = g.ids.map(streamOf);
     const ms = g.ids.map((id) => marginals.get(id) as Marginal);
@@ -210,7 +210,7 @@ export function prepareRunWith(check: ModelCheck, model: unknown, dialValues?: R
       sigs = g.ids.map((_, i) => `${all}#${i}`);
     }
     g.ids.forEach((id, i) => (signatures[id] = sigs[i]));
-    units.push({ kind: method, ids: g.ids, streamIds, marginals: ms, matrix: g.matrix, root: method === 'copula' ? symmetricSqrt(g.matrix) : null, signatures: sigs });
+    units.push({ kind: method, ids: g.ids, streamIds, marginals: ms, matrix: g.matrix, root: method === 'copula' ? linalgPart().symmetricSqrt(g.matrix) : null, signatures: sigs });
   }
   for (const inp of plan.inputs) {
     if (grouped.has(inp.id)) continue;

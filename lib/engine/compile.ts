@@ -4,7 +4,8 @@
  */
 import { contributorDistribution, threePointDistribution } from './analytic';
 import type { DistributionSpec } from './distributions';
-import { parseFormula, type FormulaNode } from './formula';
+import type { FormulaNode } from './formula';
+import { parserPart } from './optional-parts';
 import { costCorrelationMatrix } from './model-paths';
 import type { StochosModel } from './schema';
 
@@ -137,7 +138,7 @@ export function compilePlan(model: StochosModel, variables: Record<string, numbe
       for (const d of model.dials) if (d.target.kind === 'variable') scalars[d.id] = variables[d.id] ?? d.default;
       const earlier: string[] = [];
       const outputs: PlanOutput[] = model.outputs.map((o) => {
-        const { ast } = parseFormula(o.formula, { columns: [...inputs.map((i) => i.id), ...earlier], scalars: Object.keys(scalars) });
+        const { ast } = parserPart().parseFormula(o.formula, { columns: [...inputs.map((i) => i.id), ...earlier], scalars: Object.keys(scalars) });
         earlier.push(o.id);
         return { id: o.id, label: o.name, unit: o.unit, ast, lower: o.lower ?? null, upper: o.upper ?? null };
       });

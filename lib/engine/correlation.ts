@@ -16,7 +16,7 @@
  * correlations of the normal scores (the Pearson correlation for normal inputs).
  */
 import { fillInverse, type Marginal } from './distributions';
-import { checkCorrelation, inverseSqrt, nearestCorrelation, symmetricSqrt } from './linalg';
+import { linalgPart } from './optional-parts';
 import { Stream } from './rng';
 import type { SamplerContext, SamplingMethod, ScoreSource } from './samplers';
 import { scoreSourceFor } from './samplers';
@@ -50,7 +50,7 @@ export class CopulaGroupSampler {
   private readonly q = new Float64Array(BLOCK);
 
   /** root: the symmetric square root of matrix when the caller has it (one decomposition per run, not per chunk). */
-  constructor(marginals: Marginal[], matrix: number[][], ctx: SamplerContext, streamIds: string[], root: number[][] = symmetricSqrt(matrix)) {
+  constructor(marginals: Marginal[], matrix: number[][], ctx: SamplerContext, streamIds: string[], root: number[][] = linalgPart().symmetricSqrt(matrix)) {
     // A normal member's value is mu + sigma (S z), so sigma folds into its row of S.
     this.rows = marginals.map((m, i) => {
       const aff = m.affine;
@@ -159,6 +159,7 @@ export function imanConover(columns: Float64Array[], target: number[][], seed: s
   });
   // The target is a rank (Spearman) correlation; normal scores need the Pearson
   // correlation 2 sin(pi rho_S / 6) to give it (bivariate normal: rho_S = (6/pi) asin(rho/2)).
+  const { checkCorrelation, inverseSqrt, nearestCorrelation, symmetricSqrt } = linalgPart();
   let scoreTarget = target.map((row, i) => row.map((r, j) => (i === j ? 1 : 2 * sin((Math.PI * r) / 6))));
   if (!checkCorrelation(scoreTarget).positiveSemiDefinite) scoreTarget = nearestCorrelation(scoreTarget).matrix;
   // T = correlation of the score columns; M = P T^-1/2 maps them to correlation P P^T.

@@ -13,22 +13,17 @@
  * Permission to use, copy, modify, and distribute this software is freely granted,
  * provided that this notice is preserved."); a test checks them bit for bit against
  * @stdlib's ports of the same code. The rest come from @stdlib/math-base-special-*
- * (Apache-2.0, also ports of msun).
+ * (Apache-2.0, also ports of msun); those only formulas call are in det-math-extra.ts.
  */
-import acos from '@stdlib/math-base-special-acos';
 import asin from '@stdlib/math-base-special-asin';
-import atan from '@stdlib/math-base-special-atan';
-import atan2 from '@stdlib/math-base-special-atan2';
 import cos from '@stdlib/math-base-special-cos';
 import expm1 from '@stdlib/math-base-special-expm1';
-import hypot from '@stdlib/math-base-special-hypot';
-import log10 from '@stdlib/math-base-special-log10';
 import log1p from '@stdlib/math-base-special-log1p';
 import pow from '@stdlib/math-base-special-pow';
 import sin from '@stdlib/math-base-special-sin';
-import tan from '@stdlib/math-base-special-tan';
 
-export { acos, asin, atan, atan2, cos, expm1, hypot, log10, log1p, pow, sin, tan };
+export { asin, cos, expm1, log1p, pow, sin };
+// acos, atan, atan2, hypot(N), log10 and tan, called only by formulas, are in det-math-extra.ts.
 
 // Word access. Every engine the product targets is little-endian; checked at load.
 const F64 = new Float64Array(1);
@@ -229,12 +224,4 @@ export function cosSin2Pi(u: number): number {
 /** sin(2 pi u) from the last cosSin2Pi(u) call. */
 export function lastSin2Pi(): number {
   return sinOut;
-}
-
-/** n-argument hypot from the two-argument one, folded left to right. */
-export function hypotN(...xs: number[]): number {
-  if (xs.length === 0) return 0;
-  let h = Math.abs(xs[0]);
-  for (let i = 1; i < xs.length; i++) h = hypot(h, xs[i]);
-  return h;
 }

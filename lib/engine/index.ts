@@ -15,7 +15,8 @@ export { checkCorrelation, nearestCorrelation, symmetricSqrt, PSD_TOLERANCE, typ
 export type { AchievedCorrelation } from './correlation';
 export { PERCENTILE_DEFINITION, CONFIDENCE_LEVEL, percentileSorted, wilsonInterval, type PercentileEstimate, type Interval, type HistogramBin, type EcdfPoint } from './stats';
 export { ModelValidationError, SamplingError, RunCancelledError, pathText, type ModelIssue } from './errors';
-export { parseFormula, checkFormula, FormulaError, FORMULA_FUNCTIONS, FORMULA_CONSTANTS, RESERVED_NAMES } from './formula';
+export { FormulaError, FORMULA_FUNCTIONS, FORMULA_CONSTANTS, RESERVED_NAMES } from './formula';
+export { parseFormula, checkFormula } from './formula-parse';
 export { RNG_NAME } from './rng';
 export { normalCdf, normalSf, normalQuantile, erfc } from './special';
 export { createMarginal, type DistributionSpec, type Marginal } from './distributions';

@@ -6,6 +6,7 @@
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import type { ModelIssue } from './errors';
+import { provideLinalg } from './optional-parts';
 
 /** Eigenvalues below -PSD_TOLERANCE make a matrix "not positive semi-definite". */
 export const PSD_TOLERANCE = 1e-10;
@@ -217,3 +218,6 @@ export function nearestCorrelation(matrix: number[][], options: { tolerance?: nu
     distance: frobenius(out, A),
   };
 }
+
+// Run code reaches these through optional-parts.ts (the embed loads this module only for correlated models).
+provideLinalg({ checkCorrelation, symmetricSqrt, inverseSqrt, nearestCorrelation });

@@ -477,17 +477,5 @@ function fractionAtOrBelowOf(values: Float64Array, v: number): number {
   return c / n;
 }
 
-/** Let queued messages (cancel, a newer run) through between steps. */
-export function yieldToEventLoop(): Promise<void> {
-  if (typeof MessageChannel !== 'undefined') {
-    return new Promise((resolve) => {
-      const ch = new MessageChannel();
-      ch.port1.onmessage = () => {
-        ch.port1.close();
-        resolve();
-      };
-      ch.port2.postMessage(null);
-    });
-  }
-  return new Promise((resolve) => setTimeout(resolve, 0));
-}
+// In its own module so that the worker, which merges nothing, does not load this one.
+export { yieldToEventLoop } from './yield';

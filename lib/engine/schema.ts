@@ -9,7 +9,8 @@
 import { z } from 'zod';
 import { createMarginal } from './distributions';
 import { pathText, type ModelIssue } from './errors';
-import { checkFormula, RESERVED_NAMES } from './formula';
+import { RESERVED_NAMES } from './formula';
+import { checkFormula } from './formula-parse';
 import { checkCorrelation } from './linalg';
 import { normalCdfPair, normalCdfPairUpper } from './special';
 import { ln } from './det-math';

@@ -7,7 +7,7 @@
  */
 import { ChunkRunner, prepareRunWith } from './chunks';
 import { ModelValidationError, SamplingError } from './errors';
-import { yieldToEventLoop } from './merge';
+import { yieldToEventLoop } from './yield';
 import type { ModelCheck } from './set-dials';
 import { partTransferList, type WorkerChunksRequest, type WorkerErrorPayload, type WorkerRequest, type WorkerResponse } from './worker-protocol';
 
@@ -24,8 +24,12 @@ function errorPayload(err: unknown): WorkerErrorPayload {
   return { name: 'Error', message: err instanceof Error ? err.message : String(err) };
 }
 
-/** Serve chunk requests on this worker, checking each model with `check` (null: trusted). */
-export function serveChunks(check: ModelCheck): void {
+/**
+ * Serve chunk requests on this worker, checking each model with `check` (null: trusted).
+ * `load`, when given, is awaited before a model is prepared when it returns a promise (the
+ * embed loads the engine parts a model needs: optional-parts.ts).
+ */
+export function serveChunks(check: ModelCheck, load?: (model: unknown) => Promise<void> | null): void {
   const runner = new ChunkRunner({ cache: true });
   let current: { runId: number; cancelled: boolean } | null = null;
 
@@ -34,6 +38,14 @@ export function serveChunks(check: ModelCheck): void {
     const me = { runId: req.runId, cancelled: false };
     current = me;
     try {
+      const loading = load?.(req.model);
+      if (loading) {
+        await loading;
+        if (me.cancelled) {
+          scope.postMessage({ type: 'cancelled', runId: req.runId });
+          return;
+        }
+      }
       const prep = prepareRunWith(check, req.model, req.dialValues);
       runner.beginRun();
       for (const k of req.chunkIndices) {

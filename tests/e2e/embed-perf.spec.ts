@@ -116,3 +116,90 @@ test('measure dial-to-headline time at 50,000 trials and the embed page’s tran
   expect(marks).toHaveLength(MOVES);
   expect(embedJs.length).toBeGreaterThan(0);
 });
+
+// Measurement, not a timed assertion: the first figures after the frame loads. Each load is a fresh browser
+// context (nothing cached), through the demo host page, for the demo stack-up at 50,000 trials. In the frame,
+// times are from its navigation start: the HTML received, the pass handed over, the widget payload received, the
+// engine worker's first script fetched, and the headline showing its first figure; the footer's run time of that
+// first run is read too. Figures go to the console and to test-results/embed-first-figures.json.
+const LOADS = 7;
+
+test('measure the embed’s first figures after the frame loads (demo stack-up, 50,000 trials)', async ({ browser }) => {
+  test.setTimeout(240_000);
+  const fdb = openTestDb(process.env.E2E_DATA_DIR!);
+  const firmId = firmIdOf(fdb, 'owner@orrinvale.example');
+  const client = fdb.prepare("select id from clients where firm_id = ? and name = 'Quillbrook Pumps Ltd'").get(firmId) as { id: string };
+  const widget = fdb
+    .prepare(
+      "select w.title, v.model_json from passes p join widgets w on w.id = p.widget_id join model_versions v on v.id = w.version_id join models m on m.id = w.model_id where p.client_id = ? and m.template = 'linear-stack' and p.revoked_at is null",
+    )
+    .get(client.id) as { title: string; model_json: string };
+  fdb.close();
+  expect(JSON.parse(widget.model_json).settings.trials).toBe(50_000);
+
+  type Marks = { figure: number | null; html: number; pass: number | null; session: number | null; payload: number | null; worker: number | null; footer: string | null };
+  const loads: Marks[] = [];
+  for (let i = 0; i < LOADS; i++) {
+    const context = await browser.newContext();
+    // Runs in every frame before its own scripts; only the embed frame records anything.
+    await context.addInitScript((selector: string) => {
+      if (!location.pathname.startsWith('/embed/')) return;
+      const w = window as unknown as { __first: { figure: number | null; pass: number | null; footer: string | null } };
+      w.__first = { figure: null, pass: null, footer: null };
+      window.addEventListener('message', (e) => {
+        const d = e.data as { type?: string } | null;
+        if (d && d.type === 'stochos:pass' && w.__first.pass === null) w.__first.pass = performance.now();
+      });
+      const seen = new MutationObserver(() => {
+        const h = document.querySelector(selector);
+        if (!h || !h.querySelector('.num')) return;
+        w.__first.figure = performance.now();
+        w.__first.footer = document.querySelector('footer')?.textContent ?? null;
+        seen.disconnect();
+      });
+      seen.observe(document, { childList: true, subtree: true, characterData: true });
+    }, HEADLINE);
+    const page = await context.newPage();
+    await page.goto(`${HOST}/?client=${client.id}`);
+    const f = page.frameLocator(`iframe[title="${widget.title}"]`);
+    await expect(f.locator(HEADLINE).first().locator('.num')).toBeVisible({ timeout: 30_000 });
+    let frame: Frame | null = null;
+    for (const x of page.frames().filter((fr) => fr.url().includes('/embed/'))) if ((await x.locator('h1').first().textContent()) === widget.title) frame = x;
+    if (!frame) throw new Error(`no frame shows ${widget.title}`);
+    await frame.waitForFunction(() => (window as unknown as { __first: { figure: number | null } }).__first.figure !== null);
+    loads.push(
+      await frame.evaluate(() => {
+        const w = window as unknown as { __first: { figure: number; pass: number | null; footer: string | null } };
+        const nav = performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming;
+        const res = performance.getEntriesByType('resource') as PerformanceResourceTiming[];
+        const end = (re: RegExp) => res.find((r) => re.test(r.name))?.responseEnd ?? null;
+        const start = (re: RegExp) => res.find((r) => re.test(r.name))?.startTime ?? null;
+        return { figure: w.__first.figure, html: nav.responseEnd, pass: w.__first.pass, session: end(/\/api\/embed\/session/), payload: end(/\/widget$/), worker: start(/turbopack-worker/), footer: w.__first.footer };
+      }),
+    );
+    await context.close();
+  }
+  const stats = (xs: number[]) => {
+    const s = [...xs].sort((a, b) => a - b);
+    const mid = s.length % 2 ? s[(s.length - 1) / 2]! : (s[s.length / 2 - 1]! + s[s.length / 2]!) / 2;
+    return { median: +mid.toFixed(1), min: +s[0]!.toFixed(1), max: +s[s.length - 1]!.toFixed(1) };
+  };
+  const col = (k: keyof Marks) => loads.map((l) => l[k]).filter((v): v is number => typeof v === 'number');
+  const report = {
+    measuredAt: new Date().toISOString(),
+    trials: 50_000,
+    widget: widget.title,
+    loads: LOADS,
+    fromFrameNavigationStartMs: { firstFigure: stats(col('figure')), htmlReceived: stats(col('html')), passReceived: stats(col('pass')), sessionAnswered: stats(col('session')), payloadReceived: stats(col('payload')), workerScriptRequested: stats(col('worker')) },
+    afterPayloadToFirstFigureMs: stats(loads.filter((l) => l.payload !== null).map((l) => l.figure! - l.payload!)),
+    footers: loads.map((l) => l.footer?.replace(/\s+/g, ' ').trim() ?? null),
+    raw: loads,
+  };
+  fs.mkdirSync('test-results', { recursive: true });
+  fs.writeFileSync(path.join('test-results', 'embed-first-figures.json'), JSON.stringify(report, null, 2));
+  const ff = report.fromFrameNavigationStartMs;
+  console.log(
+    `embed first figures: headline after ${ff.firstFigure.median} ms median (min ${ff.firstFigure.min}, max ${ff.firstFigure.max}) from the frame's navigation start over ${LOADS} cold loads at 50,000 trials; HTML ${ff.htmlReceived.median} ms, pass ${ff.passReceived.median} ms, payload ${ff.payloadReceived.median} ms, worker script requested ${ff.workerScriptRequested.median} ms, payload→figure ${report.afterPayloadToFirstFigureMs.median} ms; first footers: ${report.footers.slice(0, 3).join(' | ')}`,
+  );
+  expect(loads).toHaveLength(LOADS);
+});

@@ -1,4 +1,5 @@
 import http from 'node:http';
+import { randomUUID } from 'node:crypto';
 import type { AddressInfo } from 'node:net';
 import { test, expect, type Page, type FrameLocator, type Frame } from '@playwright/test';
 import AxeBuilder from '@axe-core/playwright';
@@ -242,4 +243,38 @@ test('the embed page and its refusal message have no serious or critical accessi
   await expect(page.getByRole('alert', { name: /This widget link is not valid/ })).toBeVisible();
   const notice = await new AxeBuilder({ page }).analyze();
   expect(notice.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => v.id)).toEqual([]);
+});
+
+// The embed fetches the formula parser and the correlation code only for models that use them (optional-parts.ts):
+// a published formula model and a cost model with correlated items must still show their figures in the frame.
+test('a formula model and a correlated cost model load their engine parts on demand and show figures', async ({ page }) => {
+  const { validateModel } = await import('@/lib/engine/schema');
+  const { EXAMPLE_MODELS } = await import('@/lib/engine/examples');
+  const cost = EXAMPLE_MODELS['cost-range'] as { correlationGroups?: unknown[] };
+  expect(cost.correlationGroups?.length ?? 0).toBeGreaterThan(0);
+  const clientId = await newClient();
+  const passes: Pass[] = [];
+  const titles = { formula: 'Formula model on demand', 'cost-range': 'Correlated cost model on demand' } as const;
+  for (const template of ['formula', 'cost-range'] as const) {
+    const checked = validateModel(EXAMPLE_MODELS[template]);
+    if (!checked.ok) throw new Error(`${template} example does not validate`);
+    const widgetId = insertEmbedWidget(db, firmId, titles[template]);
+    const w = db.prepare('select version_id, model_id from widgets where id = ?').get(widgetId) as { version_id: string; model_id: string };
+    // Publish the example (versions are immutable: a second one) instead of the stack the helper stores.
+    const versionId = randomUUID();
+    const at = new Date().toISOString();
+    db.prepare("insert into model_versions (id, model_id, firm_id, number, model_json, created_at, check_state, checked_at) values (?,?,?,2,?,?,'signed_off',?)").run(versionId, w.model_id, firmId, JSON.stringify(checked.model), at, at);
+    db.prepare('update models set template = ?, draft_json = ? where id = ?').run(template, JSON.stringify(checked.model), w.model_id);
+    db.prepare("update widgets set version_id = ?, dial_ids = '[]' where id = ?").run(versionId, widgetId);
+    const r = await author.json<{ pass: { id: string; snippet: string } }>('POST', '/api/passes', { clientId, widgetId });
+    expect(r.status).toBe(201);
+    passes.push({ id: r.body.pass.id, snippet: r.body.pass.snippet, clientId, token: /data-stochos-token="([^"]+)"/.exec(r.body.pass.snippet)![1]! });
+  }
+  await page.goto(`${HOST}/?pass=${passes.map((p) => p.id).join(',')}`);
+  for (const t of Object.values(titles)) {
+    const f = page.frameLocator(`iframe[title="${t}"]`);
+    await expect(headline(f).locator('.num')).toBeVisible({ timeout: 30_000 });
+    await expect(f.getByText('These settings cannot be computed')).toHaveCount(0);
+    await expect(f.getByText('This model cannot be shown')).toHaveCount(0);
+  }
 });

@@ -4,6 +4,7 @@ import { normaliseOrigin } from '@/lib/embed/schemas';
 import { EmbedNotice } from '@/components/embed/embed-notice';
 import { EmbedApp } from '@/components/embed/embed-app';
 import { FrameFit } from '@/components/embed/frame-fit';
+import { EarlyStartScript } from '@/components/embed/early-start';
 
 // Headers (frame-ancestors = the client's allowed origins, Referrer-Policy: no-referrer) come from proxy.ts.
 // The pass token is not in this page's URL: the frame receives it from the loader by postMessage (or, for a
@@ -31,6 +32,7 @@ export default async function EmbedPage({ params, searchParams }: { params: Prom
   if (claimed && !allowed) return <EmbedNotice {...viewerMessage('origin', r.firmName)} firmName={r.firmName} />;
   return (
     <>
+      <EarlyStartScript passId={r.pass.id} origin={allowed} />
       <EmbedApp passId={r.pass.id} origin={allowed} firmName={r.firmName} noPass={viewerMessage('missing', null)} />
       <FrameFit origin={allowed} />
     </>

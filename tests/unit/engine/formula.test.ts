@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { compileFormula, evaluateScalar, FormulaError, parseFormula } from '@/lib/engine/formula';
+import { compileFormula, FormulaError } from '@/lib/engine/formula';
+import { evaluateScalar, parseFormula } from '@/lib/engine/formula-parse';
 import { runModelSync } from '@/lib/engine/simulate';
 
 const scope = { columns: ['a', 'b', 'flow'], scalars: ['k'] };
