@@ -4,7 +4,7 @@ import type { Instrumentation } from 'next';
 // (AUTH_SECRET, APP_URL, STRIPE_WEBHOOK_SECRET ...) instead of failing on the first request.
 export async function register(): Promise<void> {
   if (process.env.NEXT_RUNTIME === 'nodejs' && process.env.NEXT_PHASE !== 'phase-production-build') {
-    const { checkEnvironmentOrExit } = await import('./lib/startup-check');
+    const { checkEnvironmentOrExit } = await import('./lib/server/startup-check');
     checkEnvironmentOrExit();
   }
 }
@@ -12,6 +12,6 @@ export async function register(): Promise<void> {
 // A page that fails while rendering is logged as one JSON line with the digest its error screen shows.
 export const onRequestError: Instrumentation.onRequestError = async (err, request, context) => {
   if (process.env.NEXT_RUNTIME !== 'nodejs') return;
-  const { logRenderError } = await import('./lib/ops/render-errors');
+  const { logRenderError } = await import('./lib/server/ops/render-errors');
   logRenderError(err, request, context);
 };

@@ -1,6 +1,6 @@
 import { NextResponse, type NextRequest } from 'next/server';
-import { embedProxy } from '@/lib/embed/proxy';
-import { contentSecurityPolicy, hstsHeader, newNonce } from '@/lib/http/csp';
+import { embedProxy } from '@/lib/server/embed/proxy';
+import { contentSecurityPolicy, hstsHeader, newNonce } from '@/lib/server/http/csp';
 
 // Every page gets a Content-Security-Policy with a fresh script nonce (set on the request too, so Next puts the
 // nonce on its own scripts), and HSTS on an https deployment. Signed-out dashboard visitors are redirected to

@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { Logo } from '@/components/ui/logo';
 import { LinkButton } from '@/components/ui/button';
 import { Term } from '@/components/ui/term';
-import { normalCdf } from '@/lib/engine/special';
+import { normalCdf } from '@/lib/core/engine/special';
 
 export const metadata: Metadata = {
   title: { absolute: 'Stochos: interactive risk models for engineering consultancies' },

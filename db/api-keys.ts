@@ -1,5 +1,5 @@
 import 'server-only';
-import type { ApiKey } from '@/lib/api-types';
+import type { ApiKey } from '@/lib/core/api-types';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, newSecret, nowIso, sha256 } from '@/db/ids';

@@ -1,5 +1,5 @@
 import 'server-only';
-import type { AuditEntry } from '@/lib/api-types';
+import type { AuditEntry } from '@/lib/core/api-types';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { nowIso } from '@/db/ids';

@@ -1,9 +1,8 @@
 import 'server-only';
 import { getDb, closeDb } from '@/db/knex';
-import { seedDemo } from '@/db/seed/demo';
 import { databaseTarget } from '@/db/knex';
 
-// npm run db:migrate | db:rollback | db:seed [-- --reset]
+// npm run db:migrate | db:rollback (the demo seed is lib/dev/seed/cli.ts: npm run db:seed)
 async function main(): Promise<void> {
   const [command, ...flags] = process.argv.slice(2);
   const db = getDb();
@@ -14,12 +13,8 @@ async function main(): Promise<void> {
     } else if (command === 'rollback') {
       const [batch, names] = await db.migrate.rollback(undefined, flags.includes('--all'));
       console.log(names.length ? `Rolled back batch ${batch}: ${names.join(', ')}` : 'Nothing to roll back.');
-    } else if (command === 'seed') {
-      await db.migrate.latest();
-      const result = await seedDemo({ reset: flags.includes('--reset') });
-      console.log(result);
     } else {
-      console.error('Usage: tsx db/cli.ts migrate | rollback [--all] | seed [--reset]');
+      console.error('Usage: tsx db/cli.ts migrate | rollback [--all]');
       process.exitCode = 2;
     }
     // A URL's password is never printed.

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-// The database settings of the environment are defined here, beside the code that uses them; lib/env.ts checks
+// The database settings of the environment are defined here, beside the code that uses them; lib/server/env.ts checks
 // them with the rest of the environment at start-up.
 export const databaseEnvShape = {
   DATABASE_FILE: z.string().min(1).default('.data/stochos.sqlite'),

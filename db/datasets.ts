@@ -1,5 +1,5 @@
 import 'server-only';
-import type { DatasetRecord, DatasetRow } from '@/lib/api-types';
+import type { DatasetRecord, DatasetRow } from '@/lib/core/api-types';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';

@@ -1,5 +1,5 @@
 import 'server-only';
-import type { PaperSize, Units } from '@/lib/api-types';
+import type { PaperSize, Units } from '@/lib/core/api-types';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 

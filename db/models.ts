@@ -2,12 +2,12 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';
-import type { CheckedModel } from '@/lib/engine/checked-model';
+import type { CheckedModel } from '@/lib/core/engine/checked-model';
 
 // Models and their immutable versions. Every query is scoped by firm; model JSON is stored as text and parsed here.
 
-export type { TemplateId, CheckState, CheckComment, ModelRecord, VersionSummary, VersionRecord, ModelListRow } from '@/lib/models/types';
-import type { TemplateId, CheckState, CheckComment, ModelRecord, VersionSummary, VersionRecord, ModelListRow } from '@/lib/models/types';
+export type { TemplateId, CheckState, CheckComment, ModelRecord, VersionSummary, VersionRecord, ModelListRow } from '@/lib/core/models/types';
+import type { TemplateId, CheckState, CheckComment, ModelRecord, VersionSummary, VersionRecord, ModelListRow } from '@/lib/core/models/types';
 
 type Db = Knex | Knex.Transaction;
 

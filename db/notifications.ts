@@ -4,8 +4,8 @@ import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';
 import { claimNext, leaseOps, transition } from '@/db/job-lease';
 import type { Role } from '@/db/users';
-import type { WaitingVersion } from '@/lib/api-types';
-import type { NotificationKind } from '@/lib/notifications/kinds';
+import type { WaitingVersion } from '@/lib/core/api-types';
+import type { NotificationKind } from '@/lib/core/notifications/kinds';
 
 // Notification mails (migrations/20261203800100_notifications.ts) and each person's choices of which to receive.
 

@@ -2,7 +2,7 @@ import 'server-only';
 import { getDb } from '@/db/knex';
 import { newId } from '@/db/ids';
 
-// Rate-limit counters and concurrent-run leases for server-side runs (lib/simulate/admission.ts decides).
+// Rate-limit counters and concurrent-run leases for server-side runs (lib/server/simulate/admission.ts decides).
 // Every statement stands alone (no read-then-write transaction), so several app instances may share the table.
 
 /** Adds one to each scope's counter for the window and returns the new counts, in the order given. */

@@ -4,12 +4,12 @@ import { getDb } from '@/db/knex';
 import { claimNext, leaseOps, transition } from '@/db/job-lease';
 import { nowIso } from '@/db/ids';
 import { storedModel } from '@/db/models';
-import type { CheckedModel } from '@/lib/engine/checked-model';
+import type { CheckedModel } from '@/lib/core/engine/checked-model';
 
 // Snapshot jobs (migrations/20261201000600_snapshots.ts). The worker's state changes are conditional on the
 // job's current state and lease holder, so two workers can never both move the same job forward.
 
-import type { SnapshotListRow, SnapshotState } from '@/lib/api-types';
+import type { SnapshotListRow, SnapshotState } from '@/lib/core/api-types';
 
 export type { SnapshotListRow, SnapshotState };
 

@@ -3,7 +3,7 @@ import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, nowIso, sha256 } from '@/db/ids';
 import type { Role } from '@/db/users';
-import type { Invitation, TeamMember } from '@/lib/api-types';
+import type { Invitation, TeamMember } from '@/lib/core/api-types';
 
 export type MemberRow = TeamMember;
 

@@ -3,7 +3,7 @@ import type { Knex } from 'knex';
 import { getDb } from '@/db/knex';
 import { newId, nowIso } from '@/db/ids';
 
-import type { Role } from '@/lib/api-types';
+import type { Role } from '@/lib/core/api-types';
 
 export type { Role };
 export const ROLES: readonly Role[] = ['owner', 'author', 'checker'];

@@ -4,12 +4,12 @@ import { getDb } from '@/db/knex';
 import { prepared } from '@/db/prepared';
 import { newId, nowIso } from '@/db/ids';
 import { storedModel } from '@/db/models';
-import type { CheckState, TemplateId } from '@/lib/models/types';
+import type { CheckState, TemplateId } from '@/lib/core/models/types';
 
 // Published widgets: a checked version of a model plus how a client sees it. Scoped by firm.
 
-export type { WidgetRecord, PublishedWidget } from '@/lib/models/types';
-import type { WidgetRecord, PublishedWidget } from '@/lib/models/types';
+export type { WidgetRecord, PublishedWidget } from '@/lib/core/models/types';
+import type { WidgetRecord, PublishedWidget } from '@/lib/core/models/types';
 
 const COLUMNS = [
   'w.id',

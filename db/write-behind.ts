@@ -159,7 +159,7 @@ async function writeBatch(trx: Knex.Transaction, b: Batch): Promise<void> {
 }
 
 // One buffer per process (kept on globalThis so development reloads do not strand a batch); the first caller's
-// options stay. Server code calls `writeBehind()` from lib/ops/write-behind.ts, which passes the environment's.
+// options stay. Server code calls `writeBehind()` from lib/server/ops/write-behind.ts, which passes the environment's.
 const g = globalThis as unknown as { __stochosWriteBehind?: WriteBehind };
 export function writeBehindBuffer(o: WriteBehindOptions): WriteBehind {
   if (!g.__stochosWriteBehind) {

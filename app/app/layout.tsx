@@ -1,10 +1,10 @@
-import { requirePageMember } from '@/lib/auth/guard';
-import { can } from '@/lib/auth/permissions';
+import { requirePageMember } from '@/lib/server/auth/guard';
+import { can } from '@/lib/core/auth/permissions';
 import { DashboardShell } from '@/components/shell/dashboard-shell';
 import { NAV } from '@/components/shell/nav';
 import { ROLE_LABELS } from '@/components/shell/roles';
 import { BillingBanner } from '@/components/billing/billing-banner';
-import { authoringBlockedMessage, billingStatus } from '@/lib/billing/access';
+import { authoringBlockedMessage, billingStatus } from '@/lib/server/billing/access';
 
 export default async function DashboardLayout({ children }: { children: React.ReactNode }) {
   const member = await requirePageMember('firm.read');

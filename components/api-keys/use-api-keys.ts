@@ -2,9 +2,9 @@
 
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
-import type { ApiKey } from '@/lib/api-types';
+import type { ApiKey } from '@/lib/core/api-types';
 
-export type { ApiKey } from '@/lib/api-types';
+export type { ApiKey } from '@/lib/core/api-types';
 
 /** The firm's API keys for the simulate API (owner only). */
 export function useApiKeys() {

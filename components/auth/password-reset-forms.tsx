@@ -7,7 +7,7 @@ import { signIn } from 'next-auth/react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
-import { PASSWORD_RULE, emailField, passwordField } from '@/lib/auth/schemas';
+import { PASSWORD_RULE, emailField, passwordField } from '@/lib/core/auth/schemas';
 import { ApiError, api, applyServerErrors } from '@/lib/client/api';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';

@@ -1,4 +1,4 @@
-export { safeNext } from '@/lib/auth/next-path';
+export { safeNext } from '@/lib/core/auth/next-path';
 /** next-auth's `?error=` codes in plain words. */
 export const SIGN_IN_ERRORS: Record<string, string> = {
   Verification: 'That sign-in link has expired or was already used. Ask for a new one.',

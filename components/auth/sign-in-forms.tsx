@@ -7,7 +7,7 @@ import { signIn } from 'next-auth/react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
-import { emailField } from '@/lib/auth/schemas';
+import { emailField } from '@/lib/core/auth/schemas';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';

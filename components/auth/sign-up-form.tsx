@@ -5,7 +5,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { PASSWORD_RULE, signUpSchema } from '@/lib/auth/schemas';
+import { PASSWORD_RULE, signUpSchema } from '@/lib/core/auth/schemas';
 import { api, applyServerErrors } from '@/lib/client/api';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';

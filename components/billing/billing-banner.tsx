@@ -1,6 +1,6 @@
 import Link from 'next/link';
-import type { Role } from '@/lib/api-types';
-import type { BillingStatus } from '@/lib/billing/status';
+import type { Role } from '@/lib/core/api-types';
+import type { BillingStatus } from '@/lib/core/billing/status';
 import { Banner } from '@/components/ui/banner';
 import { billingDate, statusSentence } from './status-words';
 

@@ -3,7 +3,7 @@
 import Link from 'next/link';
 import { useEffect, useRef, useState } from 'react';
 import { errorMessage } from '@/lib/client/api';
-import { formatMoney } from '@/lib/billing/money';
+import { formatMoney } from '@/lib/core/billing/money';
 import { Banner } from '@/components/ui/banner';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';

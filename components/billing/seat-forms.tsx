@@ -2,8 +2,8 @@
 
 import { useState } from 'react';
 import { ApiError, errorMessage } from '@/lib/client/api';
-import { seatsField } from '@/lib/billing/schemas';
-import { formatMoney } from '@/lib/billing/money';
+import { seatsField } from '@/lib/core/billing/schemas';
+import { formatMoney } from '@/lib/core/billing/money';
 import { Button } from '@/components/ui/button';
 import { NumberField } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';

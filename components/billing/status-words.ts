@@ -1,5 +1,5 @@
 // Plain sentences for each billing state, shared by the billing page (client) and the banner (server).
-import type { BillingStatus } from '@/lib/billing/status';
+import type { BillingStatus } from '@/lib/core/billing/status';
 import type { StatusKind } from '@/components/ui/badge';
 
 const date = (iso: string | null) =>

@@ -3,7 +3,7 @@
 import { useEffect, useRef, useState } from 'react';
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
-import type { BillingSummary, SeatPreview } from '@/lib/api-types';
+import type { BillingSummary, SeatPreview } from '@/lib/core/api-types';
 
 export type { BillingSummary, SeatPreview };
 

@@ -1,7 +1,7 @@
 'use client';
 
 import { useId, useState, type ReactNode, type Ref } from 'react';
-import type { Scene } from '@/lib/charts/scene';
+import type { Scene } from '@/lib/core/charts/scene';
 import { cx } from '@/components/ui/cx';
 import { SceneSvg } from './scene-svg';
 

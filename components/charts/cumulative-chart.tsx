@@ -13,10 +13,10 @@ import {
   type PercentileMark,
   type Readout,
   type ReadoutKey,
-} from '@/lib/charts/cumulative';
-import { formatPercent, formatValue, percentileName } from '@/lib/charts/format';
-import { chartColors } from '@/lib/charts/palette';
-import type { SpecLimits, ValueMarker } from '@/lib/charts/spread';
+} from '@/lib/core/charts/cumulative';
+import { formatPercent, formatValue, percentileName } from '@/lib/core/charts/format';
+import { chartColors } from '@/lib/core/charts/palette';
+import type { SpecLimits, ValueMarker } from '@/lib/core/charts/spread';
 import { ChartFrame } from './chart-frame';
 import { ChartTable } from './chart-table';
 import { useElementWidth } from './use-element-width';

@@ -3,8 +3,8 @@
 // "Download SVG" and "Download PNG" for charts. Both start from the same standalone SVG string as
 // the server's PDF; the PNG draws that SVG on a canvas. A standalone SVG cannot see the page's
 // fonts, so the PNG path embeds the app's Plex faces (already loaded by the page) as data URLs.
-import { sceneToSvgString } from '@/lib/charts/svg-string';
-import type { Scene } from '@/lib/charts/scene';
+import { sceneToSvgString } from '@/lib/core/charts/svg-string';
+import type { Scene } from '@/lib/core/charts/scene';
 
 /** A safe file name from a chart title: "Spread of Gap" → "spread-of-gap". */
 export function fileSlug(title: string): string {

@@ -1,8 +1,8 @@
 'use client';
 
 import { useMemo, type ReactNode } from 'react';
-import { driversGeometry, driversScene, rankDrivers, type DriverDatum } from '@/lib/charts/drivers';
-import { formatFixed, formatPercent } from '@/lib/charts/format';
+import { driversGeometry, driversScene, rankDrivers, type DriverDatum } from '@/lib/core/charts/drivers';
+import { formatFixed, formatPercent } from '@/lib/core/charts/format';
 import { ChartFrame } from './chart-frame';
 import { ChartTable } from './chart-table';
 import { useElementWidth } from './use-element-width';

@@ -1,8 +1,8 @@
 'use client';
 
 import { useMemo, type ReactNode } from 'react';
-import { rangesGeometry, rangesScene, type RangeRow } from '@/lib/charts/ranges';
-import type { SpecLimits } from '@/lib/charts/spread';
+import { rangesGeometry, rangesScene, type RangeRow } from '@/lib/core/charts/ranges';
+import type { SpecLimits } from '@/lib/core/charts/spread';
 import { ChartFrame } from './chart-frame';
 import { ChartTable } from './chart-table';
 import { useElementWidth } from './use-element-width';

@@ -1,9 +1,9 @@
 'use client';
 
 import { useMemo, type ReactNode } from 'react';
-import { formatCount, formatPercent, formatValue } from '@/lib/charts/format';
-import { scatterGeometry, scatterGroups, scatterScene } from '@/lib/charts/scatter';
-import type { SpecLimits } from '@/lib/charts/spread';
+import { formatCount, formatPercent, formatValue } from '@/lib/core/charts/format';
+import { scatterGeometry, scatterGroups, scatterScene } from '@/lib/core/charts/scatter';
+import type { SpecLimits } from '@/lib/core/charts/spread';
 import { ChartFrame } from './chart-frame';
 import { ChartTable } from './chart-table';
 import { useElementWidth } from './use-element-width';

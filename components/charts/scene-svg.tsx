@@ -1,5 +1,5 @@
 import type { CSSProperties, ReactNode } from 'react';
-import type { Paint, Scene, SceneNode } from '@/lib/charts/scene';
+import type { Paint, Scene, SceneNode } from '@/lib/core/charts/scene';
 
 // Draws a chart scene as React SVG elements: the same shapes svg-string.ts writes for downloads.
 // In the page, text uses the app's Plex faces through their CSS variables.

@@ -1,8 +1,8 @@
 'use client';
 
 import { useMemo, type ReactNode } from 'react';
-import { formatCount, formatPercent, formatValue } from '@/lib/charts/format';
-import { spreadGeometry, spreadScene, type HistogramBin, type SpecLimits, type ValueMarker } from '@/lib/charts/spread';
+import { formatCount, formatPercent, formatValue } from '@/lib/core/charts/format';
+import { spreadGeometry, spreadScene, type HistogramBin, type SpecLimits, type ValueMarker } from '@/lib/core/charts/spread';
 import { ChartFrame } from './chart-frame';
 import { ChartTable } from './chart-table';
 import { useElementWidth } from './use-element-width';

@@ -3,8 +3,8 @@
 import Link from 'next/link';
 import { useState } from 'react';
 import { errorMessage } from '@/lib/client/api';
-import { PASS_DEFAULT_DAYS, PASS_MAX_DAYS } from '@/lib/embed/schemas';
-import type { PassView } from '@/lib/embed/views';
+import { PASS_DEFAULT_DAYS, PASS_MAX_DAYS } from '@/lib/core/embed/schemas';
+import type { PassView } from '@/lib/core/embed/views';
 import { Card } from '@/components/ui/card';
 import { Banner } from '@/components/ui/banner';
 import { Button } from '@/components/ui/button';

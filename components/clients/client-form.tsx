@@ -5,7 +5,7 @@ import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { ApiError, errorMessage } from '@/lib/client/api';
-import { clientCreateSchema, domainsField, originsField, splitLines } from '@/lib/embed/schemas';
+import { clientCreateSchema, domainsField, originsField, splitLines } from '@/lib/core/embed/schemas';
 import { Button } from '@/components/ui/button';
 import { TextField, FieldError, Checkbox, controlClasses } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';

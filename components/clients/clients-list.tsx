@@ -12,7 +12,7 @@ import { StatusPill } from '@/components/ui/badge';
 import { DateText } from '@/components/ui/date-text';
 import { Loading } from '@/components/ui/loading';
 import { LoadError } from '@/components/ui/load-error';
-import type { ClientListView } from '@/lib/embed/views';
+import type { ClientListView } from '@/lib/core/embed/views';
 import { ClientForm } from './client-form';
 import { useClients } from './use-clients';
 

@@ -6,9 +6,9 @@ import { Button } from '@/components/ui/button';
 import { CopyButton } from '@/components/ui/copy-button';
 import { NumberField, Checkbox } from '@/components/ui/field';
 import { errorMessage } from '@/lib/client/api';
-import type { PassStatus } from '@/lib/embed/status';
-import { PASS_DEFAULT_DAYS, PASS_MAX_DAYS } from '@/lib/embed/schemas';
-import type { PassView } from '@/lib/embed/views';
+import type { PassStatus } from '@/lib/core/embed/status';
+import { PASS_DEFAULT_DAYS, PASS_MAX_DAYS } from '@/lib/core/embed/schemas';
+import type { PassView } from '@/lib/core/embed/views';
 
 const KIND: Record<PassStatus, StatusKind> = {
   active: 'ok',

@@ -2,7 +2,7 @@
 
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
-import type { ClientListView, ClientView, PassDetailView, PassView } from '@/lib/embed/views';
+import type { ClientListView, ClientView, PassDetailView, PassView } from '@/lib/core/embed/views';
 
 // One hook per resource: the client list, one client with its passes, one pass with its analytics.
 

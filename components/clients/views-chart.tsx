@@ -1,5 +1,5 @@
 // Views per day for one pass: a small bar chart (loads as bars, dial moves as a line) with a table alternative.
-import type { PassDetailView } from '@/lib/embed/views';
+import type { PassDetailView } from '@/lib/core/embed/views';
 
 const W = 560;
 const H = 120;

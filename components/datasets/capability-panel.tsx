@@ -3,7 +3,7 @@
 import { useState } from 'react';
 import { NumberField } from '@/components/ui/field';
 import { Term } from '@/components/ui/term';
-import { dataCapability } from '@/lib/datasets/summary';
+import { dataCapability } from '@/lib/core/datasets/summary';
 
 /** Pp/Ppk of the measured data against a stack contributor's tolerance (nominal −minus/+plus). */
 export function CapabilityPanel({ values, unit, initialNominal }: { values: number[]; unit: string; initialNominal: number }) {

@@ -4,7 +4,7 @@ import Link from 'next/link';
 import { DataTable, type Column } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { formatBytes, formatDate } from '@/components/ui/format';
-import type { DatasetRow } from '@/lib/api-types';
+import type { DatasetRow } from '@/lib/core/api-types';
 
 const columns: Column<DatasetRow>[] = [
   { key: 'name', header: 'Name', cell: (r) => <Link href={`/app/datasets/${r.id}`} className="font-medium text-accent-800 underline-offset-2 hover:underline">{r.name}</Link>, sortValue: (r) => r.name.toLowerCase() },

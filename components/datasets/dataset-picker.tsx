@@ -7,8 +7,8 @@ import { Banner } from '@/components/ui/banner';
 import { LoadError } from '@/components/ui/load-error';
 import { errorMessage } from '@/lib/client/api';
 import { recordDatasetUse, useDataset, useDatasets } from './use-datasets';
-import { LAW_LABELS, type FitOk } from '@/lib/datasets/fit';
-import { empiricalChoice, fittedChoice, type DatasetChoice } from '@/lib/datasets/use';
+import { LAW_LABELS, type FitOk } from '@/lib/core/datasets/fit';
+import { empiricalChoice, fittedChoice, type DatasetChoice } from '@/lib/core/datasets/use';
 
 export interface DatasetPickerProps {
   /** 'input': any engine distribution (fitted law or empirical); 'stack': a linear-stack contributor (normal-fit or empirical). */

@@ -1,6 +1,6 @@
-import { LAW_LABELS, type Law, type LawParams } from '@/lib/datasets/fit';
-import { densityOverlay, PLOT, qqPlot } from '@/lib/datasets/charts';
-import type { HistogramBin } from '@/lib/engine/stats';
+import { LAW_LABELS, type Law, type LawParams } from '@/lib/core/datasets/fit';
+import { densityOverlay, PLOT, qqPlot } from '@/lib/core/datasets/charts';
+import type { HistogramBin } from '@/lib/core/engine/stats';
 
 const AXIS = 'stroke-ink-400';
 

@@ -9,7 +9,7 @@ import { Card } from '@/components/ui/card';
 import { FieldError } from '@/components/ui/field';
 import { ApiError, errorMessage, fieldMessage } from '@/lib/client/api';
 import { uploadDataset } from './use-datasets';
-import { columnError, readColumn, readCsv, readCsvText, type CsvTable } from '@/lib/datasets/csv';
+import { columnError, readColumn, readCsv, readCsvText, type CsvTable } from '@/lib/core/datasets/csv';
 
 type Source = { kind: 'file'; file: File; table: CsvTable } | { kind: 'text'; text: string; table: CsvTable };
 

@@ -2,8 +2,8 @@
 
 import useSWR, { mutate as mutateKey } from 'swr';
 import { api, fetcher } from '@/lib/client/api';
-import type { DatasetCreated, DatasetDetail, DatasetRow, DatasetUseRecorded } from '@/lib/api-types';
-import type { Law } from '@/lib/datasets/fit';
+import type { DatasetCreated, DatasetDetail, DatasetRow, DatasetUseRecorded } from '@/lib/core/api-types';
+import type { Law } from '@/lib/core/datasets/fit';
 
 // One hook per resource: the firm's dataset library and one dataset with its fits. The library and detail pages
 // are rendered on the server; these serve the pickers that choose a dataset inside other screens.

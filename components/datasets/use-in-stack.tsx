@@ -11,9 +11,9 @@ import { LoadError } from '@/components/ui/load-error';
 import { useModel, useModels } from '@/components/models/use-models';
 import { errorMessage } from '@/lib/client/api';
 import { recordDatasetUse } from './use-datasets';
-import { evaluateStack } from '@/lib/engine/analytic';
-import { linearStackSchema, validateModel, type LinearStackModel } from '@/lib/engine/schema';
-import { dataCapability } from '@/lib/datasets/summary';
+import { evaluateStack } from '@/lib/core/engine/analytic';
+import { linearStackSchema, validateModel, type LinearStackModel } from '@/lib/core/engine/schema';
+import { dataCapability } from '@/lib/core/datasets/summary';
 
 type Method = 'normal-fit' | 'empirical';
 

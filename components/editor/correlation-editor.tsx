@@ -5,7 +5,7 @@ import { useFormContext, useWatch } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { cx } from '@/components/ui/cx';
 import { FieldError } from '@/components/ui/field';
-import { checkCorrelation, nearestCorrelation } from '@/lib/engine/linalg';
+import { checkCorrelation, nearestCorrelation } from '@/lib/core/engine/linalg';
 import { useEditor } from './editor-context';
 import { cellKey, correlationColour, diffMatrices, identity, remapMatrix, roundMatrix, setSymmetric, type CellChange, type Matrix } from './correlation-math';
 import { parseNumberText, sameNumber, shortNumber } from './numbers';

@@ -3,7 +3,7 @@
 import { useMemo, useState } from 'react';
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { Term } from '@/components/ui/term';
-import { checkCorrelation } from '@/lib/engine/linalg';
+import { checkCorrelation } from '@/lib/core/engine/linalg';
 import { AddButton, EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
 import { GroupMessages, KeyInput, InlineMessages, NumberInput, RowMessages, SelectInput, TextInput, type Choice } from './fields';
 import { useEditor } from './editor-context';

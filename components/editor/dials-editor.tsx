@@ -4,7 +4,7 @@ import { useMemo, useState } from 'react';
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { controlClasses } from '@/components/ui/field';
-import type { StochosModel } from '@/lib/engine/schema';
+import type { StochosModel } from '@/lib/core/engine/schema';
 import { useEditor } from './editor-context';
 import { FieldShell, GroupMessages, KeyInput, InlineMessages, NumberInput, RowMessages, TextInput } from './fields';
 import { allIds, dialTargetOptions, makeId, suggestDial, targetKey, type DialTargetOption, type WatchedDraft } from './model-helpers';

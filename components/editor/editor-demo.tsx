@@ -2,8 +2,8 @@
 
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
-import { EXAMPLE_MODELS } from '@/lib/engine/examples';
-import type { CheckedModel, Template } from '@/lib/engine/schema';
+import { EXAMPLE_MODELS } from '@/lib/core/engine/examples';
+import type { CheckedModel, Template } from '@/lib/core/engine/schema';
 import type { ModelDraft } from './form-values';
 import { ModelEditor } from './model-editor';
 

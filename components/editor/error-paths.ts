@@ -1,9 +1,9 @@
 // Pure helpers that put every validation message on one flat map keyed by dotted path
-// ("contributors.2.plusTol"), the same keys the server's 422 uses (lib/http/errors.ts fieldsFromZod),
+// ("contributors.2.plusTol"), the same keys the server's 422 uses (lib/server/http/errors.ts fieldsFromZod),
 // so client, server and import messages are shown beside the same field.
 
-import type { ModelIssue } from '@/lib/engine/errors';
-import type { FieldErrors as FieldMessages } from '@/lib/api-types';
+import type { ModelIssue } from '@/lib/core/engine/errors';
+import type { FieldErrors as FieldMessages } from '@/lib/core/api-types';
 
 export type { FieldMessages };
 

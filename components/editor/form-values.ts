@@ -2,7 +2,7 @@
 // a number box) until the schema has checked it, so every object field is optional, except the template, which an
 // edit never changes; lists keep their element types. The shapes are the schema's own input types, so rows read from
 // the form need no casts. Only the schema turns a draft into a CheckedModel (resolver.ts).
-import type { StochosModelInput, Template } from '@/lib/engine/schema';
+import type { StochosModelInput, Template } from '@/lib/core/engine/schema';
 
 /** A value as typed: fields of objects optional, all the way down. */
 export type Draft<T> = T extends readonly (infer E)[] ? Draft<E>[] : T extends object ? { [K in keyof T]?: Draft<T[K]> } : T;

@@ -2,8 +2,8 @@
 
 import { useRef } from 'react';
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
-import { FORMULA_CONSTANTS, FORMULA_FUNCTIONS } from '@/lib/engine/formula';
-import { checkFormula } from '@/lib/engine/formula-parse';
+import { FORMULA_CONSTANTS, FORMULA_FUNCTIONS } from '@/lib/core/engine/formula';
+import { checkFormula } from '@/lib/core/engine/formula-parse';
 import { useEditor, useMessages } from './editor-context';
 import { DistributionPicker } from './distribution-picker';
 import { CorrelationEditor } from './correlation-editor';

@@ -3,10 +3,10 @@
 import { useId, useRef, useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field';
-import type { CheckedModel, Template } from '@/lib/engine/schema';
+import type { CheckedModel, Template } from '@/lib/core/engine/schema';
 import type { ModelDraft } from './form-values';
-import { exportModelJson, importModelFile, modelFileName, MODEL_FILE_SUFFIX, type ImportIssue } from '@/lib/models/json-io';
-import { TEMPLATE_LABELS } from '@/lib/models/templates';
+import { exportModelJson, importModelFile, modelFileName, MODEL_FILE_SUFFIX, type ImportIssue } from '@/lib/core/models/json-io';
+import { TEMPLATE_LABELS } from '@/lib/core/models/templates';
 import { readablePath } from './error-paths';
 
 interface ImportExportProps {

@@ -2,9 +2,9 @@
 
 import { useCallback, useEffect, useId, useMemo, useRef, useState } from 'react';
 import { FormProvider, useForm, useWatch, type FieldErrors } from 'react-hook-form';
-import type { CheckedModel } from '@/lib/engine/schema';
+import type { CheckedModel } from '@/lib/core/engine/schema';
 import type { ModelDraft } from './form-values';
-import { TEMPLATE_LABELS } from '@/lib/models/templates';
+import { TEMPLATE_LABELS } from '@/lib/core/models/templates';
 import { EditorContext, domIdFor, type EditorContextValue } from './editor-context';
 import { flattenFieldErrors, mergeMessages, readablePath, withoutChanged, type FieldMessages } from './error-paths';
 import { createModelResolver } from './resolver';

@@ -1,8 +1,8 @@
 // Pure helpers behind the editor's rows, distribution picker and dial picker (no React).
 
-import { createMarginal, type DistributionSpec } from '@/lib/engine/distributions';
-import { RESERVED_NAMES } from '@/lib/engine/formula';
-import { DISTRIBUTION_PARAMS, resolveDialTarget, type DialTarget, type Distribution, type StochosModel } from '@/lib/engine/schema';
+import { createMarginal, type DistributionSpec } from '@/lib/core/engine/distributions';
+import { RESERVED_NAMES } from '@/lib/core/engine/formula';
+import { DISTRIBUTION_PARAMS, resolveDialTarget, type DialTarget, type Distribution, type StochosModel } from '@/lib/core/engine/schema';
 import type { DeepPartialSkipArrayKey } from 'react-hook-form';
 import type { DialTargetDraft, ModelDraft } from './form-values';
 

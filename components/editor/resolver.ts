@@ -5,9 +5,9 @@
 
 import { zodResolver } from '@hookform/resolvers/zod';
 import { get, set, type FieldError, type FieldErrors, type Resolver, type ResolverOptions } from 'react-hook-form';
-import { modelSchema, semanticIssues, validateModel, type CheckedModel, type StochosModel } from '@/lib/engine/schema';
+import { modelSchema, semanticIssues, validateModel, type CheckedModel, type StochosModel } from '@/lib/core/engine/schema';
 import type { ModelDraft } from './form-values';
-import type { ModelIssue } from '@/lib/engine/errors';
+import type { ModelIssue } from '@/lib/core/engine/errors';
 
 function addIssue(errors: FieldErrors, issue: ModelIssue): void {
   const path = issue.path.map(String).join('.');

@@ -1,7 +1,7 @@
 'use client';
 
 import { Term } from '@/components/ui/term';
-import { MAX_TRIALS, MIN_TRIALS } from '@/lib/engine/schema';
+import { MAX_TRIALS, MIN_TRIALS } from '@/lib/core/engine/schema';
 import { NumberInput, SelectInput, TextInput, type Choice } from './fields';
 import { parseSeedText } from './numbers';
 import { Section } from './parts';

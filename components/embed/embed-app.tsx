@@ -2,8 +2,8 @@
 
 import { useCallback, useEffect, useRef, useState } from 'react';
 import { WidgetView } from '@/components/widget/widget-view';
-import { createEmbedEngine, dropWarmEngine, prewarmEmbedEngine } from '@/lib/engine/embed-engine';
-import type { EmbedWidgetPayload } from '@/lib/embed/payload';
+import { createEmbedEngine, dropWarmEngine, prewarmEmbedEngine } from '@/lib/core/engine/embed-engine';
+import type { EmbedWidgetPayload } from '@/lib/core/embed/payload';
 import { ApiError } from '@/lib/client/request';
 import { createEmbedClient, earlyRefusal, PASS_WAIT_MS, refusalOf, type EmbedClient } from './embed-client';
 import type { EarlyStart } from './early-start';

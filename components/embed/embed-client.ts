@@ -2,7 +2,7 @@
 // token lives only in this closure (never in cookies or storage): a browser would not send the app's cookies
 // inside a cross-site frame, and the page needs none.
 import { ApiError, requestJson, type Fallback, type RequestOptions } from '@/lib/client/request';
-import type { EmbedSessionResponse, EmbedWidgetPayload } from '@/lib/embed/payload';
+import type { EmbedSessionResponse, EmbedWidgetPayload } from '@/lib/core/embed/payload';
 
 /** How long the frame waits for the loader's pass before it says the pass is missing. */
 export const PASS_WAIT_MS = 10_000;

@@ -2,9 +2,9 @@
 
 import useSWRInfinite from 'swr/infinite';
 import { fetcher } from '@/lib/client/api';
-import type { AuditPage } from '@/lib/api-types';
+import type { AuditPage } from '@/lib/core/api-types';
 
-export type { AuditEntry, AuditPage } from '@/lib/api-types';
+export type { AuditEntry, AuditPage } from '@/lib/core/api-types';
 
 /** The audit log, newest first, one page at a time ("Load older" asks for the next page). */
 export function useAudit() {

@@ -2,7 +2,7 @@
 
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
-import type { InvitationView } from '@/lib/api-types';
+import type { InvitationView } from '@/lib/core/api-types';
 
 export const invitationKey = (token: string) => `/api/invitations/${encodeURIComponent(token)}`;
 

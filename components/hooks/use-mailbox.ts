@@ -2,9 +2,9 @@
 
 import useSWR from 'swr';
 import { ApiError, fetcher } from '@/lib/client/api';
-import type { MailboxMessage as MailMessage } from '@/lib/api-types';
+import type { MailboxMessage as MailMessage } from '@/lib/core/api-types';
 
-export type { MailboxAttachment as MailAttachment, MailboxMessage as MailMessage } from '@/lib/api-types';
+export type { MailboxAttachment as MailAttachment, MailboxMessage as MailMessage } from '@/lib/core/api-types';
 
 export const MAILBOX_KEY = '/api/dev/mailbox';
 

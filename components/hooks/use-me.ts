@@ -2,9 +2,9 @@
 
 import useSWR from 'swr';
 import { fetcher } from '@/lib/client/api';
-import type { Me } from '@/lib/api-types';
+import type { Me } from '@/lib/core/api-types';
 
-export type { Me, Role } from '@/lib/api-types';
+export type { Me, Role } from '@/lib/core/api-types';
 
 
 export const ME_KEY = '/api/me';

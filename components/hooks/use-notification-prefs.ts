@@ -2,9 +2,9 @@
 
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
-import type { NotificationPrefs, WaitingVersion } from '@/lib/api-types';
+import type { NotificationPrefs, WaitingVersion } from '@/lib/core/api-types';
 
-export type { NotificationPrefs, WaitingVersion } from '@/lib/api-types';
+export type { NotificationPrefs, WaitingVersion } from '@/lib/core/api-types';
 
 export const NOTIFICATION_PREFS_KEY = '/api/me/notifications';
 

@@ -2,9 +2,9 @@
 
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
-import type { FirmSettings, LogoSaved } from '@/lib/api-types';
+import type { FirmSettings, LogoSaved } from '@/lib/core/api-types';
 
-export type { FirmSettings, PaperSize, Units } from '@/lib/api-types';
+export type { FirmSettings, PaperSize, Units } from '@/lib/core/api-types';
 
 export const SETTINGS_KEY = '/api/settings';
 

@@ -2,9 +2,9 @@
 
 import useSWR from 'swr';
 import { api, fetcher } from '@/lib/client/api';
-import type { Invitation, InvitedRole, Role, Team, TeamMember } from '@/lib/api-types';
+import type { Invitation, InvitedRole, Role, Team, TeamMember } from '@/lib/core/api-types';
 
-export type { Invitation, SeatUsage, Team, TeamMember } from '@/lib/api-types';
+export type { Invitation, SeatUsage, Team, TeamMember } from '@/lib/core/api-types';
 
 export const TEAM_KEY = '/api/team';
 

@@ -1,6 +1,6 @@
 import { StatusPill, type StatusKind } from '@/components/ui/badge';
-import { CHECK_STATE_LABELS } from '@/lib/models/templates';
-import type { CheckState } from '@/lib/models/types';
+import { CHECK_STATE_LABELS } from '@/lib/core/models/templates';
+import type { CheckState } from '@/lib/core/models/types';
 
 const KIND: Record<CheckState, StatusKind> = { unchecked: 'waiting', signed_off: 'ok', sent_back: 'warn' };
 

@@ -5,8 +5,8 @@ import { useMemo, useState } from 'react';
 import { ResultsPreview } from '@/components/results';
 import { Banner, Button, Card, DateText, EmptyState, FieldError, FormError, LoadError, Loading, PageHeader, StatusPill, cx } from '@/components/ui';
 import { ApiError, errorMessage } from '@/lib/client/api';
-import { diffModels, formatDiffValue, summarise, type DiffEntry, type DiffKind } from '@/lib/models/diff';
-import type { CheckComment, VersionRecord } from '@/lib/models/types';
+import { diffModels, formatDiffValue, summarise, type DiffEntry, type DiffKind } from '@/lib/core/models/diff';
+import type { CheckComment, VersionRecord } from '@/lib/core/models/types';
 import { CheckStatePill } from './check-state-pill';
 import { checkVersion, useModel, useVersion } from './use-models';
 

@@ -7,9 +7,9 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { Button, Card, FieldError, FormError, TextField, cx } from '@/components/ui';
 import { ApiError, applyServerErrors, errorMessage } from '@/lib/client/api';
-import { findJsonSyntaxError } from '@/lib/models/json-io';
-import { TEMPLATE_IDS, TEMPLATE_LABELS, TEMPLATE_SUMMARIES } from '@/lib/models/templates';
-import type { TemplateId } from '@/lib/models/types';
+import { findJsonSyntaxError } from '@/lib/core/models/json-io';
+import { TEMPLATE_IDS, TEMPLATE_LABELS, TEMPLATE_SUMMARIES } from '@/lib/core/models/templates';
+import type { TemplateId } from '@/lib/core/models/types';
 import { useModels } from './use-models';
 
 const formSchema = z

@@ -3,10 +3,10 @@
 import { useMemo, useState, type ReactNode } from 'react';
 import { Banner, Button, Checkbox, ConfirmButton, DateText, FieldError, FormError, Select, StatusPill, TextField } from '@/components/ui';
 import { ApiError, errorMessage } from '@/lib/client/api';
-import type { CheckedModel } from '@/lib/engine/checked-model';
-import { CHECK_STATE_LABELS } from '@/lib/models/templates';
-import type { TemplateId, VersionSummary, WidgetRecord } from '@/lib/models/types';
-import { DEFAULT_PANELS, HEADLINES, PANEL_IDS, PANEL_LABELS, defaultHeadline, type PanelId } from '@/lib/models/widget-options';
+import type { CheckedModel } from '@/lib/core/engine/checked-model';
+import { CHECK_STATE_LABELS } from '@/lib/core/models/templates';
+import type { TemplateId, VersionSummary, WidgetRecord } from '@/lib/core/models/types';
+import { DEFAULT_PANELS, HEADLINES, PANEL_IDS, PANEL_LABELS, defaultHeadline, type PanelId } from '@/lib/core/models/widget-options';
 import { publishWidget, unpublishWidget, updateWidget, useVersion, type WidgetBody } from './use-models';
 
 export interface PublishPanelProps {

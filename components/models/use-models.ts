@@ -2,9 +2,9 @@
 
 import useSWR, { mutate as mutateKey } from 'swr';
 import { api, fetcher } from '@/lib/client/api';
-import type { CheckedModel } from '@/lib/engine/checked-model';
-import type { CheckComment, ModelListRow, ModelRecord, TemplateId, VersionRecord, VersionSummary, WidgetRecord } from '@/lib/models/types';
-import type { ModelDetail } from '@/lib/api-types';
+import type { CheckedModel } from '@/lib/core/engine/checked-model';
+import type { CheckComment, ModelListRow, ModelRecord, TemplateId, VersionRecord, VersionSummary, WidgetRecord } from '@/lib/core/models/types';
+import type { ModelDetail } from '@/lib/core/api-types';
 
 // One hook per resource of the studio; actions revalidate what they change.
 
@@ -12,7 +12,7 @@ export const modelsKey = (includeArchived: boolean) => `/api/models${includeArch
 export const modelKey = (id: string) => `/api/models/${encodeURIComponent(id)}`;
 export const versionKey = (id: string, n: number) => `/api/models/${encodeURIComponent(id)}/versions/${n}`;
 
-export type { ModelDetail } from '@/lib/api-types';
+export type { ModelDetail } from '@/lib/core/api-types';
 
 export interface CreateModelBody {
   title?: string;

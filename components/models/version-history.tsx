@@ -2,7 +2,7 @@
 
 import Link from 'next/link';
 import { DataTable, DateText, EmptyState, StatusPill, type Column } from '@/components/ui';
-import type { VersionSummary } from '@/lib/models/types';
+import type { VersionSummary } from '@/lib/core/models/types';
 import { CheckStatePill } from './check-state-pill';
 
 export interface VersionHistoryProps {

@@ -1,4 +1,4 @@
-import type { Caution } from '@/lib/cautions';
+import type { Caution } from '@/lib/core/cautions';
 import { cx } from '@/components/ui/cx';
 
 /** The cautions beside a result (DESIGN.md §12); the low-trial flag, when present, comes first. */

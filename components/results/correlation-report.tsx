@@ -1,8 +1,8 @@
 'use client';
 
-import type { RunResult } from '@/lib/engine';
-import type { StackAnalysis } from '@/lib/engine/analytic';
-import { formatFixed, formatPpm } from '@/lib/charts/format';
+import type { RunResult } from '@/lib/core/engine';
+import type { StackAnalysis } from '@/lib/core/engine/analytic';
+import { formatFixed, formatPpm } from '@/lib/core/charts/format';
 
 /** Correlated stack: RSS and the normal estimate without and with the correlation terms, side by side. */
 export function StackCorrelationTerms({ a, format }: { a: StackAnalysis; format: (v: number | null) => string }) {

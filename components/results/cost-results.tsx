@@ -1,9 +1,9 @@
 'use client';
 
 import { useMemo } from 'react';
-import type { RunResult } from '@/lib/engine';
-import { formatPercent, percentileName } from '@/lib/charts/format';
-import type { ValueMarker } from '@/lib/charts/spread';
+import type { RunResult } from '@/lib/core/engine';
+import { formatPercent, percentileName } from '@/lib/core/charts/format';
+import type { ValueMarker } from '@/lib/core/charts/spread';
 import { CumulativeChart } from '@/components/charts/cumulative-chart';
 import { DriversChart } from '@/components/charts/drivers-chart';
 import { SpreadChart } from '@/components/charts/spread-chart';

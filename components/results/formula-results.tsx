@@ -1,8 +1,8 @@
 'use client';
 
 import { useMemo, useState } from 'react';
-import type { OutputSummary, RunResult } from '@/lib/engine';
-import { formatFixed, formatPercent, formatPpm } from '@/lib/charts/format';
+import type { OutputSummary, RunResult } from '@/lib/core/engine';
+import { formatFixed, formatPercent, formatPpm } from '@/lib/core/charts/format';
 import { CumulativeChart } from '@/components/charts/cumulative-chart';
 import { DriversChart } from '@/components/charts/drivers-chart';
 import { SpreadChart } from '@/components/charts/spread-chart';

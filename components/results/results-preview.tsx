@@ -1,8 +1,8 @@
 'use client';
 
-import type { SampleSelection } from '@/lib/engine/simulate';
-import { pathText } from '@/lib/engine/errors';
-import { formatCount, formatDuration } from '@/lib/charts/format';
+import type { SampleSelection } from '@/lib/core/engine/simulate';
+import { pathText } from '@/lib/core/engine/errors';
+import { formatCount, formatDuration } from '@/lib/core/charts/format';
 import { Banner } from '@/components/ui/banner';
 import { Button } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -10,8 +10,8 @@ import { ProgressBar } from '@/components/ui/progress-bar';
 import { cx } from '@/components/ui/cx';
 import { ResultsView } from './results-view';
 import { useSimulation, type SimulationState } from './use-simulation';
-import { createStudioEngine } from '@/lib/engine/studio-engine';
-import type { CheckedModel } from '@/lib/engine/checked-model';
+import { createStudioEngine } from '@/lib/core/engine/studio-engine';
+import type { CheckedModel } from '@/lib/core/engine/checked-model';
 
 export interface ResultsPreviewProps {
   /** The checked model (null: nothing to run); the engine checks it again with the dial values applied. */

@@ -1,8 +1,8 @@
 'use client';
 
 import { useMemo } from 'react';
-import type { RunResult } from '@/lib/engine';
-import { cautionsFor } from '@/lib/cautions';
+import type { RunResult } from '@/lib/core/engine';
+import { cautionsFor } from '@/lib/core/cautions';
 import { cx } from '@/components/ui/cx';
 import { CautionsList } from './cautions-list';
 import { CostResults } from './cost-results';

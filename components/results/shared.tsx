@@ -1,13 +1,13 @@
 'use client';
 
 import { useMemo, useState, type ReactNode } from 'react';
-import type { OutputSummary, RunResult } from '@/lib/engine';
-import { PERCENTILE_DEFINITION } from '@/lib/engine/stats';
-import { formatCount, formatDuration, formatPercent, formatPpm, formatValue } from '@/lib/charts/format';
-import { outputFormatter } from '@/lib/results/chart-inputs';
-import type { SpecLimits } from '@/lib/charts/spread';
-import { tablesToCsv } from '@/lib/results/csv';
-import { resultTables } from '@/lib/results/tables';
+import type { OutputSummary, RunResult } from '@/lib/core/engine';
+import { PERCENTILE_DEFINITION } from '@/lib/core/engine/stats';
+import { formatCount, formatDuration, formatPercent, formatPpm, formatValue } from '@/lib/core/charts/format';
+import { outputFormatter } from '@/lib/core/results/chart-inputs';
+import type { SpecLimits } from '@/lib/core/charts/spread';
+import { tablesToCsv } from '@/lib/core/results/csv';
+import { resultTables } from '@/lib/core/results/tables';
 import { ScatterChart } from '@/components/charts/scatter-chart';
 import { saveBlob, fileSlug } from '@/components/charts/download';
 import { Term } from '@/components/ui/term';

@@ -1,11 +1,11 @@
 // The logic behind useSimulation, kept free of React so it can be tested with a fake engine client:
 // debounced reruns, cancel-and-restart when the inputs change, progress, run time, and the previous
 // result kept on screen until the next one is ready.
-import { ModelValidationError, RunCancelledError, type ModelIssue } from '@/lib/engine/errors';
-import type { Progress, RunResult, SampleSelection } from '@/lib/engine/simulate';
+import { ModelValidationError, RunCancelledError, type ModelIssue } from '@/lib/core/engine/errors';
+import type { Progress, RunResult, SampleSelection } from '@/lib/core/engine/simulate';
 import { withEarlierParts } from './staged-result';
-import type { WorkerRunOptions } from '@/lib/engine/worker-client';
-import type { CheckedModel } from '@/lib/engine/checked-model';
+import type { WorkerRunOptions } from '@/lib/core/engine/worker-client';
+import type { CheckedModel } from '@/lib/core/engine/checked-model';
 
 /** What the controller needs from the engine's worker client (EngineWorkerClient fits). */
 export interface RunClient {

@@ -1,9 +1,9 @@
 'use client';
 
 import { useMemo } from 'react';
-import type { RunResult } from '@/lib/engine';
-import { formatFixed, formatPpm } from '@/lib/charts/format';
-import type { RangeRow } from '@/lib/charts/ranges';
+import type { RunResult } from '@/lib/core/engine';
+import { formatFixed, formatPpm } from '@/lib/core/charts/format';
+import type { RangeRow } from '@/lib/core/charts/ranges';
 import { CumulativeChart } from '@/components/charts/cumulative-chart';
 import { DriversChart } from '@/components/charts/drivers-chart';
 import { RangesChart } from '@/components/charts/ranges-chart';
@@ -12,7 +12,7 @@ import { Term } from '@/components/ui/term';
 import { Figure, Figures, StatusMark } from './figures';
 import { AchievedCorrelations, StackCorrelationTerms } from './correlation-report';
 import { fv, limitsOf, outLabelsOf, outputFormat, ScatterPanel, outShareOf } from './shared';
-import { normalEstimateNote } from '@/lib/results/headline';
+import { normalEstimateNote } from '@/lib/core/results/headline';
 
 const PPK_MIN = 1.33; // common practice, no source: the usual minimum for an established process
 

@@ -1,7 +1,7 @@
-// A run's result arrives in steps (lib/engine/merge.ts mergeStaged): the headline figures, then the charts, then
+// A run's result arrives in steps (lib/core/engine/merge.ts mergeStaged): the headline figures, then the charts, then
 // the drivers. Until a step lands, the parts it computes are shown from the previous result (flagged pending, so
 // the view can dim them), which keeps charts in place instead of blanking them for a few milliseconds.
-import type { RunResult } from '@/lib/engine/simulate';
+import type { RunResult } from '@/lib/core/engine/simulate';
 
 /** `partial` with the parts not computed yet ('charts': charts and drivers; 'drivers': drivers) taken from `previous`. */
 export function withEarlierParts(partial: RunResult, previous: RunResult | null, pending: 'charts' | 'drivers'): RunResult {

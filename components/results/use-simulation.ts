@@ -1,8 +1,8 @@
 'use client';
 
 import { useCallback, useEffect, useMemo, useState, useSyncExternalStore } from 'react';
-import type { SampleSelection } from '@/lib/engine/simulate';
-import type { CheckedModel } from '@/lib/engine/checked-model';
+import type { SampleSelection } from '@/lib/core/engine/simulate';
+import type { CheckedModel } from '@/lib/core/engine/checked-model';
 import { SimulationController, type RunClient, type SimulationSnapshot } from './simulation-controller';
 
 export type { SimulationSnapshot, SimulationStatus, SimulationError } from './simulation-controller';
@@ -14,7 +14,7 @@ export interface UseSimulationOptions {
   samples?: SampleSelection;
   /** Set false to hold runs (e.g. while a form is invalid). */
   enabled?: boolean;
-  /** Engine client factory: createStudioEngine (lib/engine/studio-engine) or, for published versions, createEmbedEngine. */
+  /** Engine client factory: createStudioEngine (lib/core/engine/studio-engine) or, for published versions, createEmbedEngine. */
   createClient: () => RunClient;
 }
 

@@ -7,8 +7,8 @@ import { FormError } from '@/components/ui/form-error';
 import { Loading } from '@/components/ui/loading';
 import { LoadError } from '@/components/ui/load-error';
 import { useNotificationPrefs } from '@/components/hooks/use-notification-prefs';
-import { NOTIFICATION_INFO, NOTIFICATION_KINDS, type NotificationKind } from '@/lib/notifications/kinds';
-import type { Role } from '@/lib/api-types';
+import { NOTIFICATION_INFO, NOTIFICATION_KINDS, type NotificationKind } from '@/lib/core/notifications/kinds';
+import type { Role } from '@/lib/core/api-types';
 
 /**
  * Each person's own choice of review-loop e-mails. The kinds that fit the role come first; the others are listed

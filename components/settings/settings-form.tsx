@@ -5,7 +5,7 @@ import { useRouter } from 'next/navigation';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { settingsSchema } from '@/lib/auth/schemas';
+import { settingsSchema } from '@/lib/core/auth/schemas';
 import { applyServerErrors } from '@/lib/client/api';
 import { useSettings, type FirmSettings } from '@/components/hooks/use-settings';
 import { Button } from '@/components/ui/button';

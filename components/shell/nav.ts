@@ -1,4 +1,4 @@
-import type { Permission } from '@/lib/auth/permissions';
+import type { Permission } from '@/lib/core/auth/permissions';
 import type { NavItem } from './dashboard-shell';
 
 /** Every dashboard section and the permission that shows it in the navigation. */

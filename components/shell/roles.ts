@@ -1,4 +1,4 @@
-import type { Role } from '@/lib/api-types';
+import type { Role } from '@/lib/core/api-types';
 
 export const ROLE_LABELS: Record<Role, string> = { owner: 'Owner', author: 'Author', checker: 'Checker' };
 

@@ -1,5 +1,5 @@
 import type { StatusKind } from '@/components/ui/badge';
-import type { SnapshotState } from '@/lib/api-types';
+import type { SnapshotState } from '@/lib/core/api-types';
 
 /** How a snapshot's delivery state reads in the dashboard: a pill shape and its words. */
 export function snapshotStatus(state: SnapshotState, attempts: number): { kind: StatusKind; text: string } {

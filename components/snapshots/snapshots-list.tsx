@@ -1,7 +1,7 @@
 'use client';
 
 import { useState } from 'react';
-import type { SnapshotListRow } from '@/lib/api-types';
+import type { SnapshotListRow } from '@/lib/core/api-types';
 import { DataTable, type Column } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { Select } from '@/components/ui/field';

@@ -2,7 +2,7 @@
 
 import useSWR from 'swr';
 import { fetcher } from '@/lib/client/api';
-import type { SnapshotListRow } from '@/lib/api-types';
+import type { SnapshotListRow } from '@/lib/core/api-types';
 
 // One hook per resource: the firm's snapshot requests, optionally for one client.
 

@@ -4,7 +4,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { inviteSchema } from '@/lib/auth/schemas';
+import { inviteSchema } from '@/lib/core/auth/schemas';
 import { applyServerErrors } from '@/lib/client/api';
 import { Button } from '@/components/ui/button';
 import { Select, TextField } from '@/components/ui/field';

@@ -3,7 +3,7 @@
 import Link from 'next/link';
 import { useState } from 'react';
 import { useTeam, type Invitation, type TeamMember } from '@/components/hooks/use-team';
-import type { Role } from '@/lib/api-types';
+import type { Role } from '@/lib/core/api-types';
 import { errorMessage } from '@/lib/client/api';
 import { Card } from '@/components/ui/card';
 import { DataTable, type Column } from '@/components/ui/data-table';

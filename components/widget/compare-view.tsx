@@ -1,15 +1,15 @@
 'use client';
 
 import { useMemo } from 'react';
-import type { RunResult } from '@/lib/engine';
-import { compareCurvesScene, compareSpreadsScene, COMPARE_STYLES } from '@/lib/charts/compare';
-import { percentileName } from '@/lib/charts/format';
-import { compareFigures, compareInput, CURRENT_LABEL, PINNED_LABEL } from '@/lib/results/compare';
-import { outputFormatter, panelOutput } from '@/lib/results/chart-inputs';
+import type { RunResult } from '@/lib/core/engine';
+import { compareCurvesScene, compareSpreadsScene, COMPARE_STYLES } from '@/lib/core/charts/compare';
+import { percentileName } from '@/lib/core/charts/format';
+import { compareFigures, compareInput, CURRENT_LABEL, PINNED_LABEL } from '@/lib/core/results/compare';
+import { outputFormatter, panelOutput } from '@/lib/core/results/chart-inputs';
 import { ChartFrame } from '@/components/charts/chart-frame';
 import { ChartTable } from '@/components/charts/chart-table';
 import { useElementWidth } from '@/components/charts/use-element-width';
-import { dialDisplay, type DialSpec } from './dial-values';
+import { dialDisplay, type DialSpec } from '@/lib/core/widget/dial-values';
 
 const TH = 'border-b border-ink-200 px-2.5 py-1.5 text-left text-xs font-semibold text-ink-700';
 const TD = 'border-b border-ink-100 px-2.5 py-1.5 align-top';

@@ -2,7 +2,7 @@
 
 import { useId, useState } from 'react';
 import { cx } from '@/components/ui/cx';
-import { dialDisplay, dialText, parseDialInput, type DialSpec } from './dial-values';
+import { dialDisplay, dialText, parseDialInput, type DialSpec } from '@/lib/core/widget/dial-values';
 
 export interface DialControlProps {
   dial: DialSpec;

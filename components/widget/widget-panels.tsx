@@ -1,15 +1,15 @@
 'use client';
 
 import { useMemo } from 'react';
-import type { RunResult } from '@/lib/engine';
-import { panelChartInputs } from '@/lib/results/chart-inputs';
+import type { RunResult } from '@/lib/core/engine';
+import { panelChartInputs } from '@/lib/core/results/chart-inputs';
 import { CumulativeChart } from '@/components/charts/cumulative-chart';
 import { DriversChart } from '@/components/charts/drivers-chart';
 import { SpreadChart } from '@/components/charts/spread-chart';
 
 export type ChartPanel = 'spread' | 'cumulative' | 'drivers';
 
-/** One chart panel of a widget; the inputs are the ones the PDF snapshot draws too (lib/results/chart-inputs.ts). */
+/** One chart panel of a widget; the inputs are the ones the PDF snapshot draws too (lib/core/results/chart-inputs.ts). */
 export function WidgetChart({ result, panel }: { result: RunResult; panel: ChartPanel }) {
   const c = useMemo(() => panelChartInputs(result), [result]);
   const all = useMemo(() => c.output.percentiles.map((p) => ({ p: p.p, value: p.value })), [c.output.percentiles]);

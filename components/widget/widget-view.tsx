@@ -1,9 +1,9 @@
 'use client';
 
 import { lazy, Suspense, useCallback, useId, useMemo, useState, type CSSProperties, type ReactNode } from 'react';
-import { cautionsFor, lowTrialCaution } from '@/lib/cautions';
-import { formatCount, formatDuration } from '@/lib/charts/format';
-import { headlineFigure } from '@/lib/results/headline';
+import { cautionsFor, lowTrialCaution } from '@/lib/core/cautions';
+import { formatCount, formatDuration } from '@/lib/core/charts/format';
+import { headlineFigure } from '@/lib/core/results/headline';
 import { Banner } from '@/components/ui/banner';
 import { cx } from '@/components/ui/cx';
 import { formatDate } from '@/components/ui/format';
@@ -12,14 +12,14 @@ import { Term } from '@/components/ui/term';
 import { CautionsList } from '@/components/results/cautions-list';
 import { useSimulation } from '@/components/results/use-simulation';
 import type { RunClient } from '@/components/results/simulation-controller';
-import { brandColors } from './brand';
+import { brandColors } from '@/lib/core/widget/brand';
 import { DialControl } from './dial-control';
-import { atDefaults, initialDialValues, type DialSpec } from './dial-values';
-import { modelOutline } from './model-outline';
+import { atDefaults, initialDialValues, type DialSpec } from '@/lib/core/widget/dial-values';
+import { modelOutline } from '@/lib/core/widget/model-outline';
 import { WidgetChart, type ChartPanel } from './widget-panels';
 import { PinnedViewContext } from './pin-context';
-import type { RunResult } from '@/lib/engine';
-import type { CheckedModel } from '@/lib/engine/checked-model';
+import type { RunResult } from '@/lib/core/engine';
+import type { CheckedModel } from '@/lib/core/engine/checked-model';
 
 export type WidgetPanel = 'spread' | 'cumulative' | 'drivers' | 'headline';
 
@@ -27,7 +27,7 @@ export interface WidgetConfig {
   title: string;
   /** Panels in the order shown; unknown ids are ignored. */
   panels: readonly (WidgetPanel | string)[];
-  /** Headline figure id (lib/models/widget-options.ts HEADLINES). */
+  /** Headline figure id (lib/core/models/widget-options.ts HEADLINES). */
   headline: string;
   /** Dials the viewer may move, in this order. */
   dialIds: readonly string[];

@@ -1,7 +1,7 @@
 // The one request helper under every browser call to the Stochos API: an answer is the parsed JSON body, a failure
 // is an ApiError shaped like the server's error body. Small and free of React, SWR and zod, so the embed page uses it
 // as it is; the app's client (./api.ts) adds its wording, the SWR fetcher and the form helpers on top.
-import type { ErrorBody, FieldErrors } from '@/lib/api-types';
+import type { ErrorBody, FieldErrors } from '@/lib/core/api-types';
 
 export type FieldMessages = FieldErrors;
 

@@ -1,6 +1,6 @@
 import path from 'node:path';
 import { startStack } from '@/lib/dev/stack';
-import { DEMO_PASSWORD, DEMO_PEOPLE } from '@/db/seed/demo';
+import { DEMO_PASSWORD, DEMO_PEOPLE } from '@/lib/dev/seed/demo';
 
 // `npm run demo`: the app with its database, demo data and local fakes, on fixed local ports.
 async function main(): Promise<void> {

@@ -1,8 +1,8 @@
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { listLivePassesForOrigin, type HostPass } from '@/db/passes';
-import { mintPassToken } from '@/lib/embed/tokens';
-import { embedSnippet } from '@/lib/embed/snippet';
+import { mintPassToken } from '@/lib/server/embed/tokens';
+import { embedSnippet } from '@/lib/server/embed/snippet';
 
 /**
  * The demo host page: invented client portals on a second local origin, each embedding only the live widgets

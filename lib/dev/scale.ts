@@ -6,7 +6,7 @@ import { randomUUID } from 'node:crypto';
 import { pathToFileURL } from 'node:url';
 import { dataFolderSecret, startStack, startSnapshotWorkerProcess } from '@/lib/dev/stack';
 import { startThrowawayPostgres, type ThrowawayPostgres } from '@/lib/dev/pg-cluster';
-import { DEMO_PASSWORD } from '@/db/seed/demo';
+import { DEMO_PASSWORD } from '@/lib/dev/seed/demo';
 
 // `npm run demo:scale -- --instances N --workers M [--postgres]`: the scale-out layout on one machine. N app
 // instances (`next start` on ports 3001..) over one database, M snapshot workers, the local fakes, and a small
@@ -114,7 +114,7 @@ async function main(): Promise<void> {
   const backends: Backend[] = [{ port: lbPort + 1, ready: false, child: null }];
   for (let i = 1; i < args.instances; i++) {
     const p = lbPort + 1 + i;
-    const child = spawn(process.execPath, ['--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(p)], { env, stdio: ['ignore', 'ignore', 'inherit'] });
+    const child = spawn(process.execPath, ['--import', pathToFileURL(path.resolve('lib/server/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(p)], { env, stdio: ['ignore', 'ignore', 'inherit'] });
     backends.push({ port: p, ready: false, child });
   }
   const workers = Array.from({ length: args.workers - 1 }, () => startSnapshotWorkerProcess(env, true));

@@ -124,14 +124,14 @@ export function dataFolderSecret(dataDir: string): string {
 
 function runCli(args: string[], childEnv: NodeJS.ProcessEnv): Promise<string> {
   return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, [path.resolve('node_modules/tsx/dist/cli.mjs'), '--conditions=react-server', 'db/cli.ts', ...args], {
+    const child = spawn(process.execPath, [path.resolve('node_modules/tsx/dist/cli.mjs'), '--conditions=react-server', args[0] === 'seed' ? 'lib/dev/seed/cli.ts' : 'db/cli.ts', ...(args[0] === 'seed' ? args.slice(1) : args)], {
       env: { ...childEnv, NODE_OPTIONS: '' },
       stdio: ['ignore', 'pipe', 'pipe'],
     });
     let out = '';
     child.stdout.on('data', (d) => (out += d));
     child.stderr.on('data', (d) => (out += d));
-    child.on('exit', (code) => (code === 0 ? resolve(out.trim()) : reject(new Error(`db/cli.ts ${args.join(' ')} failed:\n${out}`))));
+    child.on('exit', (code) => (code === 0 ? resolve(out.trim()) : reject(new Error(`${args[0] === 'seed' ? 'lib/dev/seed/cli.ts' : 'db/cli.ts'} ${args.join(' ')} failed:\n${out}`))));
   });
 }
 
@@ -141,8 +141,8 @@ function runCli(args: string[], childEnv: NodeJS.ProcessEnv): Promise<string> {
  */
 export async function startAppProcess(childEnv: NodeJS.ProcessEnv, port: number, quiet?: boolean, nodeArgs: string[] = []): Promise<ChildProcess> {
   // Loopback only: the demo's mailbox and fakes are for the person at this machine. The preload stamps each
-  // request's socket address (lib/http/socket-peer.mjs), as `npm start` does.
-  const child = spawn(process.execPath, [...nodeArgs, '--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(port)], {
+  // request's socket address (lib/server/http/socket-peer.mjs), as `npm start` does.
+  const child = spawn(process.execPath, [...nodeArgs, '--import', pathToFileURL(path.resolve('lib/server/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-H', '127.0.0.1', '-p', String(port)], {
     env: { ...childEnv, NODE_ENV: 'production', NODE_OPTIONS: '' },
     stdio: quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });
@@ -170,9 +170,9 @@ async function waitForHttp(url: string, child: ChildProcess, timeoutMs = 60_000)
   throw new Error(`${url} did not answer within ${timeoutMs / 1000} s`);
 }
 
-/** The snapshot worker (lib/snapshots/worker-main.ts) as a child process; node loads TypeScript through tsx directly so a signal reaches it. */
+/** The snapshot worker (lib/server/snapshots/worker-main.ts) as a child process; node loads TypeScript through tsx directly so a signal reaches it. */
 export function startSnapshotWorkerProcess(childEnv: NodeJS.ProcessEnv, quiet?: boolean): ChildProcess {
-  return spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'lib/snapshots/worker-main.ts'], {
+  return spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'lib/server/snapshots/worker-main.ts'], {
     env: { ...childEnv, NODE_OPTIONS: '' },
     stdio: quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
   });

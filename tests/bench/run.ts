@@ -20,12 +20,12 @@
 import { spawnSync } from 'node:child_process';
 import os from 'node:os';
 import path from 'node:path';
-import { ChunkRunner, EMPTY_MOMENTS, mergeMoments, type ChunkPart, type Moments } from '@/lib/engine/chunks';
-import { prepareRun } from '@/lib/engine/prepare-run';
-import { createMarginal, type DistributionSpec } from '@/lib/engine/distributions';
-import { createColumnSampler, type SamplerContext } from '@/lib/engine/samplers';
-import { ColumnStore, mergeParts, runModelSync } from '@/lib/engine/simulate';
-import { percentilesBySelection, RankStore } from '@/lib/engine/stats';
+import { ChunkRunner, EMPTY_MOMENTS, mergeMoments, type ChunkPart, type Moments } from '@/lib/core/engine/chunks';
+import { prepareRun } from '@/lib/core/engine/prepare-run';
+import { createMarginal, type DistributionSpec } from '@/lib/core/engine/distributions';
+import { createColumnSampler, type SamplerContext } from '@/lib/core/engine/samplers';
+import { ColumnStore, mergeParts, runModelSync } from '@/lib/core/engine/simulate';
+import { percentilesBySelection, RankStore } from '@/lib/core/engine/stats';
 import { createNodeEnginePool } from '@/tests/support/node-engine-pool';
 
 const json = process.argv.includes('--json');

@@ -13,7 +13,7 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { startStack } from '@/lib/dev/stack';
-import { workOf } from '@/lib/simulate/budget';
+import { workOf } from '@/lib/server/simulate/budget';
 import { newFirm } from '../support/firms';
 
 const OFF = Number(process.env.TEST_PORT_OFFSET ?? 0);

@@ -1,10 +1,10 @@
 import { test, expect, type Browser, type Page } from '@playwright/test';
 import fs from 'node:fs';
-import { allocateTolerances } from '../../lib/engine/allocation';
-import { validateModel, type LinearStackModel } from '../../lib/engine/schema';
-import { evaluateStack } from '../../lib/engine/analytic';
-import { formatFixed } from '../../lib/charts/format';
-import { fitAll, type FitOk } from '../../lib/datasets/fit';
+import { allocateTolerances } from '../../lib/core/engine/allocation';
+import { validateModel, type LinearStackModel } from '../../lib/core/engine/schema';
+import { evaluateStack } from '../../lib/core/engine/analytic';
+import { formatFixed } from '../../lib/core/charts/format';
+import { fitAll, type FitOk } from '../../lib/core/datasets/fit';
 
 // Tolerance allocation, correlated contributors and the gamma law in Chromium: an author asks for a Ppk target,
 // gets a least-cost proposal beside the current tolerances, sees it confirmed by a Monte Carlo run, accepts it and

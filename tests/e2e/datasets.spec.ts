@@ -1,8 +1,8 @@
 import { test, expect, type Browser, type Page } from '@playwright/test';
 import fs from 'node:fs';
 import sharp from 'sharp';
-import { dataCapability } from '../../lib/datasets/summary';
-import { fitAll, LAW_LABELS, type FitOk } from '../../lib/datasets/fit';
+import { dataCapability } from '../../lib/core/datasets/summary';
+import { fitAll, LAW_LABELS, type FitOk } from '../../lib/core/datasets/fit';
 
 // Measured data in Chromium: an author uploads 60 measured lengths, sees the fits ranked, opens the plots of a law,
 // copies it, and sees Pp/Ppk of the parts against a tolerance; bad files are refused before anything is stored;

@@ -7,7 +7,7 @@ import type Database from 'better-sqlite3';
 import { Client } from '../support/http-client';
 import { openTestDb, firmIdOf } from '../support/db-direct';
 import { insertEmbedWidget } from '../integration/api/matrix/embed.rows';
-import { mintPassToken } from '@/lib/embed/tokens';
+import { mintPassToken } from '@/lib/server/embed/tokens';
 import { E2E, E2E_APP, E2E_HOST } from './support/ports';
 
 // Embeds in Chromium: the demo host page on a second origin (http://localhost:4300) frames widgets through the
@@ -248,8 +248,8 @@ test('the embed page and its refusal message have no serious or critical accessi
 // The embed fetches the formula parser and the correlation code only for models that use them (optional-parts.ts):
 // a published formula model and a cost model with correlated items must still show their figures in the frame.
 test('a formula model and a correlated cost model load their engine parts on demand and show figures', async ({ page }) => {
-  const { validateModel } = await import('@/lib/engine/schema');
-  const { EXAMPLE_MODELS } = await import('@/lib/engine/examples');
+  const { validateModel } = await import('@/lib/core/engine/schema');
+  const { EXAMPLE_MODELS } = await import('@/lib/core/engine/examples');
   const cost = EXAMPLE_MODELS['cost-range'] as { correlationGroups?: unknown[] };
   expect(cost.correlationGroups?.length ?? 0).toBeGreaterThan(0);
   const clientId = await newClient();

@@ -1,6 +1,6 @@
 import { test, expect, type Browser, type Page } from '@playwright/test';
 import fs from 'node:fs';
-import { exampleLinearStack } from '../../lib/engine/examples';
+import { exampleLinearStack } from '../../lib/core/engine/examples';
 import { newFirm, addMember, PASSWORD } from '../support/firms';
 import { listMessages, waitForMessage, firstLink } from '../support/mailbox';
 import { E2E_APP } from './support/ports';

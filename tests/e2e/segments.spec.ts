@@ -77,7 +77,7 @@ test('a page that fails: the error screen names the logged reference, and Try ag
   const res = await page.goto(`/dev/fail?key=${key}`);
   expect(res?.status()).toBe(500);
   await expect(page.getByRole('heading', { level: 1, name: 'This page could not be shown' })).toBeVisible();
-  // The digest Next sends instead of the message: the id the server's log line carries (lib/ops/render-errors.ts).
+  // The digest Next sends instead of the message: the id the server's log line carries (lib/server/ops/render-errors.ts).
   await expect(page.getByTestId('error-reference')).toHaveText(/^\w{6,}$/);
   await expect(page.getByText('Failure on purpose')).toHaveCount(0);
   await expect(page.getByRole('link', { name: 'Stochos home' }).last()).toHaveAttribute('href', '/');

@@ -22,7 +22,7 @@ test.afterAll(() => db?.close());
 /** The PDF's text layer and the page differ only in the kind of space between groups and units. */
 const norm = (s: string) => s.replace(/[\u00a0\u202f\u2009]/g, ' ').replace(/\s+/g, ' ').trim();
 
-/** A seeded pass of Quillbrook Pumps Ltd (db/seed/clients.ts: allows the host page's origin and @quillbrook-pumps.example). */
+/** A seeded pass of Quillbrook Pumps Ltd (lib/dev/seed/clients.ts: allows the host page's origin and @quillbrook-pumps.example). */
 function seededPass(): { passId: string; title: string } {
   const rows = db
     .prepare(

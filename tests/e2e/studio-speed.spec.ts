@@ -1,7 +1,7 @@
 import { test, expect, type Page } from '@playwright/test';
 import fs from 'node:fs';
-import { runModelSync } from '../../lib/engine';
-import { decimalsForSignificant, formatValue } from '../../lib/charts/format';
+import { runModelSync } from '../../lib/core/engine';
+import { decimalsForSignificant, formatValue } from '../../lib/core/charts/format';
 
 // How long an edit takes to reach the figures: a 20-contributor stack at 50,000 trials, edited in the studio.
 // Each edit's figures must be the engine's own for the edited model; the times are reported, never asserted

@@ -2,8 +2,8 @@ import { test, expect, type Browser, type Page } from '@playwright/test';
 import { signUpAndConfirm } from '../support/sign-up';
 import { E2E_APP } from './support/ports';
 import fs from 'node:fs';
-import { runModelSync } from '../../lib/engine';
-import { decimalsForSignificant, formatPpm, formatValue } from '../../lib/charts/format';
+import { runModelSync } from '../../lib/core/engine';
+import { decimalsForSignificant, formatPpm, formatValue } from '../../lib/core/charts/format';
 
 // The studio in Chromium: an author builds a linear stack from nothing, sees worst case, RSS and Monte Carlo as the
 // engine computes them, saves two versions; a checker compares and signs off; the author publishes. An author

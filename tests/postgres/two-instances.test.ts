@@ -46,7 +46,7 @@ beforeAll(async () => {
   appB = await startAppProcess(envB, 3301 + OFF, true);
   urlB = `http://localhost:${3301 + OFF}`;
   // Worker 2's log tells which jobs it sent, to show both workers shared the queue.
-  workerB = spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'lib/snapshots/worker-main.ts'], {
+  workerB = spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'lib/server/snapshots/worker-main.ts'], {
     env: { ...envB, NODE_OPTIONS: '' },
     stdio: ['ignore', 'pipe', 'inherit'],
   });

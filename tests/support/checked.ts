@@ -1,4 +1,4 @@
-import { validateModel, type CheckedModel } from '@/lib/engine/schema';
+import { validateModel, type CheckedModel } from '@/lib/core/engine/schema';
 
 /** A test's model through the schema, as every entry point does: a CheckedModel, or the first problem thrown. */
 export function checked(model: unknown): CheckedModel {

@@ -1,5 +1,5 @@
 import { Client } from './http-client';
-import { DEMO_PASSWORD, DEMO_PEOPLE } from '@/db/seed/demo';
+import { DEMO_PASSWORD, DEMO_PEOPLE } from '@/lib/dev/seed/demo';
 
 /** Signs in as the demo owner and reads a live pass and its signed token from the dashboard API, as a user would. */
 export async function demoPass(appUrl: string): Promise<{ passId: string; token: string }> {

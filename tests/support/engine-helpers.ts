@@ -1,5 +1,5 @@
 /** Shared helpers for the engine tests (no Node-only imports: also bundled for the browser). */
-import type { RunResult } from '@/lib/engine/simulate';
+import type { RunResult } from '@/lib/core/engine/simulate';
 
 /**
  * One-sample Kolmogorov-Smirnov statistic D = sup |F_n(x) - F(x)| of samples against a

@@ -4,8 +4,8 @@
  * esbuild by node-engine-pool.ts.
  */
 import { parentPort, workerData } from 'node:worker_threads';
-import { ChunkRunner, type ChunkPart } from '@/lib/engine/chunks';
-import { prepareRun } from '@/lib/engine/prepare-run';
+import { ChunkRunner, type ChunkPart } from '@/lib/core/engine/chunks';
+import { prepareRun } from '@/lib/core/engine/prepare-run';
 
 export interface NodeChunksRequest {
   id: number;

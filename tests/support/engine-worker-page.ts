@@ -3,9 +3,9 @@
  * worker pool client and workers (1, 2 or 4 of them), and exposes fingerprints of the
  * results to the test.
  */
-import { EngineWorkerClient } from '@/lib/engine/worker-client';
-import { EXAMPLE_MODELS } from '@/lib/engine/examples';
-import { validateModel, type CheckedModel } from '@/lib/engine/schema';
+import { EngineWorkerClient } from '@/lib/core/engine/worker-client';
+import { EXAMPLE_MODELS } from '@/lib/core/engine/examples';
+import { validateModel, type CheckedModel } from '@/lib/core/engine/schema';
 import { fingerprint, type Fingerprint } from './engine-helpers';
 
 declare global {

@@ -9,7 +9,7 @@ import { pathToFileURL } from 'node:url';
  */
 export async function startExtraApp(o: { dataDir: string; port: number; env: Record<string, string> }): Promise<{ url: string; stop: () => Promise<void> }> {
   const url = `http://localhost:${o.port}`;
-  const child: ChildProcess = spawn(process.execPath, ['--import', pathToFileURL(path.resolve('lib/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.port)], {
+  const child: ChildProcess = spawn(process.execPath, ['--import', pathToFileURL(path.resolve('lib/server/http/socket-peer.mjs')).href, path.resolve('node_modules/next/dist/bin/next'), 'start', '-p', String(o.port)], {
     env: {
       ...process.env,
       DATABASE_FILE: path.join(o.dataDir, 'stochos.sqlite'),

@@ -8,10 +8,10 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
-import type { ChunkPart } from '@/lib/engine/chunks';
-import { prepareRun } from '@/lib/engine/prepare-run';
-import { inputWindow, mergeParts, type RunOptions, type RunResult } from '@/lib/engine/simulate';
-import { RankStore } from '@/lib/engine/stats';
+import type { ChunkPart } from '@/lib/core/engine/chunks';
+import { prepareRun } from '@/lib/core/engine/prepare-run';
+import { inputWindow, mergeParts, type RunOptions, type RunResult } from '@/lib/core/engine/simulate';
+import { RankStore } from '@/lib/core/engine/stats';
 import type { NodeChunksRequest, NodeChunksResponse } from './engine-node-worker';
 
 const root = path.resolve(__dirname, '../..');

@@ -1,5 +1,5 @@
 import path from 'node:path';
-import { buildSimulateWorker } from '@/lib/simulate/build-worker.mjs';
+import { buildSimulateWorker } from '@/lib/server/simulate/build-worker.mjs';
 
 // Unit tests run server-side runs on the real worker-thread pool without a production build: the worker is built
 // once here (esbuild, well under a second) and every test process finds it through SIMULATE_WORKER_FILE.

@@ -5,7 +5,7 @@ import os from 'node:os';
 import path from 'node:path';
 import fs from 'node:fs';
 import type { Knex } from 'knex';
-import { resetEnvCache } from '@/lib/env';
+import { resetEnvCache } from '@/lib/server/env';
 import { closeDb, getDb } from '@/db/knex';
 import { createTestDatabase, testPgAdminUrl } from './pg-databases';
 

@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import { AuthCard } from '@/components/auth/auth-card';
 import { SignInForms } from '@/components/auth/sign-in-forms';
 import { safeNext, signInErrorText } from '@/components/auth/safe-next';
-import { env } from '@/lib/env';
+import { env } from '@/lib/server/env';
 
 export const metadata: Metadata = { title: 'Sign in' };
 

@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { apiKeyList, createApiKey } from '@/lib/firm/service';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { apiKeyList, createApiKey } from '@/lib/server/firm/service';
 
 const createSchema = z.object({ name: z.string().trim().min(1, 'Name the key after what will use it.').max(80, 'Use at most 80 characters.') });
 

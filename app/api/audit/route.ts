@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import { route, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { validationError } from '@/lib/http/errors';
-import { auditPage } from '@/lib/firm/service';
+import { route, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { validationError } from '@/lib/server/http/errors';
+import { auditPage } from '@/lib/server/firm/service';
 
 const query = z.object({ before: z.coerce.number().int().positive().optional() });
 

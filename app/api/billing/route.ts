@@ -1,6 +1,6 @@
-import { route, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { billingSummary } from '@/lib/billing/service';
+import { route, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { billingSummary } from '@/lib/server/billing/service';
 
 export const dynamic = 'force-dynamic';
 

@@ -1,7 +1,7 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { clientCreateSchema } from '@/lib/embed/schemas';
-import { clientList, clientView, createClient } from '@/lib/embed/service';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { clientCreateSchema } from '@/lib/core/embed/schemas';
+import { clientList, clientView, createClient } from '@/lib/server/embed/service';
 
 export const GET = route(async (req) => {
   const m = await requireMember('firm.read');

@@ -1,6 +1,6 @@
-import { route, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { datasetList, uploadDataset } from '@/lib/datasets/service';
+import { route, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { datasetList, uploadDataset } from '@/lib/server/datasets/service';
 
 export const GET = route(async () => {
   const m = await requireMember('models.read');

@@ -1,7 +1,7 @@
-import { route, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { PERMISSIONS, can, type Permission } from '@/lib/auth/permissions';
-import type { Me } from '@/lib/api-types';
+import { route, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { PERMISSIONS, can, type Permission } from '@/lib/core/auth/permissions';
+import type { Me } from '@/lib/core/api-types';
 
 export const GET = route(async () => {
   const m = await requireMember();

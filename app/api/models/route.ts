@@ -1,7 +1,7 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { createModelSchema } from '@/lib/models/schemas';
-import { createModel, modelList } from '@/lib/models/service';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { createModelSchema } from '@/lib/server/models/schemas';
+import { createModel, modelList } from '@/lib/server/models/service';
 
 export const GET = route(async (req) => {
   const m = await requireMember('models.read');

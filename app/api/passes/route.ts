@@ -1,9 +1,9 @@
 import { z } from 'zod';
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { validationError } from '@/lib/http/errors';
-import { passCreateSchema } from '@/lib/embed/schemas';
-import { createPass, passList, passView } from '@/lib/embed/service';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { validationError } from '@/lib/server/http/errors';
+import { passCreateSchema } from '@/lib/core/embed/schemas';
+import { createPass, passList, passView } from '@/lib/server/embed/service';
 
 const filters = z.object({ clientId: z.uuid('clientId is not a valid id.').optional(), widgetId: z.uuid('widgetId is not a valid id.').optional() });
 

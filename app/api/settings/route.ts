@@ -1,7 +1,7 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { settingsSchema } from '@/lib/auth/schemas';
-import { changeFirmSettings, firmSettings } from '@/lib/firm/service';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { settingsSchema } from '@/lib/core/auth/schemas';
+import { changeFirmSettings, firmSettings } from '@/lib/server/firm/service';
 
 export const GET = route(async () => {
   const m = await requireMember();

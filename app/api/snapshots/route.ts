@@ -1,8 +1,8 @@
-import { route, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { fieldError } from '@/lib/http/errors';
-import { isUuid } from '@/lib/http/params';
-import { snapshotList } from '@/lib/snapshots/service';
+import { route, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { fieldError } from '@/lib/server/http/errors';
+import { isUuid } from '@/lib/server/http/params';
+import { snapshotList } from '@/lib/server/snapshots/service';
 
 // The firm's snapshot requests and their delivery state, newest first; ?clientId= narrows to one client.
 export const GET = route(async (req) => {

@@ -1,6 +1,6 @@
-import { route, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { teamOverview } from '@/lib/team/accounts';
+import { route, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { teamOverview } from '@/lib/server/team/accounts';
 
 export const GET = route(async () => {
   const m = await requireMember('team.manage');

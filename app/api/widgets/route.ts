@@ -1,7 +1,7 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { publishSchema } from '@/lib/models/schemas';
-import { publish, widgetList } from '@/lib/models/service';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { publishSchema } from '@/lib/server/models/schemas';
+import { publish, widgetList } from '@/lib/server/models/service';
 
 export const GET = route(async (req) => {
   const m = await requireMember('models.read');

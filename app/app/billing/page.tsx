@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import { requirePageMember } from '@/lib/auth/guard';
+import { requirePageMember } from '@/lib/server/auth/guard';
 import { BillingView } from '@/components/billing/billing-view';
 
 export const metadata: Metadata = { title: 'Billing' };

@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
-import { requirePageMember } from '@/lib/auth/guard';
-import { PERMISSION_LABELS, type Permission } from '@/lib/auth/permissions';
+import { requirePageMember } from '@/lib/server/auth/guard';
+import { PERMISSION_LABELS, type Permission } from '@/lib/core/auth/permissions';
 import { ROLE_LABELS } from '@/components/shell/roles';
 import { LinkButton } from '@/components/ui/button';
 

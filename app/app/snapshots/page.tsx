@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
-import { requirePageMember } from '@/lib/auth/guard';
-import { isUuid } from '@/lib/http/params';
+import { requirePageMember } from '@/lib/server/auth/guard';
+import { isUuid } from '@/lib/server/http/params';
 import { PageHeader } from '@/components/ui/page-header';
 import { SnapshotsList } from '@/components/snapshots/snapshots-list';
 

@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import { requirePageMember } from '@/lib/auth/guard';
+import { requirePageMember } from '@/lib/server/auth/guard';
 import { PageHeader } from '@/components/ui/page-header';
 import { TeamManager } from '@/components/team/team-manager';
 

@@ -1,11 +1,11 @@
 'use client';
 
-import { EXAMPLE_MODELS } from '@/lib/engine/examples';
-import { validateModel, type CheckedModel, type Template } from '@/lib/engine/schema';
+import { EXAMPLE_MODELS } from '@/lib/core/engine/examples';
+import { validateModel, type CheckedModel, type Template } from '@/lib/core/engine/schema';
 import { ResultsPreview } from '@/components/results/results-preview';
 import { WidgetView } from '@/components/widget/widget-view';
-import { createStudioEngine } from '@/lib/engine/studio-engine';
-import { defaultHeadline } from '@/lib/models/widget-options';
+import { createStudioEngine } from '@/lib/core/engine/studio-engine';
+import { defaultHeadline } from '@/lib/core/models/widget-options';
 
 // Invented firms and colours: a dark accent, a light one (darkened for contrast) and a purple.
 const BRANDS: Record<Template, { firmName: string; brandColor: string; logoUrl?: string }> = {

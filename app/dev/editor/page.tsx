@@ -4,8 +4,8 @@ import { notFound } from 'next/navigation';
 import { Logo } from '@/components/ui/logo';
 import { PageHeader } from '@/components/ui/page-header';
 import { EditorDemo } from '@/components/editor/editor-demo';
-import { TEMPLATE_IDS, TEMPLATE_LABELS } from '@/lib/models/templates';
-import type { TemplateId } from '@/lib/models/types';
+import { TEMPLATE_IDS, TEMPLATE_LABELS } from '@/lib/core/models/templates';
+import type { TemplateId } from '@/lib/core/models/types';
 
 export const metadata: Metadata = { title: 'Model editor (development)', robots: { index: false, follow: false } };
 // Decided per request: the page exists in development and in demo installations only.

@@ -5,7 +5,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { headers } from 'next/headers';
 import { notFound } from 'next/navigation';
 import { MailboxView } from '@/components/mailbox/mailbox-view';
-import { mailboxOpenFor } from '@/lib/mail/dev-mailbox';
+import { mailboxOpenFor } from '@/lib/server/mail/dev-mailbox';
 
 export const metadata: Metadata = { title: 'Development mailbox', robots: { index: false, follow: false } };
 

@@ -1,8 +1,8 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { EXAMPLE_MODELS, DISTRIBUTION_PARAMS, FORMULA_FUNCTIONS, FORMULA_CONSTANTS, MIN_TRIALS, MAX_TRIALS, PERCENTILE_DEFINITION, SCHEMA_ID } from '@/lib/engine';
+import { EXAMPLE_MODELS, DISTRIBUTION_PARAMS, FORMULA_FUNCTIONS, FORMULA_CONSTANTS, MIN_TRIALS, MAX_TRIALS, PERCENTILE_DEFINITION, SCHEMA_ID } from '@/lib/core/engine';
 import { Logo } from '@/components/ui/logo';
-import { runLimits } from '@/lib/simulate/limits';
+import { runLimits } from '@/lib/server/simulate/limits';
 
 export const metadata: Metadata = { title: 'Model JSON and the simulate API' };
 // The limits shown are the ones this server runs with (set by environment variables at start-up).

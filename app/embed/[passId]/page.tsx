@@ -1,6 +1,6 @@
-import { checkPassFrame } from '@/lib/embed/access';
-import { viewerMessage } from '@/lib/embed/messages';
-import { normaliseOrigin } from '@/lib/embed/schemas';
+import { checkPassFrame } from '@/lib/server/embed/access';
+import { viewerMessage } from '@/lib/server/embed/messages';
+import { normaliseOrigin } from '@/lib/core/embed/schemas';
 import { EmbedNotice } from '@/components/embed/embed-notice';
 import { EmbedApp } from '@/components/embed/embed-app';
 import { FrameFit } from '@/components/embed/frame-fit';

@@ -44,7 +44,7 @@ import { randomBytes } from 'node:crypto';
 import { simpleParser, type AddressObject, type ParsedMail } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import { refuseUnlessLocal } from '../local-only';
-import type { MailboxAttachment, MailboxMessage } from '@/lib/api-types';
+import type { MailboxAttachment, MailboxMessage } from '@/lib/core/api-types';
 
 export type { MailboxAttachment, MailboxMessage };
 

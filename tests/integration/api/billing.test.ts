@@ -3,7 +3,7 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import Stripe from 'stripe';
 import type Database from 'better-sqlite3';
-import type { BillingSummary } from '@/lib/billing/service';
+import type { BillingSummary } from '@/lib/server/billing/service';
 import { Client, uniqueEmail } from '../../support/http-client';
 import { addMember, newFirm } from '../../support/firms';
 import { firmIdOf, openTestDb } from '../../support/db-direct';

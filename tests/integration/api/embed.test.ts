@@ -6,7 +6,7 @@ import { Client } from '../../support/http-client';
 import { newFirm, addMember } from '../../support/firms';
 import { openTestDb, firmIdOf } from '../../support/db-direct';
 import { insertEmbedWidget } from './matrix/embed.rows';
-import { mintPassToken } from '@/lib/embed/tokens';
+import { mintPassToken } from '@/lib/server/embed/tokens';
 
 // Clients, passes, tokens and the embed API against the production build.
 const appUrl = inject('appUrl');

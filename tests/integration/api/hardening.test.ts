@@ -6,7 +6,7 @@ import { newFirm, addMember } from '../../support/firms';
 import { openTestDb, firmIdOf } from '../../support/db-direct';
 import { startExtraApp } from '../../support/extra-app';
 import { insertEmbedWidget } from './matrix/embed.rows';
-import { SNAPSHOT_LIMITS } from '@/lib/snapshots/limits';
+import { SNAPSHOT_LIMITS } from '@/lib/server/snapshots/limits';
 
 // Body limits and the client address, over HTTP against the production build. The shared stack trusts
 // loopback as a reverse proxy (TRUSTED_PROXIES in tests/support/api-global-setup.ts); a second app on the same

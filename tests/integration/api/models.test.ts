@@ -3,7 +3,7 @@ import type Database from 'better-sqlite3';
 import { newFirm, addMember } from '../../support/firms';
 import { openTestDb } from '../../support/db-direct';
 import type { Client } from '../../support/http-client';
-import { exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine/examples';
+import { exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/core/engine/examples';
 
 // The studio's API end to end: versions, optimistic saves, checking, publishing, firm scoping and bad input.
 const appUrl = inject('appUrl');

@@ -3,7 +3,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startStack, type Stack } from '@/lib/dev/stack';
-import { exampleCostRange, exampleFormula, exampleLinearStack, runModelSync } from '../../../lib/engine';
+import { exampleCostRange, exampleFormula, exampleLinearStack, runModelSync } from '../../../lib/core/engine';
 import type { Client } from '../../support/http-client';
 import { newFirm } from '../../support/firms';
 

@@ -1,7 +1,7 @@
 import { describe, it, expect, inject, beforeAll } from 'vitest';
 import { Client } from '../../support/http-client';
 import { newFirm } from '../../support/firms';
-import { exampleLinearStack, exampleCostRange, exampleFormula, runModelSync } from '../../../lib/engine';
+import { exampleLinearStack, exampleCostRange, exampleFormula, runModelSync } from '../../../lib/core/engine';
 
 const appUrl = inject('appUrl');
 const small = <T extends { settings: { trials: number } }>(m: T, trials = 5000): T => ({ ...m, settings: { ...m.settings, trials } });

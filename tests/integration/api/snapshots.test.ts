@@ -7,7 +7,7 @@ import { newFirm, addMember } from '../../support/firms';
 import { openTestDb, firmIdOf } from '../../support/db-direct';
 import { listMessages, waitForMessage, type FakeMessage } from '../../support/mailbox';
 import { insertEmbedWidget } from './matrix/embed.rows';
-import { SNAPSHOT_LIMITS } from '@/lib/snapshots/limits';
+import { SNAPSHOT_LIMITS } from '@/lib/server/snapshots/limits';
 
 // "E-mail this view" over HTTP against the production build, its snapshot worker process and the SMTP fake.
 const appUrl = inject('appUrl');

@@ -6,11 +6,11 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { jStat } from 'jstat';
-import { CHUNK_SIZE, ChunkRunner, chunkCount, mergeMoments, momentsOf } from '@/lib/engine/chunks';
-import { prepareRun, runChunks } from '@/lib/engine/prepare-run';
-import { EXAMPLE_MODELS, exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine/examples';
-import { mergeChunks, mergeParts, runModelSync } from '@/lib/engine/simulate';
-import { RankStore } from '@/lib/engine/stats';
+import { CHUNK_SIZE, ChunkRunner, chunkCount, mergeMoments, momentsOf } from '@/lib/core/engine/chunks';
+import { prepareRun, runChunks } from '@/lib/core/engine/prepare-run';
+import { EXAMPLE_MODELS, exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/core/engine/examples';
+import { mergeChunks, mergeParts, runModelSync } from '@/lib/core/engine/simulate';
+import { RankStore } from '@/lib/core/engine/stats';
 import { fingerprint, ksCritical001, ksStatistic } from '@/tests/support/engine-helpers';
 import { createNodeEnginePool, type NodeEnginePool } from '@/tests/support/node-engine-pool';
 

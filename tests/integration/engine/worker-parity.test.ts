@@ -13,8 +13,8 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
-import { EXAMPLE_MODELS } from '@/lib/engine/examples';
-import { runModelSync } from '@/lib/engine/simulate';
+import { EXAMPLE_MODELS } from '@/lib/core/engine/examples';
+import { runModelSync } from '@/lib/core/engine/simulate';
 import { fingerprint, type Fingerprint } from '@/tests/support/engine-helpers';
 
 const root = path.resolve(__dirname, '../../..');
@@ -57,7 +57,7 @@ let base = '';
 beforeAll(async () => {
   dir = mkdtempSync(path.join(tmpdir(), 'stochos-engine-parity-'));
   const common = { bundle: true, platform: 'browser' as const, target: 'es2022', absWorkingDir: root, tsconfig: path.join(root, 'tsconfig.json'), logLevel: 'silent' as const };
-  await build({ ...common, entryPoints: [path.join(root, 'lib/engine/worker.ts')], outfile: path.join(dir, 'worker.js'), format: 'iife' });
+  await build({ ...common, entryPoints: [path.join(root, 'lib/core/engine/worker.ts')], outfile: path.join(dir, 'worker.js'), format: 'iife' });
   await build({ ...common, entryPoints: [path.join(root, 'tests/support/engine-worker-page.ts')], outfile: path.join(dir, 'page.js'), format: 'esm' });
   writeFileSync(path.join(dir, 'index.html'), '<!doctype html><meta charset="utf-8"><title>engine parity</title><script type="module" src="/page.js"></script>');
   const types: Record<string, string> = { '.html': 'text/html', '.js': 'text/javascript' };

@@ -2,7 +2,7 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { env, resetEnvCache } from '@/lib/env';
+import { env, resetEnvCache } from '@/lib/server/env';
 import { dataFolderSecret } from '@/lib/dev/stack';
 
 const KEYS = ['NODE_ENV', 'APP_URL', 'NEXTAUTH_URL', 'STOCHOS_FILLED_NEXTAUTH_URL', 'AUTH_SECRET', 'STOCHOS_DEMO', 'STRIPE_SECRET_KEY', 'STRIPE_WEBHOOK_SECRET', 'NEXT_PHASE'] as const;

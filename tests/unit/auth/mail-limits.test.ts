@@ -1,9 +1,9 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { useFreshDb } from '../../support/test-db';
-import { resetEnvCache } from '@/lib/env';
+import { resetEnvCache } from '@/lib/server/env';
 import { getDb } from '@/db/knex';
-import { assertMailAllowed, noteMailSent, takeMailAllowance } from '@/lib/auth/mail-limits';
-import { AppError } from '@/lib/http/errors';
+import { assertMailAllowed, noteMailSent, takeMailAllowance } from '@/lib/server/auth/mail-limits';
+import { AppError } from '@/lib/server/http/errors';
 
 // The e-mail limits against a real (temporary) database. Limits are common practice, no source.
 beforeAll(async () => {

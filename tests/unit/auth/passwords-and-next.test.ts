@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import bcrypt from 'bcryptjs';
-import { passwordField, signUpSchema, utf8Length } from '@/lib/auth/schemas';
-import { safeNext } from '@/lib/auth/next-path';
+import { passwordField, signUpSchema, utf8Length } from '@/lib/core/auth/schemas';
+import { safeNext } from '@/lib/core/auth/next-path';
 
 const ORIGIN = 'http://localhost:3000';
 

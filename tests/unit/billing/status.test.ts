@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { currentSubscription, deriveBillingStatus, type SubscriptionFacts } from '@/lib/billing/status';
-import { authoringBlockedMessage } from '@/lib/billing/access';
+import { currentSubscription, deriveBillingStatus, type SubscriptionFacts } from '@/lib/core/billing/status';
+import { authoringBlockedMessage } from '@/lib/server/billing/access';
 
 const DAY = 86_400_000;
 const NOW = Date.parse('2027-03-10T12:00:00.000Z');

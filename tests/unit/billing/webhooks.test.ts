@@ -8,11 +8,11 @@ import { closeDb, getDb, writeTransaction } from '@/db/knex';
 import { insertFirmWithOwner, insertUser } from '@/db/users';
 import { insertMembership } from '@/db/team';
 import { ensureBillingAccount, getInvoiceRow, getSubscriptionRow, setStripeCustomer } from '@/db/billing';
-import { processStripeEvent, type ProcessDeps } from '@/lib/billing/webhooks';
-import { assertAuthoringAllowed, billingStatus } from '@/lib/billing';
-import { getSeatAllowance } from '@/lib/team/seat-allowance';
-import { assertSeatAvailable } from '@/lib/team/seats';
-import { AppError } from '@/lib/http/errors';
+import { processStripeEvent, type ProcessDeps } from '@/lib/server/billing/webhooks';
+import { assertAuthoringAllowed, billingStatus } from '@/lib/server/billing';
+import { getSeatAllowance } from '@/lib/server/team/seat-allowance';
+import { assertSeatAvailable } from '@/lib/server/team/seats';
+import { AppError } from '@/lib/server/http/errors';
 import { T0, checkoutSession, event, invoice, subscription } from './fixtures';
 
 const logs: string[] = [];

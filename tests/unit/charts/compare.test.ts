@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { runModelSync, exampleLinearStack, exampleCostRange } from '@/lib/engine';
-import { compareCurvesScene, compareSpreadsScene, COMPARE_STYLES } from '@/lib/charts/compare';
-import { compareFigures, compareInput } from '@/lib/results/compare';
-import { headlineFigure } from '@/lib/results/headline';
-import type { SceneNode } from '@/lib/charts/scene';
+import { runModelSync, exampleLinearStack, exampleCostRange } from '@/lib/core/engine';
+import { compareCurvesScene, compareSpreadsScene, COMPARE_STYLES } from '@/lib/core/charts/compare';
+import { compareFigures, compareInput } from '@/lib/core/results/compare';
+import { headlineFigure } from '@/lib/core/results/headline';
+import type { SceneNode } from '@/lib/core/charts/scene';
 
 const flat = (nodes: SceneNode[]): SceneNode[] => nodes.flatMap((n) => (n.type === 'group' ? flat(n.children) : [n]));
 

@@ -13,7 +13,7 @@ import {
   thinEcdf,
   type CurvePoint,
   type EcdfPoint,
-} from '@/lib/charts/cumulative';
+} from '@/lib/core/charts/cumulative';
 
 /** ECDF points of a sample the way the engine reports them: p = rank / n at evenly spaced ranks. */
 function ecdfOf(values: number[], maxPoints = 201): EcdfPoint[] {

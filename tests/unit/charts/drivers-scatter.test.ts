@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { driversGeometry, rankDrivers, driversScene } from '@/lib/charts/drivers';
-import { downsampleIndices, scatterGeometry, scatterGroups } from '@/lib/charts/scatter';
+import { driversGeometry, rankDrivers, driversScene } from '@/lib/core/charts/drivers';
+import { downsampleIndices, scatterGeometry, scatterGroups } from '@/lib/core/charts/scatter';
 
 const drivers = [
   { id: 'c', label: 'Circlip groove', share: 0.06, correlation: -0.2 },

@@ -12,8 +12,8 @@ import {
   NBSP,
   percentileName,
   tickLabels,
-} from '@/lib/charts/format';
-import { axisTitle, coveringDomain, linearAxis, percentAxis } from '@/lib/charts/axis';
+} from '@/lib/core/charts/format';
+import { axisTitle, coveringDomain, linearAxis, percentAxis } from '@/lib/core/charts/axis';
 
 const S = NBSP;
 

@@ -1,10 +1,10 @@
-// lib/charts/axis.ts linear() writes out the part of d3-scale's scaleLinear the charts use (positions, inverse,
+// lib/core/charts/axis.ts linear() writes out the part of d3-scale's scaleLinear the charts use (positions, inverse,
 // ticks, nice bounds), so that pages with charts need not carry d3-scale. Reference: d3-scale 4.0.2 itself, on
 // random and hand-picked domains and ranges: every figure must be the same number, bit for bit.
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { scaleLinear } from 'd3-scale';
-import { linear } from '@/lib/charts/axis';
+import { linear } from '@/lib/core/charts/axis';
 
 // Chart values: finite, and not subnormal (d3-array's ticks itself fails on a domain of subnormal numbers).
 const finite = fc.tuple(fc.integer({ min: -1e9, max: 1e9 }), fc.constantFrom(1, 7, 1e3, 1e6, 1e9)).map(([n, d]) => n / d);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { chartColors, contrastRatio, OKABE_ITO, relativeLuminance } from '@/lib/charts/palette';
+import { chartColors, contrastRatio, OKABE_ITO, relativeLuminance } from '@/lib/core/charts/palette';
 
 describe('chart palette', () => {
   it('computes WCAG contrast ratios', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { rangesGeometry, rangesScene } from '@/lib/charts/ranges';
-import { cumulativeGeometry } from '@/lib/charts/cumulative';
+import { rangesGeometry, rangesScene } from '@/lib/core/charts/ranges';
+import { cumulativeGeometry } from '@/lib/core/charts/cumulative';
 
 describe('method ranges (worst case, RSS, Monte Carlo side by side)', () => {
   // Figures of the gearbox float example: worst case −0.07..0.51 mm, RSS 0.0988..0.3412 mm, limits 0.05..0.40 mm.

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import seedrandom from 'seedrandom';
-import { binValues, spreadGeometry, spreadScene, PATTERN_OUT_BAR, PATTERN_OUT_ZONE, type HistogramBin } from '@/lib/charts/spread';
-import type { SceneNode } from '@/lib/charts/scene';
+import { binValues, spreadGeometry, spreadScene, PATTERN_OUT_BAR, PATTERN_OUT_ZONE, type HistogramBin } from '@/lib/core/charts/spread';
+import type { SceneNode } from '@/lib/core/charts/scene';
 
 function normals(n: number, seed: string, mean = 0, sd = 1): number[] {
   const rng = seedrandom(seed);
@@ -165,7 +165,7 @@ describe('spreadGeometry', () => {
 
 describe('the noun of a histogram', () => {
   it('says trials for a simulation and takes the caller’s noun for measured data', async () => {
-    const { describeSpread } = await import('@/lib/charts/spread');
+    const { describeSpread } = await import('@/lib/core/charts/spread');
     const bins = binValues(normals(400, 'noun', 12, 0.02));
     const sim = spreadGeometry({ bins, name: 'Gap', unit: 'mm', width: 600, limits: { lower: 11.97 } });
     expect(sim.yAxis.title).toBe('Share of trials');

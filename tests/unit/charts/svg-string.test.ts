@@ -3,9 +3,9 @@ import PDFDocument from 'pdfkit';
 import SVGtoPDF from 'svg-to-pdfkit';
 import path from 'node:path';
 import seedrandom from 'seedrandom';
-import { binValues } from '@/lib/charts/spread';
-import { cumulativeSvg, driversSvg, escapeXml, fontRoleOf, rangesSvg, scatterSvg, sceneToSvgString, spreadSvg } from '@/lib/charts/svg-string';
-import { chartFontCallback, registerChartFonts } from '@/lib/charts/pdf-fonts';
+import { binValues } from '@/lib/core/charts/spread';
+import { cumulativeSvg, driversSvg, escapeXml, fontRoleOf, rangesSvg, scatterSvg, sceneToSvgString, spreadSvg } from '@/lib/core/charts/svg-string';
+import { chartFontCallback, registerChartFonts } from '@/lib/server/charts/pdf-fonts';
 import { allElements, parseXml } from './xml-check';
 
 const rng = seedrandom('svg');

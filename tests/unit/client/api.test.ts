@@ -1,8 +1,8 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { z } from 'zod';
 import { ApiError, api, applyServerErrors, errorFrom, errorMessage, parseRetryAfter, requestJson } from '@/lib/client/api';
-import { toErrorResponse } from '@/lib/http/handler';
-import { AppError, titled, validationError } from '@/lib/http/errors';
+import { toErrorResponse } from '@/lib/server/http/handler';
+import { AppError, titled, validationError } from '@/lib/server/http/errors';
 
 // The browser's one API client. fetch is replaced at this test's edge only: each case hands back a real Response.
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { columnError, MAX_UPLOAD_BYTES, readColumn, readCsv } from '@/lib/datasets/csv';
-import { datasetCsv, neutraliseCell } from '@/lib/datasets/export';
+import { columnError, MAX_UPLOAD_BYTES, readColumn, readCsv } from '@/lib/core/datasets/csv';
+import { datasetCsv, neutraliseCell } from '@/lib/server/datasets/export';
 
 const bytes = (s: string) => new TextEncoder().encode(s);
 const table = (s: string) => {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import xor4096 from 'seedrandom/lib/xor4096';
 import { jStat } from 'jstat';
-import { normalQuantile } from '@/lib/engine/special';
+import { normalQuantile } from '@/lib/core/engine/special';
 import {
   andersonDarling,
   estimate,
@@ -15,8 +15,8 @@ import {
   type FitOk,
   type Law,
   type LawParams,
-} from '@/lib/datasets/fit';
-import { digamma, logMinusDigamma, regLowerGamma, trigamma } from '@/lib/datasets/special';
+} from '@/lib/core/datasets/fit';
+import { digamma, logMinusDigamma, regLowerGamma, trigamma } from '@/lib/core/datasets/special';
 
 // Seeded uniforms in (0, 1) for generating samples with known parameters.
 function uniforms(seed: string, n: number): number[] {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import sharp from 'sharp';
-import { processLogo, sniffImage } from '@/lib/datasets/logo';
+import { processLogo, sniffImage } from '@/lib/server/datasets/logo';
 
 const solid = (w: number, h: number) => sharp({ create: { width: w, height: h, channels: 3, background: { r: 31, g: 136, b: 123 } } });
 

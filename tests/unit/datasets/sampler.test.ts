@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import xor4096 from 'seedrandom/lib/xor4096';
-import { createMarginal } from '@/lib/engine';
-import { dataCapability, summarise } from '@/lib/datasets/summary';
-import { empiricalChoice, fittedChoice, lawToDistribution } from '@/lib/datasets/use';
-import { distributionSchema } from '@/lib/engine/schema';
+import { createMarginal } from '@/lib/core/engine';
+import { dataCapability, summarise } from '@/lib/core/datasets/summary';
+import { empiricalChoice, fittedChoice, lawToDistribution } from '@/lib/core/datasets/use';
+import { distributionSchema } from '@/lib/core/engine/schema';
 
 describe('the empirical distribution of a dataset', () => {
   it("samples within the KS band of the data's ECDF (the engine's inverse-ECDF sampler)", () => {
@@ -69,7 +69,7 @@ describe('summary and capability of measured data', () => {
 
 describe('demo datasets', () => {
   it('are invented, fixed, and fit: spigot lengths near 12.006 mm, cost growth right-skewed', async () => {
-    const { DEMO_SPIGOT_LENGTHS, DEMO_COST_GROWTH } = await import('@/db/seed/datasets');
+    const { DEMO_SPIGOT_LENGTHS, DEMO_COST_GROWTH } = await import('@/lib/dev/seed/datasets');
     expect(DEMO_SPIGOT_LENGTHS).toHaveLength(60);
     expect(DEMO_COST_GROWTH).toHaveLength(30);
     const s = summarise(DEMO_SPIGOT_LENGTHS);

@@ -4,8 +4,8 @@ import { closeDb, writeTransaction } from '@/db/knex';
 import { insertFirmWithOwner, insertUser } from '@/db/users';
 import { insertMembership } from '@/db/team';
 import { getDataset, listDatasets } from '@/db/datasets';
-import { seedDatasets, DEMO_SPIGOT_LENGTHS } from '@/db/seed/datasets';
-import { fitAll } from '@/lib/datasets/fit';
+import { seedDatasets, DEMO_SPIGOT_LENGTHS } from '@/lib/dev/seed/datasets';
+import { fitAll } from '@/lib/core/datasets/fit';
 
 // The demo seed's datasets go through the same table and queries the app reads.
 let firmId: string;

@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { databaseTarget } from '@/db/config';
 
-// db/config.ts reads the database settings itself (db/ takes no code from lib/); lib/env.ts checks the same rules.
+// db/config.ts reads the database settings itself (db/ takes no code from lib/); lib/server/env.ts checks the same rules.
 const saved = { file: process.env.DATABASE_FILE, url: process.env.DATABASE_URL };
 const set = (name: 'DATABASE_FILE' | 'DATABASE_URL', v: string | undefined) => (v === undefined ? delete process.env[name] : (process.env[name] = v));
 

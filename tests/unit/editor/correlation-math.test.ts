@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkCorrelation, nearestCorrelation } from '@/lib/engine/linalg';
+import { checkCorrelation, nearestCorrelation } from '@/lib/core/engine/linalg';
 import {
   cellKey,
   correlationColour,

@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import type { ResolverOptions } from 'react-hook-form';
 import type { ModelDraft } from '@/components/editor/form-values';
-import { exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine/examples';
-import { modelSchema } from '@/lib/engine/schema';
-import { fieldsFromZod } from '@/lib/http/errors';
+import { exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/core/engine/examples';
+import { modelSchema } from '@/lib/core/engine/schema';
+import { fieldsFromZod } from '@/lib/server/http/errors';
 import {
   flattenFieldErrors,
   issuesToMessages,

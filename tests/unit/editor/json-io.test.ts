@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { SCHEMA_ID, validateModel, type StochosModel } from '@/lib/engine/schema';
+import { SCHEMA_ID, validateModel, type StochosModel } from '@/lib/core/engine/schema';
 import {
   MAX_IMPORT_BYTES,
   exportModelJson,
@@ -9,7 +9,7 @@ import {
   lineColumn,
   modelFileName,
   valuePositions,
-} from '@/lib/models/json-io';
+} from '@/lib/core/models/json-io';
 
 // An invented two-part stack: a housing bore and a shaft collar (no real part or firm).
 const stack = {

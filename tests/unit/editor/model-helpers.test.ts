@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { createMarginal, type DistributionSpec } from '@/lib/engine/distributions';
-import { exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine/examples';
-import { distributionSchema, validateModel, type StochosModel } from '@/lib/engine/schema';
+import { createMarginal, type DistributionSpec } from '@/lib/core/engine/distributions';
+import { exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/core/engine/examples';
+import { distributionSchema, validateModel, type StochosModel } from '@/lib/core/engine/schema';
 import {
   DISTRIBUTION_KINDS,
   allIds,

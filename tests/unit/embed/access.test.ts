@@ -3,12 +3,12 @@ import { randomUUID } from 'node:crypto';
 import { SignJWT, decodeJwt, decodeProtectedHeader } from 'jose';
 import { useFreshDb } from '../../support/test-db';
 import { getDb } from '@/db/knex';
-import { createClient, createPass, renewPass, revokePass, rotateKey, editClient, passView } from '@/lib/embed/service';
-import { checkPass, requireViewer } from '@/lib/embed/access';
-import { mintPassToken, mintSessionToken, verifyPassToken, PASS_AUDIENCE } from '@/lib/embed/tokens';
+import { createClient, createPass, renewPass, revokePass, rotateKey, editClient, passView } from '@/lib/server/embed/service';
+import { checkPass, requireViewer } from '@/lib/server/embed/access';
+import { mintPassToken, mintSessionToken, verifyPassToken, PASS_AUDIENCE } from '@/lib/server/embed/tokens';
 import { getPass } from '@/db/passes';
 import { seedFirmWithWidget, memberOf } from './fixtures';
-import { AppError } from '@/lib/http/errors';
+import { AppError } from '@/lib/server/http/errors';
 
 let firm: Awaited<ReturnType<typeof seedFirmWithWidget>>;
 let other: Awaited<ReturnType<typeof seedFirmWithWidget>>;

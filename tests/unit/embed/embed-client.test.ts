@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { createEmbedClient, refusalOf } from '@/components/embed/embed-client';
-import { toErrorResponse } from '@/lib/http/handler';
-import { AppError, titled } from '@/lib/http/errors';
+import { toErrorResponse } from '@/lib/server/http/handler';
+import { AppError, titled } from '@/lib/server/http/errors';
 
 // The embed page's client over the shared request helper. fetch is replaced at this test's edge: each call gets
 // the next prepared Response (error bodies written by the server's own mapper).

@@ -2,11 +2,11 @@ import { describe, it, expect, beforeAll } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { useFreshDb } from '../../support/test-db';
 import { seedFirmWithWidget, memberOf } from './fixtures';
-import { createClient, createPass, passView, revokePass } from '@/lib/embed/service';
-import { embedCsp, embedResponseHeaders } from '@/lib/embed/headers';
-import { embedSnippet, embedPageUrl } from '@/lib/embed/snippet';
-import { passStatus, passWorks, passRenewable } from '@/lib/embed/status';
-import { viewerDials } from '@/lib/embed/payload';
+import { createClient, createPass, passView, revokePass } from '@/lib/server/embed/service';
+import { embedCsp, embedResponseHeaders } from '@/lib/server/embed/headers';
+import { embedSnippet, embedPageUrl } from '@/lib/server/embed/snippet';
+import { passStatus, passWorks, passRenewable } from '@/lib/core/embed/status';
+import { viewerDials } from '@/lib/core/embed/payload';
 import { DIALED_MODEL } from './fixtures';
 import { checked } from '../../support/checked';
 

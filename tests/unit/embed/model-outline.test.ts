@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { EXAMPLE_MODELS, validateModel } from '@/lib/engine';
-import { modelOutline } from '@/components/widget/model-outline';
+import { EXAMPLE_MODELS, validateModel } from '@/lib/core/engine';
+import { modelOutline } from '@/lib/core/widget/model-outline';
 
 // The embed widget reads the template and dials from the checked model without the schema; it must read exactly
 // what the schema gives (a dial's unit defaults to '').

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { normaliseOrigin, normaliseEmailDomain, clientCreateSchema, passCreateSchema, passRenewSchema, splitLines } from '@/lib/embed/schemas';
+import { normaliseOrigin, normaliseEmailDomain, clientCreateSchema, passCreateSchema, passRenewSchema, splitLines } from '@/lib/core/embed/schemas';
 
 // Origins as browsers serialise them: scheme "://" host [":" port] (RFC 6454 §6.1; HTML "serialization of an origin").
 describe('allowed origins', () => {

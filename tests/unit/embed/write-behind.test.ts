@@ -1,14 +1,14 @@
 import { describe, it, expect, beforeAll } from 'vitest';
-import { resetEnvCache } from '@/lib/env';
+import { resetEnvCache } from '@/lib/server/env';
 import { randomUUID } from 'node:crypto';
 import { useFreshDb } from '../../support/test-db';
 import { getDb } from '@/db/knex';
-import { writeBehind } from '@/lib/ops/write-behind';
-import { createClient, createPass } from '@/lib/embed/service';
-import { noteDial, noteLoad } from '@/lib/embed/events';
+import { writeBehind } from '@/lib/server/ops/write-behind';
+import { createClient, createPass } from '@/lib/server/embed/service';
+import { noteDial, noteLoad } from '@/lib/server/embed/events';
 import { seedFirmWithWidget, memberOf } from './fixtures';
 
-// Loads, dial moves and API key use are written in batches, off the read path (lib/ops/write-behind.ts over db/write-behind.ts).
+// Loads, dial moves and API key use are written in batches, off the read path (lib/server/ops/write-behind.ts over db/write-behind.ts).
 let firm: Awaited<ReturnType<typeof seedFirmWithWidget>>;
 
 beforeAll(async () => {

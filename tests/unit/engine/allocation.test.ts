@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { allocateTolerances, sigmaPerTolerance, type AllocationRequest } from '@/lib/engine/allocation';
-import { runModelSync } from '@/lib/engine/simulate';
-import { validateModel, type LinearStackModel } from '@/lib/engine/schema';
+import { allocateTolerances, sigmaPerTolerance, type AllocationRequest } from '@/lib/core/engine/allocation';
+import { runModelSync } from '@/lib/core/engine/simulate';
+import { validateModel, type LinearStackModel } from '@/lib/core/engine/schema';
 
 type Law = { type: 'normal'; k: number } | { type: 'uniform' } | { type: 'triangular' };
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { Stream } from '@/lib/engine/rng';
-import { bucketAverageRanks, bucketSortedCopy } from '@/lib/engine/bucket-sort';
-import { argsort } from '@/lib/engine/sort';
+import { Stream } from '@/lib/core/engine/rng';
+import { bucketAverageRanks, bucketSortedCopy } from '@/lib/core/engine/bucket-sort';
+import { argsort } from '@/lib/core/engine/sort';
 
 // The bucket sort must give exactly the radix sort's order (sort.ts), so results do not depend on which ran.
 function radixRanks(values: Float64Array): Float64Array {

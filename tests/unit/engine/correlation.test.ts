@@ -1,7 +1,7 @@
 /* eslint-disable @typescript-eslint/no-explicit-any -- these tests edit model JSON freely to build variants and bad inputs */
 import { describe, expect, it } from 'vitest';
-import { runModelSync } from '@/lib/engine/simulate';
-import { pearson, spearman } from '@/lib/engine/stats';
+import { runModelSync } from '@/lib/core/engine/simulate';
+import { pearson, spearman } from '@/lib/core/engine/stats';
 
 const matrix = [
   [1, 0.5, 0.25],

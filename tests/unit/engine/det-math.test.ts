@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import stdExp from '@stdlib/math-base-special-exp';
 import stdLn from '@stdlib/math-base-special-ln';
-import { cosSin2Pi, exp, lastSin2Pi, ln } from '@/lib/engine/det-math';
+import { cosSin2Pi, exp, lastSin2Pi, ln } from '@/lib/core/engine/det-math';
 
 // Random doubles over the whole bit range, from a fixed linear congruential sequence.
 function* doubles(n: number): Generator<number> {

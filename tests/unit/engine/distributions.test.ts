@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { jStat } from 'jstat';
-import { createMarginal, pertShape, type DistributionSpec } from '@/lib/engine/distributions';
-import { Stream } from '@/lib/engine/rng';
-import { createColumnSampler, type SamplerContext } from '@/lib/engine/samplers';
-import { regIncBeta } from '@/lib/engine/special';
+import { createMarginal, pertShape, type DistributionSpec } from '@/lib/core/engine/distributions';
+import { Stream } from '@/lib/core/engine/rng';
+import { createColumnSampler, type SamplerContext } from '@/lib/core/engine/samplers';
+import { regIncBeta } from '@/lib/core/engine/special';
 import { ksCritical001, ksStatistic, mean, variance } from '@/tests/support/engine-helpers';
 
 const N = 100_000;

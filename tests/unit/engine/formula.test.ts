@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { compileFormula, FormulaError } from '@/lib/engine/formula';
-import { evaluateScalar, parseFormula } from '@/lib/engine/formula-parse';
-import { runModelSync } from '@/lib/engine/simulate';
+import { compileFormula, FormulaError } from '@/lib/core/engine/formula';
+import { evaluateScalar, parseFormula } from '@/lib/core/engine/formula-parse';
+import { runModelSync } from '@/lib/core/engine/simulate';
 
 const scope = { columns: ['a', 'b', 'flow'], scalars: ['k'] };
 const ev = (text: string, values: Record<string, number> = {}) => evaluateScalar(text, values);

@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { jStat } from 'jstat';
-import { createMarginal, type DistributionSpec } from '@/lib/engine/distributions';
-import { regGammaPQ, standardGammaInverse, LARGE_SHAPE } from '@/lib/engine/gamma';
-import { createColumnSampler, type SamplerContext } from '@/lib/engine/samplers';
-import { runModelSync } from '@/lib/engine/simulate';
-import { validateModel } from '@/lib/engine/schema';
+import { createMarginal, type DistributionSpec } from '@/lib/core/engine/distributions';
+import { regGammaPQ, standardGammaInverse, LARGE_SHAPE } from '@/lib/core/engine/gamma';
+import { createColumnSampler, type SamplerContext } from '@/lib/core/engine/samplers';
+import { runModelSync } from '@/lib/core/engine/simulate';
+import { validateModel } from '@/lib/core/engine/schema';
 import { ksCritical001, ksStatistic, mean, variance } from '@/tests/support/engine-helpers';
 
 const N = 100_000;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { canonicalEigen, checkCorrelation, nearestCorrelation, spectralFunction, symmetricEigen, symmetricSqrt } from '@/lib/engine/linalg';
+import { canonicalEigen, checkCorrelation, nearestCorrelation, spectralFunction, symmetricEigen, symmetricSqrt } from '@/lib/core/engine/linalg';
 
 const matMul = (a: number[][], b: number[][]) => a.map((row) => b[0].map((_, j) => row.reduce((s, v, k) => s + v * b[k][j], 0)));
 

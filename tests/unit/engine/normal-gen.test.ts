@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { jStat } from 'jstat';
-import { boxMuller, BoxMullerGenerator, ZIGGURAT, ZigguratGenerator } from '@/lib/engine/normal-gen';
-import { Stream, uniformOpen, uniformOpenClosed } from '@/lib/engine/rng';
-import { normalSf } from '@/lib/engine/special';
+import { boxMuller, BoxMullerGenerator, ZIGGURAT, ZigguratGenerator } from '@/lib/core/engine/normal-gen';
+import { Stream, uniformOpen, uniformOpenClosed } from '@/lib/core/engine/rng';
+import { normalSf } from '@/lib/core/engine/special';
 import { ksCritical001, ksStatistic, mean, variance } from '@/tests/support/engine-helpers';
 
 describe('Box-Muller (Box & Muller 1958)', () => {

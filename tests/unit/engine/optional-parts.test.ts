@@ -1,15 +1,15 @@
 // The embed runs published models without the schema, and fetches the formula parser (jsep) and the correlation
-// code (ml-matrix) only for a model that needs them (lib/engine/optional-parts.ts). Here a module graph loaded
+// code (ml-matrix) only for a model that needs them (lib/core/engine/optional-parts.ts). Here a module graph loaded
 // without the schema must refuse such a model until loadPartsFor has run, then give the validated path's result
 // bit for bit; a model that needs neither must run at once.
 import { describe, expect, it, vi } from 'vitest';
-import { EXAMPLE_MODELS } from '@/lib/engine/examples';
-import { partsFor } from '@/lib/engine/optional-parts';
+import { EXAMPLE_MODELS } from '@/lib/core/engine/examples';
+import { partsFor } from '@/lib/core/engine/optional-parts';
 
 type Engine = {
-  chunks: typeof import('@/lib/engine/chunks');
-  merge: typeof import('@/lib/engine/merge');
-  parts: typeof import('@/lib/engine/optional-parts');
+  chunks: typeof import('@/lib/core/engine/chunks');
+  merge: typeof import('@/lib/core/engine/merge');
+  parts: typeof import('@/lib/core/engine/optional-parts');
 };
 
 function runWith(e: Engine, prep: ReturnType<Engine['chunks']['prepareRunWith']>) {
@@ -22,9 +22,9 @@ function runWith(e: Engine, prep: ReturnType<Engine['chunks']['prepareRunWith']>
 /** Published models (the schema's output, as the server stores them) and their results on the validated path. */
 async function published() {
   vi.resetModules();
-  const { validateModel } = await import('@/lib/engine/schema');
-  const { prepareRun } = await import('@/lib/engine/prepare-run');
-  const e: Engine = { chunks: await import('@/lib/engine/chunks'), merge: await import('@/lib/engine/merge'), parts: await import('@/lib/engine/optional-parts') };
+  const { validateModel } = await import('@/lib/core/engine/schema');
+  const { prepareRun } = await import('@/lib/core/engine/prepare-run');
+  const e: Engine = { chunks: await import('@/lib/core/engine/chunks'), merge: await import('@/lib/core/engine/merge'), parts: await import('@/lib/core/engine/optional-parts') };
   const stack = EXAMPLE_MODELS['linear-stack'] as { contributors: { id: string }[] };
   const inputs: Record<string, unknown> = {
     ...EXAMPLE_MODELS,
@@ -43,7 +43,7 @@ async function published() {
 /** The embed's view: the run code alone, as embed-engine.ts and embed-worker.ts load it. */
 async function withoutSchema(): Promise<Engine> {
   vi.resetModules();
-  return { chunks: await import('@/lib/engine/chunks'), merge: await import('@/lib/engine/merge'), parts: await import('@/lib/engine/optional-parts') };
+  return { chunks: await import('@/lib/core/engine/chunks'), merge: await import('@/lib/core/engine/merge'), parts: await import('@/lib/core/engine/optional-parts') };
 }
 
 describe('engine parts loaded on demand (the embed)', () => {

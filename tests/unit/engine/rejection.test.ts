@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { createMarginal, type DistributionSpec, type RejectionEnvelope } from '@/lib/engine/distributions';
-import { SamplingError } from '@/lib/engine/errors';
-import { Stream } from '@/lib/engine/rng';
-import { MIN_ACCEPTANCE, RejectionSampler } from '@/lib/engine/samplers';
-import { runModelSync } from '@/lib/engine/simulate';
-import { betaPdf } from '@/lib/engine/special';
+import { createMarginal, type DistributionSpec, type RejectionEnvelope } from '@/lib/core/engine/distributions';
+import { SamplingError } from '@/lib/core/engine/errors';
+import { Stream } from '@/lib/core/engine/rng';
+import { MIN_ACCEPTANCE, RejectionSampler } from '@/lib/core/engine/samplers';
+import { runModelSync } from '@/lib/core/engine/simulate';
+import { betaPdf } from '@/lib/core/engine/special';
 
 function observed(env: RejectionEnvelope, n: number) {
   const s = new RejectionSampler(env, Stream.forInput('rej', 'x'));

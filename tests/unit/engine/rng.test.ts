@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import xor4096 from 'seedrandom/lib/xor4096';
-import { Stream, streamKey, uniformOpen, uniformOpenClosed } from '@/lib/engine/rng';
+import { Stream, streamKey, uniformOpen, uniformOpenClosed } from '@/lib/core/engine/rng';
 
 describe('seeded streams', () => {
   it('steps exactly the xor4096 sequence seedrandom itself yields', () => {

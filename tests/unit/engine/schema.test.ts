@@ -1,10 +1,10 @@
 /* eslint-disable @typescript-eslint/no-explicit-any -- these tests edit model JSON freely to build variants and bad inputs */
 import { describe, expect, it } from 'vitest';
-import { applyDials } from '@/lib/engine/dials';
-import { ModelValidationError, pathText } from '@/lib/engine/errors';
-import { EXAMPLE_MODELS, exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine/examples';
-import { modelSchema, validateModel, type StochosModel } from '@/lib/engine/schema';
-import { runModelSync } from '@/lib/engine/simulate';
+import { applyDials } from '@/lib/core/engine/dials';
+import { ModelValidationError, pathText } from '@/lib/core/engine/errors';
+import { EXAMPLE_MODELS, exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/core/engine/examples';
+import { modelSchema, validateModel, type StochosModel } from '@/lib/core/engine/schema';
+import { runModelSync } from '@/lib/core/engine/simulate';
 
 const clone = <T>(x: T): T => JSON.parse(JSON.stringify(x));
 

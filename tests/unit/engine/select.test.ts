@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { Stream } from '@/lib/engine/rng';
-import { orderStatistics } from '@/lib/engine/select';
-import { sortedCopy } from '@/lib/engine/sort';
+import { Stream } from '@/lib/core/engine/rng';
+import { orderStatistics } from '@/lib/core/engine/select';
+import { sortedCopy } from '@/lib/core/engine/sort';
 
 // The selection must give exactly what the radix sort puts at each rank: the headline figures are
 // computed by selection and the charts from the sorted column, and both must agree bit for bit.

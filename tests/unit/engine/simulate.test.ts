@@ -1,9 +1,9 @@
 /* eslint-disable @typescript-eslint/no-explicit-any -- these tests edit model JSON freely to build variants and bad inputs */
 import { describe, expect, it } from 'vitest';
-import { RunCancelledError } from '@/lib/engine/errors';
-import { EXAMPLE_MODELS, exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine/examples';
-import { runModel, runModelSync, Simulation, type Progress } from '@/lib/engine/simulate';
-import { normalCdf, normalSf } from '@/lib/engine/special';
+import { RunCancelledError } from '@/lib/core/engine/errors';
+import { EXAMPLE_MODELS, exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/core/engine/examples';
+import { runModel, runModelSync, Simulation, type Progress } from '@/lib/core/engine/simulate';
+import { normalCdf, normalSf } from '@/lib/core/engine/special';
 import { fingerprint, hashArrays } from '@/tests/support/engine-helpers';
 
 const clone = <T>(x: T): T => JSON.parse(JSON.stringify(x));

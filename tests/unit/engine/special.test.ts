@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { jStat } from 'jstat';
-import { erfc, gamma, lgamma, normalCdf, normalQuantile, normalQuantilePQ, normalSf, regIncBeta } from '@/lib/engine/special';
-import { normalPpmOutside } from '@/lib/engine/stats';
+import { erfc, gamma, lgamma, normalCdf, normalQuantile, normalQuantilePQ, normalSf, regIncBeta } from '@/lib/core/engine/special';
+import { normalPpmOutside } from '@/lib/core/engine/stats';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 

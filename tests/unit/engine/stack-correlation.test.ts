@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { evaluateStack } from '@/lib/engine/analytic';
-import { runModelSync } from '@/lib/engine/simulate';
-import { validateModel, type LinearStackModel } from '@/lib/engine/schema';
+import { evaluateStack } from '@/lib/core/engine/analytic';
+import { runModelSync } from '@/lib/core/engine/simulate';
+import { validateModel, type LinearStackModel } from '@/lib/core/engine/schema';
 
 /** Three normal contributors at ±0.3 (k = 3, σ = 0.1 each). */
 function stack(correlation?: { inputs: string[]; matrix: number[][] }, directions: (1 | -1)[] = [1, 1, -1]) {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { argsort, averageRanks, sortedCopy } from '@/lib/engine/sort';
-import { Stream } from '@/lib/engine/rng';
+import { argsort, averageRanks, sortedCopy } from '@/lib/core/engine/sort';
+import { Stream } from '@/lib/core/engine/rng';
 import {
   capability,
   ecdfPoints,
@@ -12,8 +12,8 @@ import {
   spearman,
   welford,
   wilsonInterval,
-} from '@/lib/engine/stats';
-import { lgamma } from '@/lib/engine/special';
+} from '@/lib/core/engine/stats';
+import { lgamma } from '@/lib/core/engine/special';
 
 // NIST/SEMATECH e-Handbook §7.2.6.2, percentile example data (12 values).
 const NIST = [95.1772, 95.1567, 95.1937, 95.1959, 95.1442, 95.061, 95.1591, 95.1195, 95.1065, 95.0925, 95.199, 95.1682];

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { evaluateCost, evaluateStack } from '@/lib/engine/analytic';
-import { exampleCostRange, exampleLinearStack } from '@/lib/engine/examples';
-import { validateModel, type CostRangeModel, type LinearStackModel } from '@/lib/engine/schema';
-import { runModelSync } from '@/lib/engine/simulate';
+import { evaluateCost, evaluateStack } from '@/lib/core/engine/analytic';
+import { exampleCostRange, exampleLinearStack } from '@/lib/core/engine/examples';
+import { validateModel, type CostRangeModel, type LinearStackModel } from '@/lib/core/engine/schema';
+import { runModelSync } from '@/lib/core/engine/simulate';
 
 /**
  * Worked stack-up from metricmech.com, "Tolerance stack-up: a worked example using worst-case

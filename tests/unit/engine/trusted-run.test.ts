@@ -1,11 +1,11 @@
 // The embed's engine prepares published (server-checked) models without the schema: it must
 // give the same numbers, bit for bit, as the validated path, and still refuse bad dial values.
 import { describe, expect, it } from 'vitest';
-import { ChunkRunner, inputWindow, prepareRunWith } from '@/lib/engine/chunks';
-import { EXAMPLE_MODELS } from '@/lib/engine/examples';
-import { mergeParts } from '@/lib/engine/merge';
-import { prepareRun } from '@/lib/engine/prepare-run';
-import { validateModel } from '@/lib/engine/schema';
+import { ChunkRunner, inputWindow, prepareRunWith } from '@/lib/core/engine/chunks';
+import { EXAMPLE_MODELS } from '@/lib/core/engine/examples';
+import { mergeParts } from '@/lib/core/engine/merge';
+import { prepareRun } from '@/lib/core/engine/prepare-run';
+import { validateModel } from '@/lib/core/engine/schema';
 
 function run(prep: ReturnType<typeof prepareRun>) {
   const ks = Array.from({ length: prep.chunkCount }, (_, k) => k);

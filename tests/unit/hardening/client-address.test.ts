@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { clientAddressFrom, forwardedChain, normaliseAddress, parseTrustedProxies } from '@/lib/http/client-address';
+import { clientAddressFrom, forwardedChain, normaliseAddress, parseTrustedProxies } from '@/lib/server/http/client-address';
 
 // The client address for rate limits: the socket peer, and forwarded headers only as far as trusted proxies vouch.
 const headers = (h: Record<string, string>) => (n: string) => h[n] ?? null;
@@ -48,7 +48,7 @@ describe('client address', () => {
 
 describe('TRUSTED_PROXIES at start-up', () => {
   it('a bad entry stops start-up with its name', async () => {
-    const { env, resetEnvCache } = await import('@/lib/env');
+    const { env, resetEnvCache } = await import('@/lib/server/env');
     const before = process.env.TRUSTED_PROXIES;
     try {
       process.env.TRUSTED_PROXIES = '10.0.0.0/8, lb.internal';

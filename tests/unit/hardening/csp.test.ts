@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { contentSecurityPolicy, hstsHeader, newNonce } from '@/lib/http/csp';
+import { contentSecurityPolicy, hstsHeader, newNonce } from '@/lib/server/http/csp';
 
 // The page policy (CSP Level 3, W3C): directives by name.
 const directives = (csp: string) => Object.fromEntries(csp.split('; ').map((d) => [d.split(' ')[0], d.split(' ').slice(1).join(' ')]));

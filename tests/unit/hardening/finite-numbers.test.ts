@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { columnError, readColumn, readCsv, readCsvText } from '@/lib/datasets/csv';
-import { importModelJson } from '@/lib/models/json-io';
-import { validateModel } from '@/lib/engine/schema';
-import { exampleLinearStack } from '@/lib/engine/examples';
-import { parseDialInput } from '@/components/widget/dial-values';
+import { columnError, readColumn, readCsv, readCsvText } from '@/lib/core/datasets/csv';
+import { importModelJson } from '@/lib/core/models/json-io';
+import { validateModel } from '@/lib/core/engine/schema';
+import { exampleLinearStack } from '@/lib/core/engine/examples';
+import { parseDialInput } from '@/lib/core/widget/dial-values';
 import { parseNumberList } from '@/components/editor/numbers';
-import { simulateRequestSchema } from '@/lib/simulate/run';
-import { snapshotRequestSchema } from '@/lib/snapshots/schemas';
+import { simulateRequestSchema } from '@/lib/server/simulate/run';
+import { snapshotRequestSchema } from '@/lib/server/snapshots/schemas';
 
 // 1e309 is a well-formed number that does not fit a double: it reads as Infinity, which JSON stores as null
 // and a reader turns into 0. Every place a number enters refuses it and names where it was.

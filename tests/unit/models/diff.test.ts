@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { diffModels, formatDiffValue, summarise, humanKey, pathWithin } from '@/lib/models/diff';
-import { editorFieldErrors } from '@/lib/models/field-errors';
+import { diffModels, formatDiffValue, summarise, humanKey, pathWithin } from '@/lib/core/models/diff';
+import { editorFieldErrors } from '@/lib/core/models/field-errors';
 
 const base = {
   schema: 'stochos.model/1',

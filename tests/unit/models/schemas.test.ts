@@ -1,11 +1,11 @@
 import { describe, it, expect } from 'vitest';
 import type { z } from 'zod';
-import { checkSchema, createModelSchema, duplicateModelSchema, modelField, patchModelSchema, publishSchema, saveVersionSchema, widgetPatchSchema } from '@/lib/models/schemas';
-import { exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine/examples';
-import { fieldsFromZod } from '@/lib/http/errors';
-import { blankModel } from '@/lib/models/blank';
-import { HEADLINES, PANEL_IDS } from '@/lib/models/widget-options';
-import { TEMPLATE_IDS } from '@/lib/models/templates';
+import { checkSchema, createModelSchema, duplicateModelSchema, modelField, patchModelSchema, publishSchema, saveVersionSchema, widgetPatchSchema } from '@/lib/server/models/schemas';
+import { exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/core/engine/examples';
+import { fieldsFromZod } from '@/lib/server/http/errors';
+import { blankModel } from '@/lib/server/models/blank';
+import { HEADLINES, PANEL_IDS } from '@/lib/core/models/widget-options';
+import { TEMPLATE_IDS } from '@/lib/core/models/templates';
 
 // Every way the studio's request bodies are refused, with the field the message sits on.
 

@@ -3,11 +3,11 @@ import os from 'node:os';
 import path from 'node:path';
 import fs from 'node:fs';
 import { randomUUID } from 'node:crypto';
-import { runModelSync } from '@/lib/engine';
-import { validateModel } from '@/lib/engine/schema';
+import { runModelSync } from '@/lib/core/engine';
+import { validateModel } from '@/lib/core/engine/schema';
 import { getDb, closeDb } from '@/db/knex';
-import { resetEnvCache } from '@/lib/env';
-import { pumpClearanceV1, pumpClearanceV2, quayWallV1, seedModels } from '@/db/seed/models';
+import { resetEnvCache } from '@/lib/server/env';
+import { pumpClearanceV1, pumpClearanceV2, quayWallV1, seedModels } from '@/lib/dev/seed/models';
 import { listModels, listVersions } from '@/db/models';
 import { getPublishedWidget, listWidgets } from '@/db/widgets';
 

@@ -1,7 +1,7 @@
 import { describe, it, expect, beforeAll, afterAll, beforeEach } from 'vitest';
 import { Writable } from 'node:stream';
 import pino from 'pino';
-import { logRenderError } from '@/lib/ops/render-errors';
+import { logRenderError } from '@/lib/server/ops/render-errors';
 import { onRequestError } from '@/instrumentation';
 
 // A page that fails while rendering shows its digest as the reference (components/segments/error-screen.tsx); the

@@ -2,11 +2,11 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { Writable } from 'node:stream';
 import pino from 'pino';
 import { NextRequest } from 'next/server';
-import { route } from '@/lib/http/handler';
-import { AppError } from '@/lib/http/errors';
+import { route } from '@/lib/server/http/handler';
+import { AppError } from '@/lib/server/http/errors';
 import { useFreshDb } from '../../support/test-db';
 import { getDb } from '@/db/knex';
-import { readiness } from '@/lib/ops/readiness';
+import { readiness } from '@/lib/server/ops/readiness';
 
 // Structured logs with a request id: every answer carries X-Request-Id, a 500 quotes it in its body, and the
 // log line of the error carries the same id.

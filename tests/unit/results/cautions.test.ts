@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { cautionsFor, lowTrialCaution } from '@/lib/cautions';
+import { cautionsFor, lowTrialCaution } from '@/lib/core/cautions';
 
 describe('cautions', () => {
   it('tolerance results name the drawing standards, process data and a qualified review', () => {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { exampleCostRange, exampleFormula, exampleLinearStack, runModelSync } from '@/lib/engine';
-import { panelChartInputs } from '@/lib/results/chart-inputs';
-import { cumulativeSvg, driversSvg, spreadSvg } from '@/lib/charts/svg-string';
+import { exampleCostRange, exampleFormula, exampleLinearStack, runModelSync } from '@/lib/core/engine';
+import { panelChartInputs } from '@/lib/core/results/chart-inputs';
+import { cumulativeSvg, driversSvg, spreadSvg } from '@/lib/core/charts/svg-string';
 import { parseXml } from '../charts/xml-check';
 
 const small = <T extends { settings: object }>(m: T): T => ({ ...m, settings: { ...m.settings, trials: 3000 } });

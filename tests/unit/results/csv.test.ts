@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { csvCell, neutraliseCell, tablesToCsv, toCsv } from '@/lib/results/csv';
-import { resultTables } from '@/lib/results/tables';
-import { exampleCostRange, exampleLinearStack, runModelSync } from '@/lib/engine';
+import { csvCell, neutraliseCell, tablesToCsv, toCsv } from '@/lib/core/results/csv';
+import { resultTables } from '@/lib/core/results/tables';
+import { exampleCostRange, exampleLinearStack, runModelSync } from '@/lib/core/engine';
 
 /** A small RFC 4180 reader, to check that what we write reads back to the same cells. */
 function parseCsv(text: string): string[][] {

@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { exampleCostRange, exampleFormula, exampleLinearStack, runModelSync, type RunResult } from '@/lib/engine';
-import { normalEstimateNote, headlineFigure } from '@/lib/results/headline';
-import { HEADLINES } from '@/lib/models/widget-options';
+import { exampleCostRange, exampleFormula, exampleLinearStack, runModelSync, type RunResult } from '@/lib/core/engine';
+import { normalEstimateNote, headlineFigure } from '@/lib/core/results/headline';
+import { HEADLINES } from '@/lib/core/models/widget-options';
 import { checked } from '../../support/checked';
-import { formatPercent, formatPpm, formatValue } from '@/lib/charts/format';
+import { formatPercent, formatPpm, formatValue } from '@/lib/core/charts/format';
 
 const small = <T extends { settings: object }>(m: T): T => ({ ...m, settings: { ...m.settings, trials: 4000 } });
 const stack: RunResult = runModelSync(small(exampleLinearStack));

@@ -1,9 +1,9 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { SimulationController, type RunClient } from '@/components/results/simulation-controller';
-import { ModelValidationError, RunCancelledError } from '@/lib/engine/errors';
-import type { Progress, RunResult } from '@/lib/engine/simulate';
-import type { WorkerRunOptions } from '@/lib/engine/worker-client';
-import type { CheckedModel } from '@/lib/engine/checked-model';
+import { ModelValidationError, RunCancelledError } from '@/lib/core/engine/errors';
+import type { Progress, RunResult } from '@/lib/core/engine/simulate';
+import type { WorkerRunOptions } from '@/lib/core/engine/worker-client';
+import type { CheckedModel } from '@/lib/core/engine/checked-model';
 
 /** The controller only hands its model to the client: a token stands in for one (the fake client never reads it). */
 const token = (m: number | string) => ({ m }) as unknown as CheckedModel;

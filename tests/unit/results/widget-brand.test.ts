@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { brandColors, darkenTo, DEFAULT_BRAND, normaliseHex } from '@/components/widget/brand';
-import { contrastRatio } from '@/lib/charts/palette';
+import { brandColors, darkenTo, DEFAULT_BRAND, normaliseHex } from '@/lib/core/widget/brand';
+import { contrastRatio } from '@/lib/core/charts/palette';
 
 describe('firm brand colours', () => {
   it('normalises hex colours and refuses anything else', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { atDefaults, dialDisplay, dialText, initialDialValues, parseDialInput, type DialSpec } from '@/components/widget/dial-values';
+import { atDefaults, dialDisplay, dialText, initialDialValues, parseDialInput, type DialSpec } from '@/lib/core/widget/dial-values';
 
 const spacer: DialSpec = { id: 'spacer_length', label: 'Spacer sleeve length', unit: 'mm', min: 24.05, max: 24.25, step: 0.01, default: 24.15 };
 const budget: DialSpec = { id: 'budget', label: 'Budget', unit: 'kEUR', min: 540, max: 12000, step: 5, default: 600 };

@@ -1,9 +1,9 @@
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { getDb } from '@/db/knex';
-import { admitRun, firmRunsInProgress, type RunCaller } from '@/lib/simulate/admission';
-import { resetRunLimits } from '@/lib/simulate/limits';
-import { AppError } from '@/lib/http/errors';
+import { admitRun, firmRunsInProgress, type RunCaller } from '@/lib/server/simulate/admission';
+import { resetRunLimits } from '@/lib/server/simulate/limits';
+import { AppError } from '@/lib/server/http/errors';
 import { useFreshDb } from '../../support/test-db';
 
 // Rate and concurrency limits of server runs, against a migrated database (the counts every instance shares).

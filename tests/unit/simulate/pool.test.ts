@@ -1,9 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { exampleCostRange, exampleFormula, exampleLinearStack, runModelSync } from '@/lib/engine';
-import { workOf } from '@/lib/simulate/budget';
-import { resetRunLimits } from '@/lib/simulate/limits';
-import { closePool, poolStats, runOnPool, RunQueueFullError, RunTimeoutError } from '@/lib/simulate/pool';
-import { runTask } from '@/lib/simulate/pool-worker';
+import { exampleCostRange, exampleFormula, exampleLinearStack, runModelSync } from '@/lib/core/engine';
+import { workOf } from '@/lib/server/simulate/budget';
+import { resetRunLimits } from '@/lib/server/simulate/limits';
+import { closePool, poolStats, runOnPool, RunQueueFullError, RunTimeoutError } from '@/lib/server/simulate/pool';
+import { runTask } from '@/lib/server/simulate/pool-worker';
 
 // The server's worker-thread pool (piscina) with the real bundled worker (built by tests/support/run-worker-setup.ts).
 

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/engine';
-import { workOf } from '@/lib/simulate/budget';
-import { checkUpFront, simulateRequestSchema } from '@/lib/simulate/run';
-import { AppError } from '@/lib/http/errors';
+import { exampleCostRange, exampleFormula, exampleLinearStack } from '@/lib/core/engine';
+import { workOf } from '@/lib/server/simulate/budget';
+import { checkUpFront, simulateRequestSchema } from '@/lib/server/simulate/run';
+import { AppError } from '@/lib/server/http/errors';
 
 // Refusals made on the request thread before a run is queued (default limits: 20,000,000 draws, 2,000,000 sample values).
 

@@ -9,14 +9,14 @@ import { spawn } from 'node:child_process';
 import { PDFParse } from 'pdf-parse';
 import { useFreshDb } from '../../support/test-db';
 import { getDb } from '@/db/knex';
-import { resetEnvCache } from '@/lib/env';
+import { resetEnvCache } from '@/lib/server/env';
 import { startFakeSmtp, type FakeSmtpHandle } from '@/lib/fakes/smtp/server';
-import { runModelSync } from '@/lib/engine';
-import { headlineFigure } from '@/lib/results/headline';
+import { runModelSync } from '@/lib/core/engine';
+import { headlineFigure } from '@/lib/core/results/headline';
 import { getSnapshotJob } from '@/db/snapshots';
-import { requestSnapshot } from '@/lib/snapshots/request';
-import { resetMailTransport } from '@/lib/mail/send';
-import { startSnapshotWorker, UNCERTAIN_MESSAGE } from '@/lib/snapshots/worker';
+import { requestSnapshot } from '@/lib/server/snapshots/request';
+import { resetMailTransport } from '@/lib/server/mail/send';
+import { startSnapshotWorker, UNCERTAIN_MESSAGE } from '@/lib/server/snapshots/worker';
 import { seedWidget, STACK_MODEL, viewerFor } from './fixture';
 
 const freePort = () =>
@@ -121,7 +121,7 @@ describe('snapshot delivery', () => {
     // What the browser shows for each view: the same engine, options and seed.
     const current = runModelSync(STACK_MODEL, { dialValues: { ...dials }, samples: 'none' });
     const pinned = runModelSync(STACK_MODEL, { dialValues: { ...pinnedDials }, samples: 'none' });
-    const { compareFigures } = await import('@/lib/results/compare');
+    const { compareFigures } = await import('@/lib/core/results/compare');
     const rows = compareFigures(pinned, current, 'mean');
     expect(text).toContain('Two views side by side');
     for (const r of rows) {
@@ -184,7 +184,7 @@ describe('snapshot delivery', () => {
     const s = await seedWidget();
     const accepted = await requestSnapshot(await viewerFor(s), { email: 'restart@client.example', dialValues: dials }, 'requester-d');
     const spawnWorker = () =>
-      spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'lib/snapshots/worker-main.ts'], {
+      spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'lib/server/snapshots/worker-main.ts'], {
         env: { ...process.env, NODE_OPTIONS: '', DATABASE_FILE: dbFile, SMTP_PORT: String(smtpPort), SNAPSHOT_POLL_MS: '100', SNAPSHOT_LEASE_MS: '1500' },
         stdio: 'ignore',
       });

@@ -4,9 +4,9 @@ import { getDb } from '@/db/knex';
 import { getClientById } from '@/db/clients';
 import { getPassForEmbed } from '@/db/passes';
 import { getPublishedWidget } from '@/db/widgets';
-import { validateModel } from '@/lib/engine/schema';
-import { exampleLinearStack } from '@/lib/engine/examples';
-import type { Viewer } from '@/lib/embed/access';
+import { validateModel } from '@/lib/core/engine/schema';
+import { exampleLinearStack } from '@/lib/core/engine/examples';
+import type { Viewer } from '@/lib/server/embed/access';
 
 export const STACK_MODEL = (() => {
   const r = validateModel(exampleLinearStack);

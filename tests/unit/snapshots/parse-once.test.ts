@@ -3,10 +3,10 @@
 // The count is of schema parses (modelSchema.safeParse, which validateModel runs), on this thread.
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import { useFreshDb } from '../../support/test-db';
-import { modelSchema } from '@/lib/engine/schema';
-import { runCheckedModelSync, runModelSync } from '@/lib/engine';
-import { requestSnapshot } from '@/lib/snapshots/request';
-import { snapshotContent } from '@/lib/snapshots/content';
+import { modelSchema } from '@/lib/core/engine/schema';
+import { runCheckedModelSync, runModelSync } from '@/lib/core/engine';
+import { requestSnapshot } from '@/lib/server/snapshots/request';
+import { snapshotContent } from '@/lib/server/snapshots/content';
 import { seedWidget, viewerFor } from './fixture';
 
 beforeAll(async () => {

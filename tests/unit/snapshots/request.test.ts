@@ -2,11 +2,11 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { useFreshDb } from '../../support/test-db';
 import { getDb } from '@/db/knex';
-import { AppError } from '@/lib/http/errors';
-import { requestSnapshot } from '@/lib/snapshots/request';
-import { normaliseEmail } from '@/lib/snapshots/schemas';
-import { SNAPSHOT_LIMITS, retryAfterSeconds, SNAPSHOT_WINDOW_MS } from '@/lib/snapshots/limits';
-import { backoffMs } from '@/lib/snapshots/worker';
+import { AppError } from '@/lib/server/http/errors';
+import { requestSnapshot } from '@/lib/server/snapshots/request';
+import { normaliseEmail } from '@/lib/server/snapshots/schemas';
+import { SNAPSHOT_LIMITS, retryAfterSeconds, SNAPSHOT_WINDOW_MS } from '@/lib/server/snapshots/limits';
+import { backoffMs } from '@/lib/server/snapshots/worker';
 import { seedWidget, viewerFor } from './fixture';
 
 beforeAll(async () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { runModelSync } from '@/lib/engine/simulate';
-import { snapshotContent } from '@/lib/snapshots/content';
+import { runModelSync } from '@/lib/core/engine/simulate';
+import { snapshotContent } from '@/lib/server/snapshots/content';
 import { checked } from '../../support/checked';
 
 const model = checked({

@@ -1,7 +1,7 @@
-import { route, noContent, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { idParams } from '@/lib/http/params';
-import { revokeKey } from '@/lib/firm/service';
+import { route, noContent, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { idParams } from '@/lib/server/http/params';
+import { revokeKey } from '@/lib/server/firm/service';
 
 export const DELETE = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('apikeys.manage');

@@ -1,11 +1,11 @@
 import NextAuth from 'next-auth';
 import { NextRequest, NextResponse } from 'next/server';
-import { authOptions } from '@/lib/auth/options';
-import { takeMailAllowance } from '@/lib/auth/mail-limits';
-import { clientAddress } from '@/lib/http/client-address';
-import { AppError, notFound } from '@/lib/http/errors';
-import { readBody, toErrorResponse } from '@/lib/http/handler';
-import { env } from '@/lib/env';
+import { authOptions } from '@/lib/server/auth/options';
+import { takeMailAllowance } from '@/lib/server/auth/mail-limits';
+import { clientAddress } from '@/lib/server/http/client-address';
+import { AppError, notFound } from '@/lib/server/http/errors';
+import { readBody, toErrorResponse } from '@/lib/server/http/handler';
+import { env } from '@/lib/server/env';
 
 // next-auth answers an action it does not know with 500 ("problem with the server configuration"); only the
 // actions and providers this app uses reach it, anything else gets the usual 404.

@@ -1,7 +1,7 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { emptySchema } from '@/lib/billing/schemas';
-import { setCancelAtPeriodEnd } from '@/lib/billing/service';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { emptySchema } from '@/lib/core/billing/schemas';
+import { setCancelAtPeriodEnd } from '@/lib/server/billing/service';
 
 // Cancels at the end of the paid period; seats keep working until then.
 export const POST = route(async (req) => {

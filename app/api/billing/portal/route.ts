@@ -1,7 +1,7 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { emptySchema } from '@/lib/billing/schemas';
-import { openPortal } from '@/lib/billing/service';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { emptySchema } from '@/lib/core/billing/schemas';
+import { openPortal } from '@/lib/server/billing/service';
 
 export const POST = route(async (req) => {
   const m = await requireMember('billing.manage');

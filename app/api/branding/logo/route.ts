@@ -1,9 +1,9 @@
-import { route, json, noContent, readForm } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { AppError } from '@/lib/http/errors';
-import { MAX_LOGO_BYTES } from '@/lib/datasets/logo';
-import { logoResponse } from '@/lib/datasets/logo-http';
-import { logoFieldError, ownLogo, removeLogo, replaceLogo } from '@/lib/firm/service';
+import { route, json, noContent, readForm } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { AppError } from '@/lib/server/http/errors';
+import { MAX_LOGO_BYTES } from '@/lib/server/datasets/logo';
+import { logoResponse } from '@/lib/server/datasets/logo-http';
+import { logoFieldError, ownLogo, removeLogo, replaceLogo } from '@/lib/server/firm/service';
 
 export const GET = route(async (req) => {
   const m = await requireMember('firm.read');

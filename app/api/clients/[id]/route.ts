@@ -1,8 +1,8 @@
-import { route, readJson, json, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { idParams } from '@/lib/http/params';
-import { clientPatchSchema } from '@/lib/embed/schemas';
-import { clientDetail, clientView, editClient } from '@/lib/embed/service';
+import { route, readJson, json, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { idParams } from '@/lib/server/http/params';
+import { clientPatchSchema } from '@/lib/core/embed/schemas';
+import { clientDetail, clientView, editClient } from '@/lib/server/embed/service';
 
 export const GET = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('firm.read');

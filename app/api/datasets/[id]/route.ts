@@ -1,7 +1,7 @@
-import { route, json, parseParams, noContent } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { datasetDetail, deleteDataset } from '@/lib/datasets/service';
-import { idParams } from '@/lib/http/params';
+import { route, json, parseParams, noContent } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { datasetDetail, deleteDataset } from '@/lib/server/datasets/service';
+import { idParams } from '@/lib/server/http/params';
 
 export const GET = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('models.read');

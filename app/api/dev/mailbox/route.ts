@@ -1,5 +1,5 @@
-import { route, json } from '@/lib/http/handler';
-import { fetchMailbox } from '@/lib/mail/dev-mailbox';
+import { route, json } from '@/lib/server/http/handler';
+import { fetchMailbox } from '@/lib/server/mail/dev-mailbox';
 
 // Development only: open on this machine (loopback) while mail goes to the local fake.
 export const GET = route(async (req) => {

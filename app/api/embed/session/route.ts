@@ -1,13 +1,13 @@
 import { z } from 'zod';
 import { NextResponse } from 'next/server';
-import { route, readJson } from '@/lib/http/handler';
-import { titled } from '@/lib/http/errors';
-import { checkPass } from '@/lib/embed/access';
-import { viewerMessage } from '@/lib/embed/messages';
-import { normaliseOrigin } from '@/lib/embed/schemas';
-import { mintSessionToken } from '@/lib/embed/tokens';
-import { noteLoad } from '@/lib/embed/events';
-import type { EmbedSessionResponse } from '@/lib/embed/payload';
+import { route, readJson } from '@/lib/server/http/handler';
+import { titled } from '@/lib/server/http/errors';
+import { checkPass } from '@/lib/server/embed/access';
+import { viewerMessage } from '@/lib/server/embed/messages';
+import { normaliseOrigin } from '@/lib/core/embed/schemas';
+import { mintSessionToken } from '@/lib/server/embed/tokens';
+import { noteLoad } from '@/lib/server/embed/events';
+import type { EmbedSessionResponse } from '@/lib/core/embed/payload';
 
 // The embed page exchanges the pass from its URL for a short-lived bearer token kept in memory
 // (no cookies: a browser would not send them inside a cross-site frame anyway).

@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { route, json, parseParams } from '@/lib/http/handler';
-import { describeInvitation } from '@/lib/team/accounts';
+import { route, json, parseParams } from '@/lib/server/http/handler';
+import { describeInvitation } from '@/lib/server/team/accounts';
 
 // Public: the token in the path is the credential.
 export const GET = route<{ token: string }>(async (_req, ctx) => {

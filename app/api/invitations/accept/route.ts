@@ -1,6 +1,6 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { acceptInvitationSchema } from '@/lib/auth/schemas';
-import { acceptInvitation } from '@/lib/team/accounts';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { acceptInvitationSchema } from '@/lib/core/auth/schemas';
+import { acceptInvitation } from '@/lib/server/team/accounts';
 
 export const POST = route(async (req) => {
   const input = await readJson(req, acceptInvitationSchema);

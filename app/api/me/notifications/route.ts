@@ -1,7 +1,7 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { notificationPrefsSchema } from '@/lib/notifications/schemas';
-import { changeNotificationPrefs, notificationPrefs } from '@/lib/notifications/service';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { notificationPrefsSchema } from '@/lib/server/notifications/schemas';
+import { changeNotificationPrefs, notificationPrefs } from '@/lib/server/notifications/service';
 
 /** The signed-in person's own choice of notification e-mails; nobody else's can be read or changed. */
 export const GET = route(async () => {

@@ -1,8 +1,8 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { changePasswordSchema } from '@/lib/auth/schemas';
-import { changePassword } from '@/lib/auth/password-change';
-import { clientAddress } from '@/lib/http/client-address';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { changePasswordSchema } from '@/lib/core/auth/schemas';
+import { changePassword } from '@/lib/server/auth/password-change';
+import { clientAddress } from '@/lib/server/http/client-address';
 
 // Any member changes their own password; every session of theirs ends (the browser signs in again).
 export const POST = route(async (req) => {

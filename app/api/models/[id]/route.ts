@@ -1,8 +1,8 @@
-import { route, readJson, json, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { patchModelSchema } from '@/lib/models/schemas';
-import { modelDetail, setArchived } from '@/lib/models/service';
-import { idParams } from '@/lib/http/params';
+import { route, readJson, json, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { patchModelSchema } from '@/lib/server/models/schemas';
+import { modelDetail, setArchived } from '@/lib/server/models/service';
+import { idParams } from '@/lib/server/http/params';
 
 export const GET = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('models.read');

@@ -1,7 +1,7 @@
-import { route, json, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { idParams } from '@/lib/http/params';
-import { passDetail } from '@/lib/embed/service';
+import { route, json, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { idParams } from '@/lib/server/http/params';
+import { passDetail } from '@/lib/server/embed/service';
 
 export const GET = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('firm.read');

@@ -1,7 +1,7 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { confirmSignUpSchema } from '@/lib/auth/schemas';
-import { confirmSignUp } from '@/lib/auth/sign-up';
-import { clientAddress } from '@/lib/http/client-address';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { confirmSignUpSchema } from '@/lib/core/auth/schemas';
+import { confirmSignUp } from '@/lib/server/auth/sign-up';
+import { clientAddress } from '@/lib/server/http/client-address';
 
 // The e-mailed link's token and the password chosen at sign-up: creates the firm and its owner.
 export const POST = route(async (req) => {

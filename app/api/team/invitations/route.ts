@@ -1,7 +1,7 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { inviteSchema } from '@/lib/auth/schemas';
-import { inviteMember } from '@/lib/team/accounts';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { inviteSchema } from '@/lib/core/auth/schemas';
+import { inviteMember } from '@/lib/server/team/accounts';
 
 export const POST = route(async (req) => {
   const m = await requireMember('team.manage');

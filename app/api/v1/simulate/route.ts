@@ -1,6 +1,6 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMemberOrApiKey } from '@/lib/auth/api-key';
-import { runCaller, runStatus, simulate, simulateRequestSchema } from '@/lib/simulate/run';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMemberOrApiKey } from '@/lib/server/auth/api-key';
+import { runCaller, runStatus, simulate, simulateRequestSchema } from '@/lib/server/simulate/run';
 
 // A model with empirical inputs can carry long value lists: this API takes JSON bodies up to 4 MiB (documented
 // in README.md and /docs/model-json); every other JSON endpoint takes 1 MiB.

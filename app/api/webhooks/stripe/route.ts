@@ -1,11 +1,11 @@
 import { after } from 'next/server';
 import Stripe from 'stripe';
 import { z } from 'zod';
-import { route, json, readText } from '@/lib/http/handler';
-import { AppError } from '@/lib/http/errors';
-import { verifyWebhook, stripe } from '@/lib/billing/stripe';
-import { processStripeEvent } from '@/lib/billing/webhooks';
-import { deliverNotices } from '@/lib/billing/mail';
+import { route, json, readText } from '@/lib/server/http/handler';
+import { AppError } from '@/lib/server/http/errors';
+import { verifyWebhook, stripe } from '@/lib/server/billing/stripe';
+import { processStripeEvent } from '@/lib/server/billing/webhooks';
+import { deliverNotices } from '@/lib/server/billing/mail';
 
 export const dynamic = 'force-dynamic';
 

@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
-import { requirePageMember } from '@/lib/auth/guard';
-import { can } from '@/lib/auth/permissions';
+import { requirePageMember } from '@/lib/server/auth/guard';
+import { can } from '@/lib/core/auth/permissions';
 import { PageHeader } from '@/components/ui/page-header';
 import { ClientsList } from '@/components/clients/clients-list';
 

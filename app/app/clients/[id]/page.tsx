@@ -1,10 +1,10 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
-import { requirePageMember } from '@/lib/auth/guard';
-import { can } from '@/lib/auth/permissions';
-import { isUuid } from '@/lib/http/params';
-import { clientExists } from '@/lib/embed/service';
-import { widgetList } from '@/lib/models/service';
+import { requirePageMember } from '@/lib/server/auth/guard';
+import { can } from '@/lib/core/auth/permissions';
+import { isUuid } from '@/lib/server/http/params';
+import { clientExists } from '@/lib/server/embed/service';
+import { widgetList } from '@/lib/server/models/service';
 import { ClientDetail } from '@/components/clients/client-detail';
 
 export const metadata: Metadata = { title: 'Client' };

@@ -1,8 +1,8 @@
 import type { Metadata } from 'next';
-import { requirePageMember } from '@/lib/auth/guard';
-import { can } from '@/lib/auth/permissions';
+import { requirePageMember } from '@/lib/server/auth/guard';
+import { can } from '@/lib/core/auth/permissions';
 import { PageHeader } from '@/components/ui/page-header';
-import { datasetList } from '@/lib/datasets/service';
+import { datasetList } from '@/lib/server/datasets/service';
 import { DatasetLibrary } from '@/components/datasets/dataset-library';
 import { UploadForm } from '@/components/datasets/upload-form';
 

@@ -1,12 +1,12 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
-import { requirePageMember } from '@/lib/auth/guard';
-import { can } from '@/lib/auth/permissions';
+import { requirePageMember } from '@/lib/server/auth/guard';
+import { can } from '@/lib/core/auth/permissions';
 import { PageHeader } from '@/components/ui/page-header';
-import { datasetDetail } from '@/lib/datasets/service';
-import { AppError } from '@/lib/http/errors';
+import { datasetDetail } from '@/lib/server/datasets/service';
+import { AppError } from '@/lib/server/http/errors';
 import { DatasetDetailView } from '@/components/datasets/dataset-detail';
-import { isUuid } from '@/lib/http/params';
+import { isUuid } from '@/lib/server/http/params';
 
 export const metadata: Metadata = { title: 'Dataset' };
 

@@ -1,11 +1,11 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
-import { requirePageMember } from '@/lib/auth/guard';
-import { can } from '@/lib/auth/permissions';
-import { modelExists } from '@/lib/models/service';
-import { firmBrandColor } from '@/lib/firm/service';
+import { requirePageMember } from '@/lib/server/auth/guard';
+import { can } from '@/lib/core/auth/permissions';
+import { modelExists } from '@/lib/server/models/service';
+import { firmBrandColor } from '@/lib/server/firm/service';
 import { ModelStudio } from '@/components/models/model-studio';
-import { isUuid } from '@/lib/http/params';
+import { isUuid } from '@/lib/server/http/params';
 
 export const metadata: Metadata = { title: 'Model studio' };
 

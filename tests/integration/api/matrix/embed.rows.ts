@@ -1,9 +1,9 @@
 import type Database from 'better-sqlite3';
 import { randomUUID } from 'node:crypto';
 import type { MatrixRow } from './types';
-import { validateModel } from '@/lib/engine/schema';
-import { exampleLinearStack } from '@/lib/engine/examples';
-import { mintPassToken } from '@/lib/embed/tokens';
+import { validateModel } from '@/lib/core/engine/schema';
+import { exampleLinearStack } from '@/lib/core/engine/examples';
+import { mintPassToken } from '@/lib/server/embed/tokens';
 
 // Clients, passes and the embed API. Dashboard personas act on fresh records written straight into the test
 // database. The embed API knows no sessions: a dashboard cookie opens nothing there (401 without a bearer),

@@ -1,8 +1,8 @@
 import type Database from 'better-sqlite3';
 import { randomUUID } from 'node:crypto';
 import type { MatrixRow } from './types';
-import { validateModel } from '@/lib/engine/schema';
-import { exampleFormula } from '@/lib/engine/examples';
+import { validateModel } from '@/lib/core/engine/schema';
+import { exampleFormula } from '@/lib/core/engine/examples';
 
 // Studio routes. Targets are written straight into the test database so every persona acts on a fresh record.
 

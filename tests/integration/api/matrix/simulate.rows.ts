@@ -1,5 +1,5 @@
 import type { MatrixRow } from './types';
-import { exampleLinearStack } from '../../../../lib/engine/examples';
+import { exampleLinearStack } from '../../../../lib/core/engine/examples';
 
 export const rows: MatrixRow[] = [
   {

@@ -1,7 +1,7 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { seatPreviewSchema } from '@/lib/billing/schemas';
-import { previewSeatChange } from '@/lib/billing/service';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { seatPreviewSchema } from '@/lib/core/billing/schemas';
+import { previewSeatChange } from '@/lib/server/billing/service';
 
 // What a seat change would charge (or credit) now, without changing anything.
 export const POST = route(async (req) => {

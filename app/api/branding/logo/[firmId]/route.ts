@@ -1,7 +1,7 @@
-import { route, parseParams } from '@/lib/http/handler';
-import { firmIdParams } from '@/lib/http/params';
-import { logoResponse } from '@/lib/datasets/logo-http';
-import { publicLogo } from '@/lib/firm/service';
+import { route, parseParams } from '@/lib/server/http/handler';
+import { firmIdParams } from '@/lib/server/http/params';
+import { logoResponse } from '@/lib/server/datasets/logo-http';
+import { publicLogo } from '@/lib/server/firm/service';
 
 /** Public: widgets, embeds and PDFs show the firm's logo. Revalidated by ETag, so a new logo shows within minutes. */
 export const GET = route<{ firmId: string }>(async (req, ctx) => {

@@ -1,7 +1,7 @@
-import { route, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { idParams } from '@/lib/http/params';
-import { datasetExport } from '@/lib/datasets/service';
+import { route, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { idParams } from '@/lib/server/http/params';
+import { datasetExport } from '@/lib/server/datasets/service';
 
 export const GET = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('models.read');

@@ -1,7 +1,7 @@
-import { route, json, parseParams, readJson } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { recordUse, useSchema } from '@/lib/datasets/service';
-import { idParams } from '@/lib/http/params';
+import { route, json, parseParams, readJson } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { recordUse, useSchema } from '@/lib/server/datasets/service';
+import { idParams } from '@/lib/server/http/params';
 
 /** Records that a model copied this dataset (fitted law or empirical) and which hash it copied. */
 export const POST = route<{ id: string }>(async (req, ctx) => {

@@ -1,6 +1,6 @@
-import { route, json, parseParams } from '@/lib/http/handler';
-import { fetchMailbox } from '@/lib/mail/dev-mailbox';
-import { mailIdParams } from '@/lib/http/params';
+import { route, json, parseParams } from '@/lib/server/http/handler';
+import { fetchMailbox } from '@/lib/server/mail/dev-mailbox';
+import { mailIdParams } from '@/lib/server/http/params';
 
 export const GET = route<{ id: string }>(async (req, ctx) => {
   const { id } = parseParams(await ctx.params, mailIdParams);

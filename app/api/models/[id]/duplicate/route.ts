@@ -1,8 +1,8 @@
-import { route, readJson, json, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { duplicateModelSchema } from '@/lib/models/schemas';
-import { duplicateModel } from '@/lib/models/service';
-import { idParams } from '@/lib/http/params';
+import { route, readJson, json, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { duplicateModelSchema } from '@/lib/server/models/schemas';
+import { duplicateModel } from '@/lib/server/models/service';
+import { idParams } from '@/lib/server/http/params';
 
 export const POST = route<{ id: string }>(async (req, ctx) => {
   const m = await requireMember('models.edit');

@@ -1,8 +1,8 @@
-import { route, readJson, json, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { idParams } from '@/lib/http/params';
-import { saveVersionSchema } from '@/lib/models/schemas';
-import { saveVersion, versionList } from '@/lib/models/service';
+import { route, readJson, json, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { idParams } from '@/lib/server/http/params';
+import { saveVersionSchema } from '@/lib/server/models/schemas';
+import { saveVersion, versionList } from '@/lib/server/models/service';
 
 export const GET = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('models.read');

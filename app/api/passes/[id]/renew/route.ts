@@ -1,8 +1,8 @@
-import { route, readJson, json, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { passRenewSchema } from '@/lib/embed/schemas';
-import { passView, renewPass } from '@/lib/embed/service';
-import { idParams } from '@/lib/http/params';
+import { route, readJson, json, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { passRenewSchema } from '@/lib/core/embed/schemas';
+import { passView, renewPass } from '@/lib/server/embed/service';
+import { idParams } from '@/lib/server/http/params';
 
 export const POST = route<{ id: string }>(async (req, ctx) => {
   const m = await requireMember('clients.manage');

@@ -1,8 +1,8 @@
-import { route, readJson, json, noContent, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { roleChangeSchema } from '@/lib/auth/schemas';
-import { changeRole, removeMember } from '@/lib/team/accounts';
-import { idParams } from '@/lib/http/params';
+import { route, readJson, json, noContent, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { roleChangeSchema } from '@/lib/core/auth/schemas';
+import { changeRole, removeMember } from '@/lib/server/team/accounts';
+import { idParams } from '@/lib/server/http/params';
 
 export const PATCH = route<{ id: string }>(async (req, ctx) => {
   const m = await requireMember('team.manage');

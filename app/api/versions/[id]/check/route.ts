@@ -1,8 +1,8 @@
-import { route, readJson, json, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { checkSchema } from '@/lib/models/schemas';
-import { checkVersion } from '@/lib/models/service';
-import { idParams } from '@/lib/http/params';
+import { route, readJson, json, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { checkSchema } from '@/lib/server/models/schemas';
+import { checkVersion } from '@/lib/server/models/service';
+import { idParams } from '@/lib/server/http/params';
 
 /** A checker signs a version off or sends it back; never their own version, and only once. */
 export const POST = route<{ id: string }>(async (req, ctx) => {

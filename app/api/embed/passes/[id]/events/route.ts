@@ -1,9 +1,9 @@
 import { z } from 'zod';
-import { route, readJson, noContent } from '@/lib/http/handler';
-import { fieldError } from '@/lib/http/errors';
-import { requireViewer } from '@/lib/embed/access';
-import { noteDial } from '@/lib/embed/events';
-import { viewerDials } from '@/lib/embed/payload';
+import { route, readJson, noContent } from '@/lib/server/http/handler';
+import { fieldError } from '@/lib/server/http/errors';
+import { requireViewer } from '@/lib/server/embed/access';
+import { noteDial } from '@/lib/server/embed/events';
+import { viewerDials } from '@/lib/core/embed/payload';
 
 // A viewer moved a dial: counted for the pass's analytics. The value is checked against the dial's range.
 const body = z

@@ -1,7 +1,7 @@
-import { route, readJson, json } from '@/lib/http/handler';
-import { requireViewer } from '@/lib/embed/access';
-import { snapshotRequestSchema } from '@/lib/snapshots/schemas';
-import { requestSnapshot, requesterHash } from '@/lib/snapshots/request';
+import { route, readJson, json } from '@/lib/server/http/handler';
+import { requireViewer } from '@/lib/server/embed/access';
+import { snapshotRequestSchema } from '@/lib/server/snapshots/schemas';
+import { requestSnapshot, requesterHash } from '@/lib/server/snapshots/request';
 
 // "E-mail this view": checks the bearer, the address, the dial values and the limits, then queues a job (202).
 export const POST = route<{ id: string }>(async (req, ctx) => {

@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
-import { route } from '@/lib/http/handler';
-import { requireViewer } from '@/lib/embed/access';
-import { ifNoneMatch, widgetRepresentation } from '@/lib/embed/widget-response';
+import { route } from '@/lib/server/http/handler';
+import { requireViewer } from '@/lib/server/embed/access';
+import { ifNoneMatch, widgetRepresentation } from '@/lib/server/embed/widget-response';
 
 // The widget for the embed page, authorised by the bearer token alone (client viewers have no session).
 // The pass is checked on every call; the payload carries a strong ETag, and a browser (or CDN) that holds it

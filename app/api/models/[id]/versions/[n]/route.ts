@@ -1,7 +1,7 @@
-import { route, json, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { getVersion } from '@/lib/models/service';
-import { versionParams } from '@/lib/http/params';
+import { route, json, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { getVersion } from '@/lib/server/models/service';
+import { versionParams } from '@/lib/server/http/params';
 
 export const GET = route<{ id: string; n: string }>(async (_req, ctx) => {
   const m = await requireMember('models.read');

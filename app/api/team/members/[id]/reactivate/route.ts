@@ -1,7 +1,7 @@
-import { route, json, parseParams } from '@/lib/http/handler';
-import { requireMember } from '@/lib/auth/guard';
-import { reactivateMember } from '@/lib/team/accounts';
-import { idParams } from '@/lib/http/params';
+import { route, json, parseParams } from '@/lib/server/http/handler';
+import { requireMember } from '@/lib/server/auth/guard';
+import { reactivateMember } from '@/lib/server/team/accounts';
+import { idParams } from '@/lib/server/http/params';
 
 export const POST = route<{ id: string }>(async (_req, ctx) => {
   const m = await requireMember('team.manage');

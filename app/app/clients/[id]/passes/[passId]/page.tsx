@@ -1,9 +1,9 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
-import { requirePageMember } from '@/lib/auth/guard';
-import { can } from '@/lib/auth/permissions';
-import { isUuid } from '@/lib/http/params';
-import { passClientId } from '@/lib/embed/service';
+import { requirePageMember } from '@/lib/server/auth/guard';
+import { can } from '@/lib/core/auth/permissions';
+import { isUuid } from '@/lib/server/http/params';
+import { passClientId } from '@/lib/server/embed/service';
 import { PassDetail } from '@/components/clients/pass-detail';
 
 export const metadata: Metadata = { title: 'Pass' };

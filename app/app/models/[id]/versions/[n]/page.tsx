@@ -1,10 +1,10 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
-import { requirePageMember } from '@/lib/auth/guard';
-import { can } from '@/lib/auth/permissions';
-import { versionExists } from '@/lib/models/service';
+import { requirePageMember } from '@/lib/server/auth/guard';
+import { can } from '@/lib/core/auth/permissions';
+import { versionExists } from '@/lib/server/models/service';
 import { VersionView } from '@/components/models/version-view';
-import { versionParams } from '@/lib/http/params';
+import { versionParams } from '@/lib/server/http/params';
 
 export const metadata: Metadata = { title: 'Model version' };
 

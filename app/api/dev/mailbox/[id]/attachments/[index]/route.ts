@@ -1,6 +1,6 @@
-import { route, parseParams } from '@/lib/http/handler';
-import { fetchMailbox } from '@/lib/mail/dev-mailbox';
-import { mailAttachmentParams } from '@/lib/http/params';
+import { route, parseParams } from '@/lib/server/http/handler';
+import { fetchMailbox } from '@/lib/server/mail/dev-mailbox';
+import { mailAttachmentParams } from '@/lib/server/http/params';
 
 export const GET = route<{ id: string; index: string }>(async (req, ctx) => {
   const { id, index } = parseParams(await ctx.params, mailAttachmentParams);

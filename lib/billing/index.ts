@@ -1,3 +1,0 @@
-// What other areas call: the authoring gate for model-editing routes and the state behind banners.
-export { assertAuthoringAllowed, authoringBlockedMessage, billingStatus } from './access';
-export type { BillingStatus, BillingKind } from './status';

@@ -1,0 +1,47 @@
+// What the embed page receives for a pass: the widget, its version's model, branding and sign-off.
+// No React and no server imports: the embed bundle imports these types.
+import type { CheckedModel } from '@/lib/core/engine/checked-model';
+
+export interface EmbedWidgetPayload {
+  passId: string;
+  clientName: string;
+  widget: {
+    id: string;
+    title: string;
+    panels: string[];
+    headline: string;
+    dialIds: string[];
+    brandColor: string;
+    showLogo: boolean;
+  };
+  /** Checked on the server when the version was saved: the embed page trusts it and loads no schema. */
+  model: CheckedModel;
+  /** logoUrl: the firm's uploaded logo when the widget shows the logo slot and a logo exists. */
+  branding: { firmName: string; brandColor: string; showLogo: boolean; logoUrl: string | null };
+  versionInfo: {
+    number: number;
+    createdAt: string;
+    checkState: 'unchecked' | 'signed_off' | 'sent_back';
+    checkedAt: string | null;
+    checkerName: string | null;
+    authorName: string | null;
+  };
+}
+
+export interface EmbedSessionResponse {
+  token: string;
+  /** Seconds since the epoch. */
+  expiresAt: number;
+  passId: string;
+}
+
+export interface DialBounds {
+  id: string;
+  min: number;
+  max: number;
+}
+
+/** The dials a viewer may move: the widget's dial ids that the model defines, in the model's order. */
+export function viewerDials(model: CheckedModel, dialIds: readonly string[]): DialBounds[] {
+  return model.dials.filter((d) => dialIds.includes(d.id)).map((d) => ({ id: d.id, min: d.min, max: d.max }));
+}
