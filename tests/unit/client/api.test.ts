@@ -3,21 +3,10 @@ import { z } from 'zod';
 import { ApiError, api, applyServerErrors, errorFrom, errorMessage, parseRetryAfter, requestJson } from '@/lib/client/api';
 import { toErrorResponse } from '@/lib/server/http/handler';
 import { AppError, titled, validationError } from '@/lib/server/http/errors';
+import { answer, calls } from '../../support/fetch-answers';
 
 // The browser's one API client. fetch is replaced at this test's edge only: each case hands back a real Response.
 
-const calls: { url: string; init: RequestInit }[] = [];
-function answer(...responses: (Response | Error)[]) {
-  calls.length = 0;
-  const queue = [...responses];
-  vi.stubGlobal('fetch', async (url: string, init: RequestInit) => {
-    calls.push({ url, init });
-    const next = queue.shift();
-    if (!next) throw new Error('no more answers');
-    if (next instanceof Error) throw next;
-    return next;
-  });
-}
 const jsonResponse = (status: number, body: unknown, headers: Record<string, string> = {}) =>
   new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json', ...headers } });
 

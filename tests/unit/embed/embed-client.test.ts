@@ -2,22 +2,11 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { createEmbedClient, refusalOf } from '@/components/embed/embed-client';
 import { toErrorResponse } from '@/lib/server/http/handler';
 import { AppError, titled } from '@/lib/server/http/errors';
+import { answer, calls } from '../../support/fetch-answers';
 
 // The embed page's client over the shared request helper. fetch is replaced at this test's edge: each call gets
 // the next prepared Response (error bodies written by the server's own mapper).
 
-const calls: { url: string; init: RequestInit }[] = [];
-function answer(...responses: (Response | Error)[]) {
-  calls.length = 0;
-  const queue = [...responses];
-  vi.stubGlobal('fetch', async (url: string, init: RequestInit) => {
-    calls.push({ url, init });
-    const next = queue.shift();
-    if (!next) throw new Error('no more answers');
-    if (next instanceof Error) throw next;
-    return next;
-  });
-}
 const ok = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 const session = (token: string) => ok({ token, expiresAt: Math.floor(Date.now() / 1000) + 600, passId: 'p1' });
 const auth = (i: number) => (calls[i]!.init.headers as Record<string, string>).authorization;
