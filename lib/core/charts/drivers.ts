@@ -1,5 +1,5 @@
 import { linear, makeBox, percentAxis, type Axis, type Box } from './axis';
-import { translate, type SceneText } from './frame';
+import { barValueAxisNodes, translate, type SceneText } from './frame';
 import { formatPercent } from './format';
 import { chartColors, OKABE_ITO } from './palette';
 import { fitText, r2, textWidth, type Scene, type SceneNode } from './scene';
@@ -123,12 +123,7 @@ export function describeDrivers(g: DriversGeometry): string {
 export function driversScene(g: DriversGeometry, text?: Partial<SceneText>): Scene {
   const { box } = g;
   const h = box.innerHeight;
-  const nodes: SceneNode[] = [];
-  for (const t of g.xAxis.ticks) {
-    nodes.push({ type: 'line', key: `g${t.value}`, x1: r2(t.pos), x2: r2(t.pos), y1: 0, y2: h, stroke: chartColors.grid, strokeWidth: 1 });
-    nodes.push({ type: 'text', key: `t${t.value}`, x: r2(t.pos), y: h + 6, text: t.label, font: 'mono', size: 10.5, fill: chartColors.text, anchor: 'middle', baseline: 'hanging' });
-  }
-  nodes.push({ type: 'text', key: 'xtitle', x: box.innerWidth / 2, y: h + 32, text: g.xAxis.title, font: 'sans', size: 11.5, fill: chartColors.text, anchor: 'middle', weight: 500 });
+  const nodes: SceneNode[] = barValueAxisNodes(box, g.xAxis);
   nodes.push({ type: 'line', key: 'base', x1: 0.5, x2: 0.5, y1: 0, y2: h, stroke: chartColors.axis, strokeWidth: 1 });
   for (const b of g.bars) {
     const fill = b.other ? chartColors.axis : b.direction === 'down' ? OKABE_ITO.bluishGreen : chartColors.series;

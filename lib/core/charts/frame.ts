@@ -23,6 +23,18 @@ export function axesNodes(box: Box, xAxis: Axis, yAxis: Axis | null, opts: { yGr
   return nodes;
 }
 
+/** The value axis of the horizontal bar charts (drivers, ranges): grid lines across the plot, labels and title below. */
+export function barValueAxisNodes(box: Box, xAxis: Axis): SceneNode[] {
+  const h = box.innerHeight;
+  const nodes: SceneNode[] = [];
+  for (const t of xAxis.ticks) {
+    nodes.push({ type: 'line', key: `g${t.value}`, x1: r2(t.pos), x2: r2(t.pos), y1: 0, y2: h, stroke: chartColors.grid, strokeWidth: 1 });
+    nodes.push({ type: 'text', key: `t${t.value}`, x: r2(t.pos), y: h + 6, text: t.label, font: 'mono', size: 10.5, fill: chartColors.text, anchor: 'middle', baseline: 'hanging' });
+  }
+  nodes.push({ type: 'text', key: 'xtitle', x: box.innerWidth / 2, y: h + 32, text: xAxis.title, font: 'sans', size: 11.5, fill: chartColors.text, anchor: 'middle', weight: 500 });
+  return nodes;
+}
+
 export interface SceneText {
   title: string;
   description: string;

@@ -1,5 +1,5 @@
 import { coveringDomain, linear, linearAxis, makeBox, xTickCount, type Axis, type Box } from './axis';
-import { translate, type SceneText } from './frame';
+import { barValueAxisNodes, translate, type SceneText } from './frame';
 import { formatValue } from './format';
 import { chartColors } from './palette';
 import { fitText, r2, textWidth, type Scene, type SceneNode } from './scene';
@@ -106,12 +106,7 @@ export function describeRanges(g: RangesGeometry): string {
 export function rangesScene(g: RangesGeometry, text?: Partial<SceneText>): Scene {
   const { box } = g;
   const h = box.innerHeight;
-  const nodes: SceneNode[] = [];
-  for (const t of g.xAxis.ticks) {
-    nodes.push({ type: 'line', key: `g${t.value}`, x1: r2(t.pos), x2: r2(t.pos), y1: 0, y2: h, stroke: chartColors.grid, strokeWidth: 1 });
-    nodes.push({ type: 'text', key: `t${t.value}`, x: r2(t.pos), y: h + 6, text: t.label, font: 'mono', size: 10.5, fill: chartColors.text, anchor: 'middle', baseline: 'hanging' });
-  }
-  nodes.push({ type: 'text', key: 'xtitle', x: box.innerWidth / 2, y: h + 32, text: g.xAxis.title, font: 'sans', size: 11.5, fill: chartColors.text, anchor: 'middle', weight: 500 });
+  const nodes: SceneNode[] = barValueAxisNodes(box, g.xAxis);
   // Limit labels sit in the top margin: lower to the left of its line, upper to the right, kept inside.
   for (const l of g.limits) {
     const w = textWidth(l.text, 11, 'sans');
