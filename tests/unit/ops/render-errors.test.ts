@@ -1,23 +1,11 @@
-import { describe, it, expect, beforeAll, afterAll, beforeEach } from 'vitest';
-import { Writable } from 'node:stream';
-import pino from 'pino';
+import { describe, it, expect, beforeEach } from 'vitest';
+import { captureLog } from '../../support/captured-log';
 import { logRenderError } from '@/lib/server/ops/render-errors';
 import { onRequestError } from '@/instrumentation';
 
 // A page that fails while rendering shows its digest as the reference (components/segments/error-screen.tsx); the
 // server's log line must carry the same digest, or the reference leads nowhere.
-const lines: Record<string, unknown>[] = [];
-const g = globalThis as unknown as { __stochosLog?: pino.Logger };
-let saved: pino.Logger | undefined;
-
-beforeAll(() => {
-  saved = g.__stochosLog;
-  const sink = new Writable({ write: (chunk, _enc, cb) => (lines.push(JSON.parse(String(chunk))), cb()) });
-  g.__stochosLog = pino({ level: 'info', formatters: { level: (label) => ({ level: label }) } }, sink);
-});
-afterAll(() => {
-  g.__stochosLog = saved;
-});
+const lines = captureLog();
 beforeEach(() => {
   lines.length = 0;
 });

@@ -1,6 +1,5 @@
-import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { Writable } from 'node:stream';
-import pino from 'pino';
+import { describe, it, expect } from 'vitest';
+import { captureLog } from '../../support/captured-log';
 import { NextRequest } from 'next/server';
 import { route } from '@/lib/server/http/handler';
 import { AppError } from '@/lib/server/http/errors';
@@ -10,18 +9,7 @@ import { readiness } from '@/lib/server/ops/readiness';
 
 // Structured logs with a request id: every answer carries X-Request-Id, a 500 quotes it in its body, and the
 // log line of the error carries the same id.
-const lines: Record<string, unknown>[] = [];
-const g = globalThis as unknown as { __stochosLog?: pino.Logger };
-let saved: pino.Logger | undefined;
-
-beforeAll(() => {
-  saved = g.__stochosLog;
-  const sink = new Writable({ write: (chunk, _enc, cb) => (lines.push(JSON.parse(String(chunk))), cb()) });
-  g.__stochosLog = pino({ level: 'info', formatters: { level: (label) => ({ level: label }) } }, sink);
-});
-afterAll(() => {
-  g.__stochosLog = saved;
-});
+const lines = captureLog();
 
 const ctx = { params: Promise.resolve({}) };
 const req = (headers: Record<string, string> = {}) => new NextRequest('http://localhost:3000/api/things', { headers });
