@@ -70,7 +70,7 @@ export function UseInStack({ dataset }: { dataset: { id: string; name: string; h
       // The changed stack is checked here, where it is made, like every model before it is saved.
       const checked = validateModel(next);
       if (!checked.ok) {
-        setError(`The changed stack does not check: ${checked.issues[0]?.message ?? 'unknown problem'}`);
+        setError(`Nothing was saved: the stack with this dataset is not a valid model (${checked.issues[0]?.message ?? 'no detail given'}).`);
         return;
       }
       const version = await chosen.saveVersion({ baseVersion: base.version, note, model: checked.model });
