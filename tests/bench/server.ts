@@ -61,7 +61,7 @@ async function main(): Promise<void> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'stochos-bench-server-'));
   const stack = await startStack({ dataDir, appPort: 3400 + OFF, smtpPort: 2825 + OFF, mailboxPort: 2826 + OFF, stripePort: 12411 + OFF, seed: false, quiet: true });
   try {
-    const { owner } = await newFirm(stack.appUrl, 'bench');
+    const { owner } = await newFirm(stack.appUrl, 'bench', stack.mailboxUrl);
     const me = () => timed(() => owner.get('/api/me'));
     const simulate = (model: unknown) => timed(() => owner.post('/api/v1/simulate', { model }));
     const limits = (await owner.json<{ limits: { maxWork: number; timeLimitSeconds: number }; pool: { maxThreads: number } }>('GET', '/api/v1/simulate')).body;
