@@ -74,16 +74,7 @@ export async function usePasswordResets(resetId: string, userId: string, trx: Kn
 }
 
 // E-mail limits: one row per message someone triggered.
-export async function countMailSends(key: string, sinceIso: string): Promise<{ count: number; oldest: string | null }> {
-  const r = await getDb()('mail_sends').where('key', key).andWhere('at', '>', sinceIso).count({ n: '*' }).min({ oldest: 'at' }).first();
-  return { count: Number(r?.n ?? 0), oldest: (r?.oldest as string | null) ?? null };
-}
-
-export async function recordMailSends(keys: string[]): Promise<void> {
-  const at = nowIso();
-  await getDb()('mail_sends').insert(keys.map((key) => ({ key, at })));
-}
-
+// E-mail limits: one row per message someone triggered.
 export interface MailSendCheck {
   key: string;
   sinceIso: string;
@@ -96,19 +87,21 @@ export interface MailSendCheck {
  */
 export async function takeMailSends(checks: MailSendCheck[]): Promise<{ refused: null } | { refused: number; oldest: string | null }> {
   if (!checks.length) return { refused: null };
-  return writeTransaction(
-    async (trx) => {
-      for (let i = 0; i < checks.length; i++) {
-        const c = checks[i];
-        const r = await trx('mail_sends').where('key', c.key).andWhere('at', '>', c.sinceIso).count({ n: '*' }).min({ oldest: 'at' }).first();
-        if (Number(r?.n ?? 0) >= c.max) return { refused: i, oldest: (r?.oldest as string | null) ?? null };
-      }
-      const at = nowIso();
-      await trx('mail_sends').insert(checks.map((c) => ({ key: c.key, at })));
-      return { refused: null };
-    },
-    { locks: checks.map((c) => c.key) },
-  );
+  return writeTransaction((trx) => takeMailSendsIn(trx, checks), { locks: checks.map((c) => c.key) });
+}
+
+/** takeMailSends inside the caller's write transaction, which must hold the keys' locks (writeTransaction's `locks`). */
+export async function takeMailSendsIn(trx: Knex.Transaction, checks: MailSendCheck[]): Promise<{ refused: null } | { refused: number; oldest: string | null }> {
+  for (let i = 0; i < checks.length; i++) {
+    const c = checks[i];
+    const r = await trx('mail_sends').where('key', c.key).andWhere('at', '>', c.sinceIso).count({ n: '*' }).min({ oldest: 'at' }).first();
+    if (Number(r?.n ?? 0) >= c.max) return { refused: i, oldest: (r?.oldest as string | null) ?? null };
+  }
+  if (checks.length) {
+    const at = nowIso();
+    await trx('mail_sends').insert(checks.map((c) => ({ key: c.key, at })));
+  }
+  return { refused: null };
 }
 
 export async function pruneMailSends(beforeIso: string): Promise<void> {

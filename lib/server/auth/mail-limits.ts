@@ -1,5 +1,6 @@
 import 'server-only';
-import { countMailSends, recordMailSends, takeMailSends } from '@/db/accounts';
+import type { Knex } from 'knex';
+import { takeMailSends, takeMailSendsIn } from '@/db/accounts';
 import { AppError } from '@/lib/server/http/errors';
 import { env } from '@/lib/server/env';
 
@@ -78,23 +79,26 @@ function applicable(kind: MailKind, subjects: MailSubjects): { rule: Rule; key: 
   });
 }
 
-/** Throws 429 with Retry-After when any limit is reached; nothing is counted then. */
-export async function assertMailAllowed(kind: MailKind, subjects: MailSubjects): Promise<void> {
-  for (const { rule, key } of applicable(kind, subjects)) {
-    const { count, oldest } = await countMailSends(key, new Date(Date.now() - rule.windowMs).toISOString());
-    if (count >= rule.max) throw refusal(rule, oldest);
-  }
-}
-
-export async function noteMailSent(kind: MailKind, subjects: MailSubjects): Promise<void> {
-  const keys = applicable(kind, subjects).map((a) => a.key);
-  if (keys.length) await recordMailSends(keys);
-}
+const checksOf = (list: { rule: Rule; key: string }[], now: number) => list.map(({ rule, key }) => ({ key, max: rule.max, sinceIso: new Date(now - rule.windowMs).toISOString() }));
 
 /** Check and count in one transaction, for e-mails a visitor triggers: concurrent requests cannot overshoot. */
 export async function takeMailAllowance(kind: MailKind, subjects: MailSubjects): Promise<void> {
   const list = applicable(kind, subjects);
-  const now = Date.now();
-  const taken = await takeMailSends(list.map(({ rule, key }) => ({ key, max: rule.max, sinceIso: new Date(now - rule.windowMs).toISOString() })));
+  const taken = await takeMailSends(checksOf(list, Date.now()));
+  if (taken.refused !== null) throw refusal(list[taken.refused].rule, taken.oldest);
+}
+
+/** The lock keys takeMailAllowanceIn needs: pass them as writeTransaction's `locks`. */
+export function mailAllowanceLocks(kind: MailKind, subjects: MailSubjects): string[] {
+  return applicable(kind, subjects).map((a) => a.key);
+}
+
+/**
+ * takeMailAllowance inside the caller's write transaction (opened with mailAllowanceLocks), so the e-mail is
+ * counted only if the rest of the transaction (the invitation row, say) commits too.
+ */
+export async function takeMailAllowanceIn(trx: Knex.Transaction, kind: MailKind, subjects: MailSubjects): Promise<void> {
+  const list = applicable(kind, subjects);
+  const taken = await takeMailSendsIn(trx, checksOf(list, Date.now()));
   if (taken.refused !== null) throw refusal(list[taken.refused].rule, taken.oldest);
 }

@@ -25,7 +25,7 @@ import { env } from '@/lib/server/env';
 import type { Member } from '@/lib/server/auth/guard';
 import { passwordField, type inviteSchema, type acceptInvitationSchema } from '@/lib/core/auth/schemas';
 import { assertSeatAvailable, seatUsage } from '@/lib/server/team/seats';
-import { assertMailAllowed, noteMailSent } from '@/lib/server/auth/mail-limits';
+import { mailAllowanceLocks, takeMailAllowanceIn } from '@/lib/server/auth/mail-limits';
 
 export const INVITATION_DAYS = 7;
 
@@ -36,8 +36,6 @@ export async function teamOverview(actor: Member) {
 }
 
 export async function inviteMember(actor: Member, input: z.infer<typeof inviteSchema>): Promise<{ id: string; email: string; role: Role; expiresAt: string }> {
-  // Invitations are e-mails to any address a firm types: limited per firm, withdrawn ones included.
-  await assertMailAllowed('invitation', { firm: actor.firmId });
   const token = newSecret();
   const expiresAt = new Date(Date.now() + INVITATION_DAYS * 86_400_000).toISOString();
   const id = await writeTransaction(async (trx) => {
@@ -48,11 +46,13 @@ export async function inviteMember(actor: Member, input: z.infer<typeof inviteSc
       });
     }
     await assertSeatAvailable(actor.firmId, { adding: 1, countInvitations: true }, trx);
+    // Invitations are e-mails to any address a firm types: limited per firm, withdrawn ones included. Checked
+    // and counted in this transaction, so two invitations at once cannot overshoot and a refused one is not counted.
+    await takeMailAllowanceIn(trx, 'invitation', { firm: actor.firmId });
     const invId = await insertInvitation({ firmId: actor.firmId, email: input.email, role: input.role, token, invitedBy: actor.userId, expiresAt }, trx);
     await recordAudit({ firmId: actor.firmId, actorUserId: actor.userId, action: 'member.invited', targetType: 'invitation', targetId: invId, detail: { email: input.email, role: input.role } }, trx);
     return invId;
-  });
-  await noteMailSent('invitation', { firm: actor.firmId });
+  }, { locks: mailAllowanceLocks('invitation', { firm: actor.firmId }) });
   const url = `${env().APP_URL}/invite/${token}`;
   await sendMail(
     linkMail(input.email, `${actor.name} invited you to ${actor.firmName} on Stochos`, [

@@ -2,7 +2,8 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { useFreshDb } from '../../support/test-db';
 import { resetEnvCache } from '@/lib/server/env';
 import { getDb } from '@/db/knex';
-import { assertMailAllowed, noteMailSent, takeMailAllowance } from '@/lib/server/auth/mail-limits';
+import { mailAllowanceLocks, takeMailAllowance, takeMailAllowanceIn } from '@/lib/server/auth/mail-limits';
+import { writeTransaction } from '@/db/knex';
 import { AppError } from '@/lib/server/http/errors';
 
 // The e-mail limits against a real (temporary) database. Limits are common practice, no source.
@@ -52,13 +53,32 @@ describe('e-mail limits', () => {
   it('frees up as the window moves on', async () => {
     const old = new Date(Date.now() - 2 * 3_600_000).toISOString();
     await getDb()('mail_sends').insert(Array.from({ length: 10 }, () => ({ key: 'mail:sign-in-link:recipient:late@x.example', at: old })));
-    await assertMailAllowed('sign-in-link', { recipient: 'late@x.example' });
+    await takeMailAllowance('sign-in-link', { recipient: 'late@x.example' });
   });
 
   it('invitations per firm: 50 per 24 hours, with the wait in hours', async () => {
-    for (let i = 0; i < 50; i++) await noteMailSent('invitation', { firm: 'firm-1' });
-    const err = await refusal(assertMailAllowed('invitation', { firm: 'firm-1' }));
+    for (let i = 0; i < 50; i++) await takeMailAllowance('invitation', { firm: 'firm-1' });
+    const err = await refusal(takeMailAllowance('invitation', { firm: 'firm-1' }));
     expect(err.message).toMatch(/50 invitations in the last 24 hours.*Try again in 24 hours/);
-    await assertMailAllowed('invitation', { firm: 'firm-2' });
+    await takeMailAllowance('invitation', { firm: 'firm-2' });
+  });
+
+  it('inside a write transaction: counted only when it commits, and concurrent ones cannot overshoot', async () => {
+    const subjects = { firm: 'firm-3' };
+    const locks = mailAllowanceLocks('invitation', subjects);
+    const count = async () => Number((await getDb()('mail_sends').where('key', locks[0]).count({ n: '*' }).first())?.n);
+    // A transaction that fails after taking the allowance (an invitation refused for a seat, say) counts nothing.
+    await expect(
+      writeTransaction(async (trx) => {
+        await takeMailAllowanceIn(trx, 'invitation', subjects);
+        throw new Error('refused later in the transaction');
+      }, { locks }),
+    ).rejects.toThrow('refused later');
+    expect(await count()).toBe(0);
+    await getDb()('mail_sends').insert(Array.from({ length: 47 }, () => ({ key: locks[0], at: new Date().toISOString() })));
+    const tries = Array.from({ length: 6 }, () => writeTransaction((trx) => takeMailAllowanceIn(trx, 'invitation', subjects), { locks }));
+    const settled = await Promise.allSettled(tries);
+    expect(settled.filter((s) => s.status === 'fulfilled')).toHaveLength(3);
+    expect(await count()).toBe(50);
   });
 });
