@@ -460,72 +460,18 @@ export function normalPpmOutside(mean: number, sd: number, lower: number | null,
 export { averageRanks, sortedCopy };
 
 /**
- * Hyndman-Fan type 6 percentiles by selection instead of a full sort (Hoare's quickselect,
- * median-of-three pivots): the levels are found in ascending order, each search limited to
- * the part right of the previous one. Works on a copy; NaN must be removed by the caller.
- * Returns exactly what percentileSorted gives on the sorted data.
+ * Hyndman-Fan type 6 percentiles by selection instead of a full sort: the two order
+ * statistics each level reads are found by bucket selection (select.ts: a pass for the
+ * range, one for the bucket counts, one gathering the few buckets that hold a wanted rank),
+ * for every level at once. NaN must be removed by the caller. Returns exactly what
+ * percentileSorted gives on the sorted data (-0 before +0, as sortedCopy orders them).
  */
 export function percentilesBySelection(values: Float64Array, levels: number[]): number[] {
   const n = values.length;
   if (n === 0) return levels.map(() => NaN);
-  const a = Float64Array.from(values);
-  const order = levels.map((p, i) => ({ p, i })).sort((x, y) => x.p - y.p);
-  const out = new Array<number>(levels.length);
-  let lo = 0;
-  for (const { p, i } of order) {
-    const h = p * (n + 1);
-    if (h <= 1) {
-      out[i] = minOf(a, lo, n);
-      continue;
-    }
-    if (h >= n) {
-      out[i] = selectKth(a, n - 1, lo, n - 1);
-      continue;
-    }
-    const j = Math.floor(h);
-    const g = h - j;
-    const x = selectKth(a, j - 1, lo, n - 1);
-    lo = j - 1;
-    out[i] = g === 0 ? x : x + g * (minOf(a, j, n) - x);
-  }
-  return out;
+  const wanted = [...new Set(levels.flatMap((p) => percentileReads(n, p)))];
+  const found = orderStatistics(values, wanted);
+  const byRank = new Map<number, number>();
+  wanted.forEach((r, i) => byRank.set(r, found[i]));
+  return levels.map((p) => percentileAt(n, p, (r) => byRank.get(r) as number));
 }
-
-function minOf(a: Float64Array, from: number, to: number): number {
-  let m = a[from];
-  for (let k = from + 1; k < to; k++) if (a[k] < m) m = a[k];
-  return m;
-}
-
-/**
- * Put the k-th smallest of a[lo..hi] at index k (everything left of it no larger, right no
- * smaller). Three-way partition (Dijkstra's Dutch national flag), so runs of equal values
- * (a discrete output) cost one pass instead of degrading to quadratic time.
- */
-function selectKth(a: Float64Array, k: number, lo: number, hi: number): number {
-  while (hi > lo) {
-    const mid = (lo + hi) >>> 1;
-    const x = a[lo];
-    const y = a[mid];
-    const z = a[hi];
-    const pivot = x < y ? (y < z ? y : x < z ? z : x) : x < z ? x : y < z ? z : y;
-    let lt = lo;
-    let i = lo;
-    let gt = hi;
-    while (i <= gt) {
-      const v = a[i];
-      if (v < pivot) {
-        a[i++] = a[lt];
-        a[lt++] = v;
-      } else if (v > pivot) {
-        a[i] = a[gt];
-        a[gt--] = v;
-      } else i++;
-    }
-    if (k < lt) hi = lt - 1;
-    else if (k > gt) lo = gt + 1;
-    else return pivot;
-  }
-  return a[k];
-}
-

@@ -151,11 +151,21 @@ describe('percentiles by selection', () => {
       new Float64Array(20_000).fill(2.5),
       Float64Array.from([3, 1, 2]),
       Float64Array.from([7]),
+      Float64Array.from([4, -1]),
+      // A heavy right tail: most values in the first few buckets of the range.
+      Float64Array.from({ length: 200_000 }, () => Math.exp(8 * s.uniform() ** 4)),
+      // Zeros of both signs around the wanted ranks, and infinite values.
+      Float64Array.from({ length: 1_001 }, (_, i) => (i % 3 === 0 ? -0 : i % 3 === 1 ? 0 : i % 7 === 0 ? -1 : 1)),
+      Float64Array.from({ length: 999 }, (_, i) => (i % 2 ? -0 : 0)),
+      Float64Array.from({ length: 5_000 }, (_, i) => (i === 17 ? Infinity : i === 3 ? -Infinity : s.uniform())),
     ];
     const levels = [0.95, 0.01, 0.5, 0.05, 0.999, 0.25, 0.0001];
     for (const x of cases) {
       const sorted = Float64Array.from(x).sort();
-      expect(percentilesBySelection(x, levels)).toEqual(levels.map((p) => percentileSorted(sorted, p)));
+      const got = percentilesBySelection(x, levels);
+      const want = levels.map((p) => percentileSorted(sorted, p));
+      // Object.is per level: -0 and +0 differ, NaN equals NaN.
+      got.forEach((v, i) => expect(Object.is(v, want[i]), `n ${x.length}, level ${levels[i]}: ${v} vs ${want[i]}`).toBe(true));
     }
   });
 });
