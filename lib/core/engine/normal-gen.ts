@@ -135,8 +135,8 @@ export class ZigguratGenerator implements NormalGenerator {
         const u = buf[pos++];
         const i = u & 255;
         const j = u >>> 9;
-        const xv = j * ZW[i];
-        const x = u & 256 ? -xv : xv;
+        // Times +1 or -1 from bit 8: exactly u & 256 ? -xv : xv, without a branch that fails half the time.
+        const x = j * ZW[i] * (1 - ((u >>> 7) & 2));
         if (j < ZK[i]) {
           out[k] = x;
         } else {
