@@ -24,7 +24,7 @@ import { argsort, sortedCopy } from './sort';
 import * as special from './special';
 import { correlationMatrix, pearson, RankCache } from './stats';
 import * as detMath from './det-math';
-import { wasmKernels, workspace, type Kernels } from './wasm-kernels';
+import { LAYOUT, wasmKernels, workspace, type Kernels } from './wasm-kernels';
 
 // Bound once (see det-math): hot loops call these per sample.
 const { normalCdfPair, normalCdfPairUpper, normalQuantilePQ } = special;
@@ -86,7 +86,7 @@ export class CopulaGroupSampler {
     for (const row of this.rows) {
       this.coefTable.set(row.cs, row.first);
       // Layout of the kernels' memory (fillWasm): the accumulator block, then score block j.
-      row.js.forEach((j, g) => (this.offTable[row.first + g] = (1 + j) * BLOCK_BYTES));
+      row.js.forEach((j, g) => (this.offTable[row.first + g] = LAYOUT.scratch + (1 + j) * BLOCK_BYTES));
     }
     this.scores = streamIds.map((id) => scoreSourceFor(ctx, id));
     this.z = marginals.map(() => new Float64Array(BLOCK));
@@ -107,14 +107,15 @@ export class CopulaGroupSampler {
   }
 
   private fillWasm(k: Kernels, columns: (Float64Array | null)[], start: number, count: number): void {
-    // Memory: accumulator, one score block per member, coefficients (f64), their blocks' addresses (i32).
+    // Workspace: accumulator, one score block per member, coefficients (f64), their blocks' addresses (i32).
     const members = this.z.length;
     const terms = this.coefTable.length;
-    const coefAt = (1 + members) * BLOCK_BYTES;
+    const at = LAYOUT.scratch;
+    const coefAt = at + (1 + members) * BLOCK_BYTES;
     const offAt = coefAt + 8 * terms;
-    const buf = workspace(k, offAt + 4 * terms);
-    const acc = new Float64Array(buf, 0, BLOCK);
-    const Z = this.z.map((_, j) => new Float64Array(buf, (1 + j) * BLOCK_BYTES, BLOCK));
+    const buf = workspace(k, offAt + 4 * terms - at);
+    const acc = new Float64Array(buf, at, BLOCK);
+    const Z = this.z.map((_, j) => new Float64Array(buf, at + (1 + j) * BLOCK_BYTES, BLOCK));
     new Float64Array(buf, coefAt, terms).set(this.coefTable);
     new Int32Array(buf, offAt, terms).set(this.offTable);
     const qb = this.q;
@@ -126,7 +127,7 @@ export class CopulaGroupSampler {
         const out = columns[i];
         if (!out) continue;
         const row = this.rows[i];
-        k.affine(0, row.a, coefAt + 8 * row.first, offAt + 4 * row.first, row.js.length, c);
+        k.affine(at, row.a, coefAt + 8 * row.first, offAt + 4 * row.first, row.js.length, c);
         this.finish(row, acc, qb, out, base, c);
       }
     }

@@ -96,4 +96,76 @@
         (v128.store offset=48 (local.get $p) (local.get $v3))
         (local.set $t (i32.add (local.get $t) (i32.const 64)))
         (br $trials))))
+
+  ;; Brent's xor4096 recurrence as seedrandom 3.0.5 steps it (rng.ts, xorgenFill), four steps
+  ;; per i32x4 operation. With the state laid out in time order, L[0..128) oldest first, step k
+  ;; computes L[128 + k] from L[k] and L[k + 33] (written 128 and 95 steps before), so four
+  ;; consecutive steps never depend on each other. out[k] = L[128 + k] + (w_k ^ (w_k >>> 16))
+  ;; with the Weyl sequence w_k = w + (k + 1) 0x61c88647. n is a multiple of 8.
+  (func (export "xorgen") (param $state i32) (param $out i32) (param $n i32) (param $w i32)
+    (local $k i32) (local $p i32) (local $q i32)
+    (local $v v128) (local $t v128) (local $wv v128) (local $step v128)
+    (local $v2 v128) (local $t2 v128) (local $wv2 v128)
+    ;; w_1 .. w_4, and the step of four.
+    (local.set $wv
+      (i32x4.add (i32x4.splat (local.get $w)) (v128.const i32x4 0x61c88647 0xc3910c8e 0x255992d5 0x8722191c)))
+    (local.set $step (i32x4.splat (i32.const 0x8722191c)))
+    (block $done
+      (loop $steps
+        (br_if $done (i32.ge_u (local.get $k) (local.get $n)))
+        (local.set $p (i32.add (local.get $state) (i32.shl (local.get $k) (i32.const 2))))
+        (local.set $q (i32.add (local.get $out) (i32.shl (local.get $k) (i32.const 2))))
+        (local.set $wv2 (i32x4.add (local.get $wv) (local.get $step)))
+        ;; v = L[k + 33], t = L[k]; v ^= v << 13; t ^= t << 17; v ^= v >>> 15; t ^= t >>> 12; v ^= t
+        (local.set $v (v128.load offset=132 (local.get $p)))
+        (local.set $t (v128.load (local.get $p)))
+        (local.set $v2 (v128.load offset=148 (local.get $p)))
+        (local.set $t2 (v128.load offset=16 (local.get $p)))
+        (local.set $v (v128.xor (local.get $v) (i32x4.shl (local.get $v) (i32.const 13))))
+        (local.set $v2 (v128.xor (local.get $v2) (i32x4.shl (local.get $v2) (i32.const 13))))
+        (local.set $t (v128.xor (local.get $t) (i32x4.shl (local.get $t) (i32.const 17))))
+        (local.set $t2 (v128.xor (local.get $t2) (i32x4.shl (local.get $t2) (i32.const 17))))
+        (local.set $v (v128.xor (local.get $v) (i32x4.shr_u (local.get $v) (i32.const 15))))
+        (local.set $v2 (v128.xor (local.get $v2) (i32x4.shr_u (local.get $v2) (i32.const 15))))
+        (local.set $t (v128.xor (local.get $t) (i32x4.shr_u (local.get $t) (i32.const 12))))
+        (local.set $t2 (v128.xor (local.get $t2) (i32x4.shr_u (local.get $t2) (i32.const 12))))
+        (local.set $v (v128.xor (local.get $v) (local.get $t)))
+        (local.set $v2 (v128.xor (local.get $v2) (local.get $t2)))
+        (v128.store offset=512 (local.get $p) (local.get $v))
+        (v128.store offset=528 (local.get $p) (local.get $v2))
+        (v128.store (local.get $q)
+          (i32x4.add (local.get $v) (v128.xor (local.get $wv) (i32x4.shr_u (local.get $wv) (i32.const 16)))))
+        (v128.store offset=16 (local.get $q)
+          (i32x4.add (local.get $v2) (v128.xor (local.get $wv2) (i32x4.shr_u (local.get $wv2) (i32.const 16)))))
+        (local.set $wv (i32x4.add (local.get $wv2) (local.get $step)))
+        (local.set $k (i32.add (local.get $k) (i32.const 8)))
+        (br $steps))))
+
+  ;; The ziggurat's fast path (normal-gen.ts, ZigguratGenerator.fill) over n buffered 32-bit
+  ;; draws u: layer i = u & 255, position j = u >>> 9, x = j w[i] with the sign of bit 8
+  ;; (flipping the sign bit is exact negation); accepted while j < k[i]. Writes the accepted
+  ;; values to out and returns how many draws were accepted before the first that was not
+  ;; (n when all were): the caller takes that draw through the slow path in JavaScript.
+  (func (export "zigguratFast") (param $ints i32) (param $n i32) (param $out i32) (param $tw i32) (param $tk i32) (result i32)
+    (local $k i32) (local $u i32) (local $i i32) (local $j i32)
+    (block $done
+      (loop $draws
+        (br_if $done (i32.ge_u (local.get $k) (local.get $n)))
+        (local.set $u (i32.load (i32.add (local.get $ints) (i32.shl (local.get $k) (i32.const 2)))))
+        (local.set $i (i32.and (local.get $u) (i32.const 255)))
+        (local.set $j (i32.shr_u (local.get $u) (i32.const 9)))
+        (br_if $done
+          (i32.ge_u (local.get $j) (i32.load (i32.add (local.get $tk) (i32.shl (local.get $i) (i32.const 2))))))
+        (f64.store
+          (i32.add (local.get $out) (i32.shl (local.get $k) (i32.const 3)))
+          (f64.reinterpret_i64
+            (i64.xor
+              (i64.reinterpret_f64
+                (f64.mul
+                  (f64.convert_i32_u (local.get $j))
+                  (f64.load (i32.add (local.get $tw) (i32.shl (local.get $i) (i32.const 3))))))
+              (i64.shl (i64.extend_i32_u (i32.and (local.get $u) (i32.const 256))) (i64.const 55)))))
+        (local.set $k (i32.add (local.get $k) (i32.const 1)))
+        (br $draws)))
+    (local.get $k))
 )

@@ -5,6 +5,7 @@ import xor4096 from 'seedrandom/lib/xor4096';
 import { exp, ln } from '@/lib/core/engine/det-math';
 import { Stream, streamKey, uniformOpen, uniformOpenClosed } from '@/lib/core/engine/rng';
 import { normalSf } from '@/lib/core/engine/special';
+import { setWasmKernels } from '@/lib/core/engine/wasm-kernels';
 import { ksCritical001, ksStatistic, mean, variance } from '@/tests/support/engine-helpers';
 
 describe('Box-Muller (Box & Muller 1958)', () => {
@@ -101,7 +102,11 @@ function referenceZiggurat(key: string, n: number): { values: Float64Array; wedg
 }
 
 describe('ziggurat (Marsaglia & Tsang 2000)', () => {
-  it('draws exactly the sequence of the one-at-a-time ziggurat over seedrandom xor4096, in any fill sizes', () => {
+  it.each([
+    ['the wasm kernel', [true]],
+    ['JavaScript', [false]],
+    ['both, alternating between fills', [true, false, false, true]],
+  ] as const)('draws exactly the sequence of the one-at-a-time ziggurat over seedrandom xor4096 (%s), in any fill sizes', (_, kernels) => {
     const n = 300_000;
     const ref = referenceZiggurat(streamKey('zig', 'pin'), n);
     // Both slow paths are exercised (about 1 % of draws leave the fast path).
@@ -110,11 +115,17 @@ describe('ziggurat (Marsaglia & Tsang 2000)', () => {
     const out = new Float64Array(n);
     const gen = new ZigguratGenerator(Stream.forInput('zig', 'pin'));
     let k = 0;
-    for (const size of [1, 7, 1023, 1024, 1025, 4096, 100_000]) {
-      gen.fill(out, k, size);
-      k += size;
+    try {
+      [1, 7, 1023, 1024, 1025, 4096, 100_000, n].forEach((size, i) => {
+        setWasmKernels(kernels[i % kernels.length]);
+        const c = Math.min(size, n - k);
+        gen.fill(out, k, c);
+        k += c;
+      });
+    } finally {
+      setWasmKernels(true);
     }
-    gen.fill(out, k, n - k);
+    expect(k).toBe(n);
     let same = 0;
     for (let i = 0; i < n; i++) if (Object.is(out[i], ref.values[i])) same++;
     expect(same).toBe(n);
