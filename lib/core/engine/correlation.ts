@@ -24,13 +24,15 @@ import { argsort, sortedCopy } from './sort';
 import * as special from './special';
 import { correlationMatrix, pearson, RankCache } from './stats';
 import * as detMath from './det-math';
-import { LAYOUT, wasmKernels, workspace, type Kernels } from './wasm-kernels';
+import * as wasm from './wasm-kernels';
+import type { Kernels } from './wasm-kernels';
 
 // Bound once (see det-math): hot loops call these per sample.
 const { normalCdfPair, normalCdfPairUpper, normalQuantilePQ } = special;
 
 // Bound once: module interop in some runtimes turns each imported call into a getter call.
 const { asin, exp, sin } = detMath;
+const { LAYOUT, wasmKernels, workspace } = wasm;
 
 /** Trials per block: a multiple of 8, as the wasm kernel computes eight trials per pass. */
 const BLOCK = 1024;

@@ -14,10 +14,12 @@
 import { Stream, uniformOpenClosed } from './rng';
 import { normalSf } from './special';
 import * as detMath from './det-math';
-import { heldDraws, LAYOUT, wasmKernels, type Kernels } from './wasm-kernels';
+import * as wasm from './wasm-kernels';
+import type { Kernels } from './wasm-kernels';
 
 // Bound once: module interop in some runtimes turns each imported call into a getter call.
 const { cosSin2Pi, exp, lastSin2Pi, ln } = detMath;
+const { heldDraws, LAYOUT, wasmKernels } = wasm;
 
 export type NormalMethod = 'box-muller' | 'ziggurat';
 

@@ -13,7 +13,11 @@
  * bit-for-bit the one seedrandom's own prng.int32() yields.
  */
 import xor4096 from 'seedrandom/lib/xor4096';
-import { heldDraws, LAYOUT, wasmKernels, type Kernels } from './wasm-kernels';
+import * as wasm from './wasm-kernels';
+import type { Kernels } from './wasm-kernels';
+
+// Bound once: module interop in some runtimes turns each imported name into a getter call.
+const { heldDraws, LAYOUT, wasmKernels } = wasm;
 
 export const RNG_NAME = 'xor4096 (seedrandom 3.0.5), one sub-stream per input and chunk';
 
