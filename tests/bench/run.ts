@@ -29,6 +29,8 @@ import { percentilesBySelection, RankStore } from '@/lib/core/engine/stats';
 import { createNodeEnginePool } from '@/tests/support/node-engine-pool';
 
 const json = process.argv.includes('--json');
+/** `--r1`: only the R1 rows that compare with NumPy (parallel, single, NumPy), for quick iterations. */
+const onlyR1 = process.argv.includes('--r1');
 const REPEATS = 5;
 
 function median(xs: number[]): number {
@@ -90,7 +92,7 @@ const distCases: [string, DistributionSpec, Partial<SamplerContext>][] = [
 ];
 
 const draws: { distribution: string; drawsPerSecond: number }[] = [];
-for (const [name, spec, ctx] of distCases) {
+for (const [name, spec, ctx] of onlyR1 ? [] : distCases) {
   const out = new Float64Array(DRAWS);
   const full: SamplerContext = { seed: 'bench', design: 'monte-carlo', normalMethod: 'box-muller', trials: DRAWS, ...ctx };
   const m = createMarginal(spec);
@@ -199,6 +201,22 @@ const cores = os.cpus().length;
 const parallel = await r1Parallel(r1Model('ziggurat'), cores);
 const single = r1Core(r1Model('ziggurat'));
 const numpy = numpyR1();
+const fmt = (x: number, d = 1) => x.toFixed(d).padStart(9);
+const row = (name: string, f: R1Figures) => console.log(name.padEnd(56) + fmt(f.ms, 0) + fmt(f.cpuMs, 0) + fmt(f.mean, 3) + fmt(f.p5, 3) + fmt(f.p50, 3) + fmt(f.p95, 3));
+const r1Rows = () => {
+  console.log('\nR1: 10 correlated normals, sum, 1,000,000 trials'.padEnd(57) + ' wall ms   CPU ms     mean       P5      P50      P95');
+  row(`  parallel, ziggurat, ${parallel.workers} worker threads`, parallel);
+  row('  single thread, ziggurat', single);
+  if (numpy) row(`  NumPy ${numpy.numpy} (r1-numpy.py, same load)`, numpy);
+  else console.log('  NumPy: python3 with numpy not found, reference not run');
+  if (numpy) console.log(`  ratio to NumPy: parallel ${(parallel.ms / numpy.ms).toFixed(2)}, single ${(single.ms / numpy.ms).toFixed(2)} (wall)`);
+};
+if (onlyR1) {
+  console.log(`Stochos engine benchmark, R1 only (Node ${process.version}, median of ${REPEATS} after a warm-up; load average ${os.loadavg().map((x) => x.toFixed(1)).join(' ')} on ${cores} cores)`);
+  r1Rows();
+  if (json) console.log(JSON.stringify({ node: process.version, repeats: REPEATS, load: os.loadavg(), cores, r1: { parallel, single, numpy, ratioParallel: numpy ? parallel.ms / numpy.ms : null, ratioSingle: numpy ? single.ms / numpy.ms : null } }));
+  return;
+}
 const r1 = {
   parallel,
   single,
@@ -271,18 +289,11 @@ const r3fresh = time(() => runModelSync(r3Model, { dialValues: { part2: 5.03 } }
 const r3 = { ms: r3run.ms, cpuMs: r3run.cpuMs, freshMs: r3fresh.ms, trials: 50_000, ppmObserved: r3run.value.outputs[0].limits!.ppmObserved };
 
 // ---- Output ---------------------------------------------------------------------------------
-const fmt = (x: number, d = 1) => x.toFixed(d).padStart(9);
 if (!json || process.argv.includes('--table')) {
   console.log(`Stochos engine benchmark (Node ${process.version}, median of ${REPEATS} after a warm-up; load average ${os.loadavg().map((x) => x.toFixed(1)).join(' ')} on ${os.cpus().length} cores)\n`);
   console.log('Draws per second (per CPU second)'.padEnd(56) + 'M draws/s');
   for (const d of draws) console.log(d.distribution.padEnd(56) + fmt(d.drawsPerSecond / 1e6));
-  console.log('\nR1: 10 correlated normals, sum, 1,000,000 trials'.padEnd(57) + ' wall ms   CPU ms     mean       P5      P50      P95');
-  const row = (name: string, f: R1Figures) => console.log(name.padEnd(56) + fmt(f.ms, 0) + fmt(f.cpuMs, 0) + fmt(f.mean, 3) + fmt(f.p5, 3) + fmt(f.p50, 3) + fmt(f.p95, 3));
-  row(`  parallel, ziggurat, ${r1.parallel.workers} worker threads`, r1.parallel);
-  row('  single thread, ziggurat', r1.single);
-  if (r1.numpy) row(`  NumPy ${r1.numpy.numpy} (r1-numpy.py, same load)`, r1.numpy);
-  else console.log('  NumPy: python3 with numpy not found, reference not run');
-  if (r1.ratioParallel !== null) console.log(`  ratio to NumPy: parallel ${r1.ratioParallel.toFixed(2)}, single ${r1.ratioSingle!.toFixed(2)} (wall)`);
+  r1Rows();
   row('  single thread, Box-Muller', r1.coreBoxMuller);
   row('  full report, ziggurat, one thread', r1.fullZiggurat);
   row(`  full report, ziggurat, ${r1.parallel.workers} worker threads`, r1.fullParallelZiggurat);

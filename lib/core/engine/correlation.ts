@@ -24,34 +24,50 @@ import { argsort, sortedCopy } from './sort';
 import * as special from './special';
 import { correlationMatrix, pearson, RankCache } from './stats';
 import * as detMath from './det-math';
+import * as wasm from './wasm-kernels';
+import type { Kernels } from './wasm-kernels';
 
 // Bound once (see det-math): hot loops call these per sample.
 const { normalCdfPair, normalCdfPairUpper, normalQuantilePQ } = special;
 
 // Bound once: module interop in some runtimes turns each imported call into a getter call.
 const { asin, exp, sin } = detMath;
+const { LAYOUT, wasmKernels, workspace } = wasm;
 
+/** Trials per block: a multiple of 8, as the wasm kernel computes eight trials per pass. */
 const BLOCK = 1024;
+const BLOCK_BYTES = BLOCK * 8;
 
 interface CopulaRow {
   /** Constant term and the nonzero coefficients of the member's score in the z_j. */
   a: number;
   js: Int32Array;
   cs: Float64Array;
+  /** First coefficient of this row in the sampler's flat tables. */
+  first: number;
   mode: 'normal' | 'lognormal' | 'inverse';
   marginal: Marginal;
 }
 
+/**
+ * The product X = a + S z runs in the wasm SIMD kernel (kernels.wat) when the thread has
+ * it, else in the JavaScript loop of fillJs; both do the same operations in the same order
+ * per trial (tests/unit/engine/wasm-kernels.test.ts), so results never depend on which ran.
+ */
 export class CopulaGroupSampler {
   private readonly rows: CopulaRow[];
   private readonly scores: ScoreSource[];
   private readonly z: Float64Array[];
   private readonly acc = new Float64Array(BLOCK);
   private readonly q = new Float64Array(BLOCK);
+  /** Every row's coefficients, and the byte address of each one's score block in the kernels' memory. */
+  private readonly coefTable: Float64Array;
+  private readonly offTable: Int32Array;
 
   /** root: the symmetric square root of matrix when the caller has it (one decomposition per run, not per chunk). */
   constructor(marginals: Marginal[], matrix: number[][], ctx: SamplerContext, streamIds: string[], root: number[][] = linalgPart().symmetricSqrt(matrix)) {
     // A normal member's value is mu + sigma (S z), so sigma folds into its row of S.
+    let first = 0;
     this.rows = marginals.map((m, i) => {
       const aff = m.affine;
       const scale = aff ? aff.b : 1;
@@ -63,8 +79,17 @@ export class CopulaGroupSampler {
           cs.push(scale * v);
         }
       });
-      return { a: aff ? aff.a : 0, js: Int32Array.from(js), cs: Float64Array.from(cs), mode: aff ? (aff.log ? 'lognormal' : 'normal') : 'inverse', marginal: m };
+      const row: CopulaRow = { a: aff ? aff.a : 0, js: Int32Array.from(js), cs: Float64Array.from(cs), first, mode: aff ? (aff.log ? 'lognormal' : 'normal') : 'inverse', marginal: m };
+      first += js.length;
+      return row;
     });
+    this.coefTable = new Float64Array(first);
+    this.offTable = new Int32Array(first);
+    for (const row of this.rows) {
+      this.coefTable.set(row.cs, row.first);
+      // Layout of the kernels' memory (fillWasm): the accumulator block, then score block j.
+      row.js.forEach((j, g) => (this.offTable[row.first + g] = LAYOUT.scratch + (1 + j) * BLOCK_BYTES));
+    }
     this.scores = streamIds.map((id) => scoreSourceFor(ctx, id));
     this.z = marginals.map(() => new Float64Array(BLOCK));
   }
@@ -78,6 +103,40 @@ export class CopulaGroupSampler {
    * scores are still drawn, so the other members get exactly the values they would).
    */
   fill(columns: (Float64Array | null)[], start: number, count: number): void {
+    const k = wasmKernels();
+    if (k) this.fillWasm(k, columns, start, count);
+    else this.fillJs(columns, start, count);
+  }
+
+  private fillWasm(k: Kernels, columns: (Float64Array | null)[], start: number, count: number): void {
+    // Workspace: accumulator, one score block per member, coefficients (f64), their blocks' addresses (i32).
+    const members = this.z.length;
+    const terms = this.coefTable.length;
+    const at = LAYOUT.scratch;
+    const coefAt = at + (1 + members) * BLOCK_BYTES;
+    const offAt = coefAt + 8 * terms;
+    const buf = workspace(k, offAt + 4 * terms - at);
+    const acc = new Float64Array(buf, at, BLOCK);
+    const Z = this.z.map((_, j) => new Float64Array(buf, at + (1 + j) * BLOCK_BYTES, BLOCK));
+    new Float64Array(buf, coefAt, terms).set(this.coefTable);
+    new Int32Array(buf, offAt, terms).set(this.offTable);
+    const qb = this.q;
+    for (let s = 0; s < count; s += BLOCK) {
+      const c = Math.min(BLOCK, count - s);
+      const base = start + s;
+      for (let j = 0; j < members; j++) this.scores[j].fill(Z[j], 0, c);
+      for (let i = 0; i < this.rows.length; i++) {
+        const out = columns[i];
+        if (!out) continue;
+        const row = this.rows[i];
+        k.affine(at, row.a, coefAt + 8 * row.first, offAt + 4 * row.first, row.js.length, c);
+        this.finish(row, acc, qb, out, base, c);
+      }
+    }
+  }
+
+  /** The same product in JavaScript (no WebAssembly on this thread). */
+  private fillJs(columns: (Float64Array | null)[], start: number, count: number): void {
     const accBuf = this.acc;
     const qb = this.q;
     const Z = this.z;
@@ -94,7 +153,7 @@ export class CopulaGroupSampler {
         const direct = row.mode === 'normal';
         const acc = direct ? out.subarray(base, base + c) : accBuf;
         acc.fill(row.a, 0, c);
-        // Sum of coefficient * score, four scores per pass, in a fixed order.
+        // Sum of coefficient * score, four scores per pass, in a fixed order (kernels.wat does the same).
         let g = 0;
         for (; g + 3 < js.length; g += 4) {
           const z0 = Z[js[g]];
@@ -112,19 +171,24 @@ export class CopulaGroupSampler {
           const c0 = cs[g];
           for (let t = 0; t < c; t++) acc[t] += c0 * z0[t];
         }
-        if (direct) {
-          // Already in place.
-        } else if (row.mode === 'lognormal') {
-          for (let t = 0; t < c; t++) out[base + t] = exp(acc[t]);
-        } else {
-          for (let t = 0; t < c; t++) {
-            acc[t] = normalCdfPair(acc[t]);
-            qb[t] = normalCdfPairUpper();
-          }
-          fillInverse(row.marginal, acc, qb, acc, 0, c);
-          out.set(acc.subarray(0, c), base);
-        }
+        if (!direct) this.finish(row, acc, qb, out, base, c);
       }
+    }
+  }
+
+  /** Map the member's scores in acc[0, c) through its marginal into out[base, base + c). */
+  private finish(row: CopulaRow, acc: Float64Array, qb: Float64Array, out: Float64Array, base: number, c: number): void {
+    if (row.mode === 'normal') {
+      out.set(acc.subarray(0, c), base);
+    } else if (row.mode === 'lognormal') {
+      for (let t = 0; t < c; t++) out[base + t] = exp(acc[t]);
+    } else {
+      for (let t = 0; t < c; t++) {
+        acc[t] = normalCdfPair(acc[t]);
+        qb[t] = normalCdfPairUpper();
+      }
+      fillInverse(row.marginal, acc, qb, acc, 0, c);
+      out.set(acc.subarray(0, c), base);
     }
   }
 }

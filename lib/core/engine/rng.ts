@@ -13,6 +13,11 @@
  * bit-for-bit the one seedrandom's own prng.int32() yields.
  */
 import xor4096 from 'seedrandom/lib/xor4096';
+import * as wasm from './wasm-kernels';
+import type { Kernels } from './wasm-kernels';
+
+// Bound once: module interop in some runtimes turns each imported name into a getter call.
+const { heldDraws, LAYOUT, wasmKernels } = wasm;
 
 export const RNG_NAME = 'xor4096 (seedrandom 3.0.5), one sub-stream per input and chunk';
 
@@ -64,6 +69,31 @@ function xorgenFill(X: Int32Array, out: Int32Array, st: { i: number; w: number }
   st.w = w;
 }
 
+const WEYL = 0x61c88647;
+
+/** Views of the kernels' xor4096 regions, remade when the memory grows (a new buffer). */
+let rngViews: { buffer: ArrayBuffer; state: Int32Array; out: Int32Array } | null = null;
+
+/**
+ * The same refill by the wasm SIMD kernel (kernels.wat, xorgen): the ring is laid out in
+ * time order, stepped, and taken back in time order, which is the ring with position 127.
+ */
+function xorgenKernel(k: Kernels, X: Int32Array, buf: Int32Array, st: { i: number; w: number }): void {
+  const mem = k.memory.buffer;
+  if (!rngViews || rngViews.buffer !== mem) {
+    rngViews = { buffer: mem, state: new Int32Array(mem, LAYOUT.rngState, 128 + buf.length), out: new Int32Array(mem, LAYOUT.rngOut, buf.length) };
+  }
+  const { state, out } = rngViews;
+  const i = st.i;
+  state.set(X.subarray(i + 1), 0);
+  state.set(X.subarray(0, i + 1), 127 - i);
+  k.xorgen(LAYOUT.rngState, LAYOUT.rngOut, buf.length, st.w);
+  X.set(state.subarray(buf.length, buf.length + 128));
+  st.i = 127;
+  st.w = (st.w + Math.imul(buf.length, WEYL)) | 0;
+  buf.set(out);
+}
+
 export class Stream {
   private readonly X: Int32Array;
   /** Generator position and Weyl state (read and written by xorgenFill). */
@@ -75,6 +105,8 @@ export class Stream {
    */
   readonly buf: Int32Array;
   pos: number;
+  /** Number of refills so far (tells the ziggurat kernel whether the kernels' copy of buf is current). */
+  stamp = 0;
 
   constructor(key: string) {
     const st = xor4096(key, { state: true }).state();
@@ -89,9 +121,16 @@ export class Stream {
     return new Stream(streamKey(seed, id, purpose, chunk));
   }
 
-  /** Refill the buffer: the xor4096 recurrence, exactly as seedrandom's next(). */
+  /** Refill the buffer: the xor4096 recurrence, exactly as seedrandom's next() (in the wasm kernel when there is one). */
   refill(): void {
-    xorgenFill(this.X, this.buf, this);
+    const k = wasmKernels();
+    this.stamp++;
+    if (k) {
+      xorgenKernel(k, this.X, this.buf, this);
+      // The kernels' output region now holds this buffer.
+      heldDraws.owner = this;
+      heldDraws.stamp = this.stamp;
+    } else xorgenFill(this.X, this.buf, this);
     this.pos = 0;
   }
 

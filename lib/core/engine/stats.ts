@@ -47,20 +47,54 @@ export function welford(values: Float64Array): { n: number; mean: number; varian
 
 /**
  * Count, mean and sum of squared deviations by the corrected two-pass formula (Chan, Golub & LeVeque 1983): the
- * second pass removes the rounding left in the mean; no division per element.
+ * second pass removes the rounding left in the mean; no division per element. Each sum runs in four partial
+ * sums (element k goes to sum k mod 4, the last n mod 4 elements to the first), combined as (s0 + s1) + (s2 + s3):
+ * a fixed order, so the same on every engine, and four independent additions per step instead of a chain.
  */
 export function twoPassMoments(values: Float64Array): { n: number; mean: number; m2: number } {
   const n = values.length;
-  let s = 0;
-  for (let k = 0; k < n; k++) s += values[k];
-  const mean = s / n;
-  let ss = 0;
-  let comp = 0;
-  for (let k = 0; k < n; k++) {
-    const d = values[k] - mean;
-    ss += d * d;
-    comp += d;
+  const n4 = n - (n & 3);
+  let s0 = 0;
+  let s1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  for (let k = 0; k < n4; k += 4) {
+    s0 += values[k];
+    s1 += values[k + 1];
+    s2 += values[k + 2];
+    s3 += values[k + 3];
   }
+  for (let k = n4; k < n; k++) s0 += values[k];
+  const mean = (s0 + s1 + (s2 + s3)) / n;
+  let q0 = 0;
+  let q1 = 0;
+  let q2 = 0;
+  let q3 = 0;
+  let c0 = 0;
+  let c1 = 0;
+  let c2 = 0;
+  let c3 = 0;
+  for (let k = 0; k < n4; k += 4) {
+    const d0 = values[k] - mean;
+    const d1 = values[k + 1] - mean;
+    const d2 = values[k + 2] - mean;
+    const d3 = values[k + 3] - mean;
+    q0 += d0 * d0;
+    q1 += d1 * d1;
+    q2 += d2 * d2;
+    q3 += d3 * d3;
+    c0 += d0;
+    c1 += d1;
+    c2 += d2;
+    c3 += d3;
+  }
+  for (let k = n4; k < n; k++) {
+    const d = values[k] - mean;
+    q0 += d * d;
+    c0 += d;
+  }
+  const ss = q0 + q1 + (q2 + q3);
+  const comp = c0 + c1 + (c2 + c3);
   return { n, mean, m2: ss - (comp * comp) / n };
 }
 
@@ -460,72 +494,18 @@ export function normalPpmOutside(mean: number, sd: number, lower: number | null,
 export { averageRanks, sortedCopy };
 
 /**
- * Hyndman-Fan type 6 percentiles by selection instead of a full sort (Hoare's quickselect,
- * median-of-three pivots): the levels are found in ascending order, each search limited to
- * the part right of the previous one. Works on a copy; NaN must be removed by the caller.
- * Returns exactly what percentileSorted gives on the sorted data.
+ * Hyndman-Fan type 6 percentiles by selection instead of a full sort: the two order
+ * statistics each level reads are found by bucket selection (select.ts: a pass for the
+ * range, one for the bucket counts, one gathering the few buckets that hold a wanted rank),
+ * for every level at once. NaN must be removed by the caller. Returns exactly what
+ * percentileSorted gives on the sorted data (-0 before +0, as sortedCopy orders them).
  */
 export function percentilesBySelection(values: Float64Array, levels: number[]): number[] {
   const n = values.length;
   if (n === 0) return levels.map(() => NaN);
-  const a = Float64Array.from(values);
-  const order = levels.map((p, i) => ({ p, i })).sort((x, y) => x.p - y.p);
-  const out = new Array<number>(levels.length);
-  let lo = 0;
-  for (const { p, i } of order) {
-    const h = p * (n + 1);
-    if (h <= 1) {
-      out[i] = minOf(a, lo, n);
-      continue;
-    }
-    if (h >= n) {
-      out[i] = selectKth(a, n - 1, lo, n - 1);
-      continue;
-    }
-    const j = Math.floor(h);
-    const g = h - j;
-    const x = selectKth(a, j - 1, lo, n - 1);
-    lo = j - 1;
-    out[i] = g === 0 ? x : x + g * (minOf(a, j, n) - x);
-  }
-  return out;
+  const wanted = [...new Set(levels.flatMap((p) => percentileReads(n, p)))];
+  const found = orderStatistics(values, wanted);
+  const byRank = new Map<number, number>();
+  wanted.forEach((r, i) => byRank.set(r, found[i]));
+  return levels.map((p) => percentileAt(n, p, (r) => byRank.get(r) as number));
 }
-
-function minOf(a: Float64Array, from: number, to: number): number {
-  let m = a[from];
-  for (let k = from + 1; k < to; k++) if (a[k] < m) m = a[k];
-  return m;
-}
-
-/**
- * Put the k-th smallest of a[lo..hi] at index k (everything left of it no larger, right no
- * smaller). Three-way partition (Dijkstra's Dutch national flag), so runs of equal values
- * (a discrete output) cost one pass instead of degrading to quadratic time.
- */
-function selectKth(a: Float64Array, k: number, lo: number, hi: number): number {
-  while (hi > lo) {
-    const mid = (lo + hi) >>> 1;
-    const x = a[lo];
-    const y = a[mid];
-    const z = a[hi];
-    const pivot = x < y ? (y < z ? y : x < z ? z : x) : x < z ? x : y < z ? z : y;
-    let lt = lo;
-    let i = lo;
-    let gt = hi;
-    while (i <= gt) {
-      const v = a[i];
-      if (v < pivot) {
-        a[i++] = a[lt];
-        a[lt++] = v;
-      } else if (v > pivot) {
-        a[i] = a[gt];
-        a[gt--] = v;
-      } else i++;
-    }
-    if (k < lt) hi = lt - 1;
-    else if (k > gt) lo = gt + 1;
-    else return pivot;
-  }
-  return a[k];
-}
-

@@ -57,6 +57,31 @@ describe('formula semantics', () => {
   });
 });
 
+describe('sum and mean of many arguments', () => {
+  it('add left to right, exactly as one addition at a time, with columns and scalars mixed', () => {
+    const n = 5000;
+    const names = Array.from({ length: 11 }, (_, i) => `c${i}`);
+    // Values of very different sizes, so a different order of the additions would round differently.
+    const cols: Record<string, Float64Array> = Object.fromEntries(names.map((id, j) => [id, Float64Array.from({ length: n }, (_, i) => Math.sin(i * (j + 1)) * 10 ** ((j % 5) * 4 - 8))]));
+    const env = { column: (x: string) => cols[x] ?? null, scalar: (x: string) => (x === 'k' ? 0.1 : null) };
+    const orders = [names, [...names.slice(0, 3), 'k', ...names.slice(3)], ['k', ...names.slice(0, 9), 'k', 'c9']];
+    for (const args of orders) {
+      for (const fn of ['sum', 'mean']) {
+        const { ast } = parseFormula(`${fn}(${args.join(', ')})`, { columns: names, scalars: ['k'] });
+        const out = new Float64Array(n);
+        compileFormula(ast, env).evaluate(out, 0, n);
+        let same = 0;
+        for (let i = 0; i < n; i++) {
+          let v = 0;
+          args.forEach((a, j) => (v = j === 0 ? (a === 'k' ? 0.1 : cols[a][i]) : v + (a === 'k' ? 0.1 : cols[a][i])));
+          if (Object.is(out[i], fn === 'mean' ? v / args.length : v)) same++;
+        }
+        expect(same, `${fn}(${args.join(', ')})`).toBe(n);
+      }
+    }
+  });
+});
+
 describe('formula rejections (never eval: every name and call is checked)', () => {
   const reject = (text: string, pattern: RegExp) => {
     expect(() => parseFormula(text, scope)).toThrowError(FormulaError);

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import xor4096 from 'seedrandom/lib/xor4096';
 import { Stream, streamKey, uniformOpen, uniformOpenClosed } from '@/lib/core/engine/rng';
+import { setWasmKernels, wasmKernels } from '@/lib/core/engine/wasm-kernels';
 
 describe('seeded streams', () => {
   it('steps exactly the xor4096 sequence seedrandom itself yields', () => {
@@ -8,6 +9,22 @@ describe('seeded streams', () => {
       const ref = xor4096(key);
       const s = new Stream(key);
       for (let i = 0; i < 5000; i++) expect(s.nextInt32()).toBe(ref.int32());
+    }
+  });
+
+  it('the wasm SIMD refill and the JavaScript refill give that sequence, even alternating between refills', () => {
+    expect(wasmKernels()).not.toBeNull();
+    const key = streamKey('alternate', 'x');
+    const ref = xor4096(key);
+    const s = new Stream(key);
+    try {
+      // 7 refills of 1024: JavaScript, kernel, kernel, JavaScript, ... so each starts from the other's state.
+      for (let r = 0; r < 7; r++) {
+        setWasmKernels(r % 3 !== 0);
+        for (let i = 0; i < 1024; i++) expect(s.nextInt32()).toBe(ref.int32());
+      }
+    } finally {
+      setWasmKernels(true);
     }
   });
 

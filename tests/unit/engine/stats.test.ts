@@ -10,6 +10,7 @@ import {
   percentilesBySelection,
   PERCENTILE_DEFINITION,
   spearman,
+  twoPassMoments,
   welford,
   wilsonInterval,
 } from '@/lib/core/engine/stats';
@@ -47,6 +48,35 @@ describe('running mean and variance (Welford 1962)', () => {
     // The naive sum-of-squares formula loses everything here.
     const naive = (x.reduce((s, v) => s + v * v, 0) - (x.reduce((s, v) => s + v, 0) ** 2) / 4) / 3;
     expect(Math.abs(naive - 30)).toBeGreaterThan(1);
+  });
+});
+
+describe('two-pass moments (corrected two-pass formula, four partial sums)', () => {
+  // NIST StRD univariate summary statistics, datasets NumAcc1-4 and their certified mean and standard deviation
+  // (data and values from memory): 3 or 1001 values around a large offset, the hard cases for a variance.
+  const alternating = (first: number, a: number, b: number) => Float64Array.from([first, ...Array.from({ length: 1000 }, (_, i) => (i % 2 ? b : a))]);
+  const cases: [string, Float64Array, number, number, number][] = [
+    ['NumAcc1', Float64Array.from([10000001, 10000003, 10000002]), 10000002, 1, 14],
+    ['NumAcc2', alternating(1.2, 1.1, 1.3), 1.2, 0.1, 14],
+    ['NumAcc3', alternating(1000000.2, 1000000.1, 1000000.3), 1000000.2, 0.1, 9],
+    ['NumAcc4', alternating(10000000.2, 10000000.1, 10000000.3), 10000000.2, 0.1, 8],
+  ];
+  // Log relative error: the number of correct significant digits.
+  const lre = (x: number, c: number) => (x === c ? 17 : -Math.log10(Math.abs(x - c) / Math.abs(c)));
+  it.each(cases)('%s: the certified mean to 14 digits, the standard deviation to the digits the data allow', (_, x, mean, sd, sdDigits) => {
+    const m = twoPassMoments(x);
+    expect(m.n).toBe(x.length);
+    expect(lre(m.mean, mean)).toBeGreaterThanOrEqual(14);
+    expect(lre(Math.sqrt(m.m2 / (m.n - 1)), sd)).toBeGreaterThanOrEqual(sdDigits);
+  });
+  it('lengths that are not multiples of four take their last values into the sums', () => {
+    for (const n of [1, 2, 3, 5, 6, 7]) {
+      const x = Float64Array.from({ length: n }, (_, i) => i + 1);
+      const m = twoPassMoments(x);
+      expect(m.mean).toBe((n + 1) / 2);
+      expect(m.m2).toBeCloseTo((n * (n * n - 1)) / 12, 12);
+    }
+    expect(Number.isNaN(twoPassMoments(new Float64Array(0)).mean)).toBe(true);
   });
 });
 
@@ -151,11 +181,21 @@ describe('percentiles by selection', () => {
       new Float64Array(20_000).fill(2.5),
       Float64Array.from([3, 1, 2]),
       Float64Array.from([7]),
+      Float64Array.from([4, -1]),
+      // A heavy right tail: most values in the first few buckets of the range.
+      Float64Array.from({ length: 200_000 }, () => Math.exp(8 * s.uniform() ** 4)),
+      // Zeros of both signs around the wanted ranks, and infinite values.
+      Float64Array.from({ length: 1_001 }, (_, i) => (i % 3 === 0 ? -0 : i % 3 === 1 ? 0 : i % 7 === 0 ? -1 : 1)),
+      Float64Array.from({ length: 999 }, (_, i) => (i % 2 ? -0 : 0)),
+      Float64Array.from({ length: 5_000 }, (_, i) => (i === 17 ? Infinity : i === 3 ? -Infinity : s.uniform())),
     ];
     const levels = [0.95, 0.01, 0.5, 0.05, 0.999, 0.25, 0.0001];
     for (const x of cases) {
       const sorted = Float64Array.from(x).sort();
-      expect(percentilesBySelection(x, levels)).toEqual(levels.map((p) => percentileSorted(sorted, p)));
+      const got = percentilesBySelection(x, levels);
+      const want = levels.map((p) => percentileSorted(sorted, p));
+      // Object.is per level: -0 and +0 differ, NaN equals NaN.
+      got.forEach((v, i) => expect(Object.is(v, want[i]), `n ${x.length}, level ${levels[i]}: ${v} vs ${want[i]}`).toBe(true));
     }
   });
 });
