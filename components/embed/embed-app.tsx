@@ -4,6 +4,8 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import { WidgetView } from '@/components/widget/widget-view';
 import { createEmbedEngine, dropWarmEngine, prewarmEmbedEngine } from '@/lib/core/engine/embed-engine';
 import type { EmbedWidgetPayload } from '@/lib/core/embed/payload';
+import { decodeRunResult } from '@/lib/core/embed/first-figures';
+import type { RunResult } from '@/lib/core/engine/merge';
 import { ApiError } from '@/lib/client/request';
 import { createEmbedClient, earlyRefusal, PASS_WAIT_MS, refusalOf, type EmbedClient } from './embed-client';
 import type { EarlyStart } from './early-start';
@@ -42,7 +44,14 @@ function missingPass(title: string, body: string): ApiError {
   return new ApiError(401, 'unauthorized', `${title}. ${body}`, { title });
 }
 
-type State = { phase: 'loading' } | { phase: 'ready'; payload: EmbedWidgetPayload } | { phase: 'refused'; title: string; body: string };
+type FirstFigures = { result: RunResult; computedAt: string };
+type State = { phase: 'loading' } | { phase: 'ready'; payload: EmbedWidgetPayload; first: FirstFigures | null } | { phase: 'refused'; title: string; body: string };
+
+/** The server's result at the author's values, when the payload carries one (older versions may not yet). */
+function firstFiguresOf(p: EmbedWidgetPayload): FirstFigures | null {
+  const f = p.firstFigures;
+  return f && typeof f.computedAt === 'string' && f.result && typeof f.result === 'object' ? { result: decodeRunResult(f.result), computedAt: f.computedAt } : null;
+}
 
 /**
  * The pass for this frame. A fragment (`#pass=…`) is read and removed from the address at once. In a frame,
@@ -107,7 +116,7 @@ export function EmbedApp({ passId, origin, firmName, noPass }: { passId: string;
       .then(({ client: c, payload }) => {
         if (!live) return;
         setClient(c);
-        setState({ phase: 'ready', payload });
+        setState({ phase: 'ready', payload, first: firstFiguresOf(payload) });
       })
       .catch((err: unknown) => {
         if (!live) return;
@@ -163,6 +172,7 @@ export function EmbedApp({ passId, origin, firmName, noPass }: { passId: string;
       widget={p.widget}
       branding={{ firmName: p.branding.firmName, brandColor: p.branding.brandColor, logoUrl: p.branding.logoUrl }}
       versionInfo={{ number: p.versionInfo.number, signedOffAt }}
+      firstFigures={state.first}
       onDialChange={onDialChange}
       actions={<SnapshotRequestForm send={client.sendSnapshot} dialValues={dialValues} version={p.versionInfo.number} />}
       headingLevel="h1"

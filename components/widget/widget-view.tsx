@@ -60,6 +60,11 @@ export interface WidgetViewProps {
   actions?: ReactNode;
   /** Heading level of the title (h1 when the widget is the whole page). */
   headingLevel?: 'h1' | 'h2';
+  /**
+   * The result at the author's values as the server computed it for this version (the embed's first figures): shown
+   * at once, without a run in the browser, until the viewer moves a dial; the footer says where it came from.
+   */
+  firstFigures?: { result: RunResult; computedAt: string } | null;
   /** The engine pool: createEmbedEngine on the embed page (no schema), createStudioEngine elsewhere. */
   createEngine: () => RunClient;
   className?: string;
@@ -76,7 +81,7 @@ const CHART_PANELS = new Set<string>(['spread', 'cumulative', 'drivers']);
  * reruns the model in the browser with the same seed and sub-streams, so only what the dial touches
  * changes. No dashboard or sign-in code: the embed page uses this as it is.
  */
-export function WidgetView({ model, widget, branding, versionInfo, onDialChange, initialDialValues: given, actions, headingLevel: H = 'h2', className, createEngine }: WidgetViewProps) {
+export function WidgetView({ model, widget, branding, versionInfo, onDialChange, initialDialValues: given, actions, headingLevel: H = 'h2', className, createEngine, firstFigures }: WidgetViewProps) {
   const outline = useMemo(() => modelOutline(model), [model]);
   const dials = useMemo<DialSpec[]>(() => {
     const byId = new Map(outline.dials.map((d) => [d.id, d]));
@@ -98,8 +103,11 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
     return out;
   }, [dials, values]);
 
+  // The server's first figures stand for the author's values until the viewer first moves a dial or resets.
+  const [moved, setMoved] = useState(false);
+  const useFirst = Boolean(firstFigures) && !moved && atDefaults(dials, current);
   // A dial move is one discrete step: a short wait is enough to merge a burst of key presses.
-  const sim = useSimulation(model, current, { samples: 'none', debounceMs: 30, createClient: createEngine });
+  const sim = useSimulation(model, current, { samples: 'none', debounceMs: 30, createClient: createEngine, enabled: !useFirst });
   // A model the engine refuses at the author's own values cannot be shown at all (not just these settings).
   const broken = sim.error && !sim.result && atDefaults(dials, current) ? (sim.error.issues[0]?.message ?? sim.error.message) : null;
   const colors = useMemo(() => brandColors(branding.brandColor), [branding.brandColor]);
@@ -107,6 +115,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   const setDial = useCallback(
     (id: string, v: number) => {
       const next = { ...current, [id]: v };
+      setMoved(true);
       setValues(next);
       onDialChange?.(next, id);
     },
@@ -114,19 +123,23 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   );
   const reset = useCallback(() => {
     const next = initialDialValues(dials);
+    setMoved(true);
     setValues(next);
     setResets((n) => n + 1);
     setPin(null);
     onDialChange?.(next, null);
   }, [dials, onDialChange]);
 
-  const result = sim.result;
+  // Until the browser's first run is back, the server's figures stay on screen (dimmed once a dial has moved).
+  const fromServer = !sim.result && firstFigures ? firstFigures.result : null;
+  const result = sim.result ?? fromServer;
+  const stale = sim.stale || (fromServer !== null && !useFirst);
   const panels = widget.panels.filter((p) => p === 'headline' || CHART_PANELS.has(p));
   const chartPanels = panels.filter((p): p is ChartPanel => CHART_PANELS.has(p));
   const uid = useId().replace(/[^a-zA-Z0-9_-]/g, '');
   const titleId = `${uid}-title`;
   // Only a settled result can be pinned: its figures belong to the dial values on screen.
-  const canPin = Boolean(result) && !sim.stale && sim.status !== 'running' && sim.status !== 'waiting' && !sim.error;
+  const canPin = Boolean(result) && !stale && sim.status !== 'running' && sim.status !== 'waiting' && !sim.error;
   const pinnedValues = useMemo(() => (pin ? { ...pin.run.dialValues } : null), [pin]);
   const headline = result && panels.includes('headline') ? headlineFigure(result, widget.headline) : null;
   const cautions = useMemo(() => {
@@ -225,7 +238,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
 
             {panels.includes('headline') ? (
               <div className="min-w-0 space-y-2">
-                <div className={cx('rounded-lg border border-l-4 border-ink-200 bg-white px-4 py-3 transition-opacity', sim.stale && 'opacity-60')} style={{ borderLeftColor: 'var(--st-brand)' }} aria-live="polite" aria-atomic="true">
+                <div className={cx('rounded-lg border border-l-4 border-ink-200 bg-white px-4 py-3 transition-opacity', stale && 'opacity-60')} style={{ borderLeftColor: 'var(--st-brand)' }} aria-live="polite" aria-atomic="true">
                   {headline ? (
                     <>
                       <p className="text-sm text-ink-700">{headline.term ? <Term term={headline.term}>{headline.label}</Term> : headline.label}</p>
@@ -261,7 +274,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
           ) : null}
 
           {result ? (
-            <div className={cx('grid grid-cols-1 gap-4 transition-opacity @3xl:grid-cols-2', (sim.stale || sim.pending) && 'opacity-60')} aria-busy={sim.pending ? true : undefined}>
+            <div className={cx('grid grid-cols-1 gap-4 transition-opacity @3xl:grid-cols-2', (stale || sim.pending) && 'opacity-60')} aria-busy={sim.pending ? true : undefined}>
               {chartPanels.map((p, i) => (
                 <div key={p} className={chartPanels.length % 2 === 1 && i === 0 ? '@3xl:col-span-2' : undefined}>
                   <WidgetChart result={result} panel={p} />
@@ -280,7 +293,12 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
 
           <footer className="flex flex-wrap items-center justify-between gap-2 border-t border-ink-100 pt-2">
             <p className="text-xs text-ink-600">
-              {result ? (
+              {result && result === fromServer && firstFigures ? (
+                <>
+                  <span className="num">{formatCount(result.run.trials)}</span> trials · computed by Stochos for the author’s values on{' '}
+                  <time dateTime={firstFigures.computedAt}>{formatDate(firstFigures.computedAt)}</time>
+                </>
+              ) : result ? (
                 <>
                   <span className="num">{formatCount(result.run.trials)}</span> trials · <span className="num">{formatDuration(sim.lastRunMs ?? result.timing.totalMs)}</span>
                   {invalid > 0 ? (

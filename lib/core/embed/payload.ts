@@ -26,6 +26,13 @@ export interface EmbedWidgetPayload {
     checkerName: string | null;
     authorName: string | null;
   };
+  /**
+   * The version's result at its default dial values, computed by the server's run pool when the version was signed
+   * off or published (the same engine, seed and trials give the same numbers as the viewer's browser). Absent while
+   * it is being computed: the page then runs the model itself. `result` is the encoded RunResult
+   * (lib/core/embed/first-figures.ts).
+   */
+  firstFigures?: { result: unknown; computedAt: string };
 }
 
 export interface EmbedSessionResponse {
