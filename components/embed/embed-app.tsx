@@ -7,7 +7,7 @@ import type { EmbedWidgetPayload } from '@/lib/core/embed/payload';
 import { decodeRunResult } from '@/lib/core/embed/first-figures';
 import type { RunResult } from '@/lib/core/engine/merge';
 import { ApiError } from '@/lib/client/request';
-import { createEmbedClient, earlyRefusal, PASS_WAIT_MS, refusalOf, type EmbedClient } from './embed-client';
+import { createEmbedClient, EARLY_SLOT_ID, earlyRefusal, PASS_WAIT_MS, refusalOf, type EmbedClient } from './embed-client';
 import type { EarlyStart } from './early-start';
 import { EmbedNotice } from './embed-notice';
 import { SnapshotRequestForm } from '@/components/snapshots/snapshot-request-form';
@@ -17,6 +17,7 @@ import { SnapshotRequestForm } from '@/components/snapshots/snapshot-request-for
 // it. The pass is never in a URL the server sees. Dial moves are counted (one event per settled move).
 
 const DIAL_SETTLE_MS = 800;
+const LOADING_HTML = { __html: '<p role="status" class="text-sm text-ink-600">Loading the model…</p>' };
 
 /**
  * The inline early start's work for this pass (early-start.tsx), taken once: the pass, the token and the widget,
@@ -33,7 +34,9 @@ function takeEarlyStart(passId: string, origin: string | null, noPass: { title: 
   const loaded = early.outcome.then((o) => {
     if (!o.pass) throw missingPass(noPass.title, noPass.body);
     if (!o.ok) throw o.status === 0 ? new Error('network') : earlyRefusal(o.status, o.message, o.title);
-    return { client: createEmbedClient({ passId, pass: o.pass, origin, session: { token: o.token, expiresAt: o.expiresAt } }), payload: o.payload as EmbedWidgetPayload };
+    const client = createEmbedClient({ passId, pass: o.pass, origin, session: { token: o.token, expiresAt: o.expiresAt } });
+    // The exchange carries the widget; should it not (a server from before that), the page asks for it.
+    return o.payload ? { client, payload: o.payload as EmbedWidgetPayload } : client.loadWidget().then((payload) => ({ client, payload }));
   });
   taken = { passId, loaded };
   return loaded;
@@ -155,11 +158,11 @@ export function EmbedApp({ passId, origin, firmName, noPass }: { passId: string;
 
   if (state.phase === 'refused') return <EmbedNotice title={state.title} body={state.body} firmName={firmName} />;
   if (state.phase === 'loading' || !client) {
+    // The slot's content is the inline early start's (it may already hold the server's first figures): React renders
+    // it as fixed HTML and never hydrates or compares what is inside.
     return (
       <div className="rounded-lg border border-ink-200 bg-white px-5 py-4" aria-busy="true">
-        <p role="status" className="text-sm text-ink-600">
-          Loading the model…
-        </p>
+        <div id={EARLY_SLOT_ID} suppressHydrationWarning dangerouslySetInnerHTML={LOADING_HTML} />
       </div>
     );
   }

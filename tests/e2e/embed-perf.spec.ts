@@ -148,15 +148,15 @@ test('measure the embed’s first figures after the frame loads (demo stack-up, 
   await expect.poll(stored, { timeout: 60_000 }).toBeGreaterThan(0);
   fdb.close();
 
-  type Marks = { figure: number | null; html: number; pass: number | null; session: number | null; payload: number | null; worker: number | null; footer: string | null };
+  type Marks = { figure: number | null; html: number; pass: number | null; session: number | null; payload: number | null; worker: number | null; footer: string | null; early: boolean };
   const loads: Marks[] = [];
   for (let i = 0; i < LOADS; i++) {
     const context = await browser.newContext();
     // Runs in every frame before its own scripts; only the embed frame records anything.
     await context.addInitScript((selector: string) => {
       if (!location.pathname.startsWith('/embed/')) return;
-      const w = window as unknown as { __first: { figure: number | null; pass: number | null; footer: string | null } };
-      w.__first = { figure: null, pass: null, footer: null };
+      const w = window as unknown as { __first: { figure: number | null; pass: number | null; footer: string | null; early: boolean } };
+      w.__first = { figure: null, pass: null, footer: null, early: false };
       window.addEventListener('message', (e) => {
         const d = e.data as { type?: string } | null;
         if (d && d.type === 'stochos:pass' && w.__first.pass === null) w.__first.pass = performance.now();
@@ -165,6 +165,8 @@ test('measure the embed’s first figures after the frame loads (demo stack-up, 
         const h = document.querySelector(selector);
         if (!h || !h.querySelector('.num')) return;
         w.__first.figure = performance.now();
+        // Painted by the inline early start (before React), or by the widget itself.
+        w.__first.early = Boolean(h.closest('#stochos-early'));
         w.__first.footer = document.querySelector('footer')?.textContent ?? null;
         seen.disconnect();
       });
@@ -178,19 +180,24 @@ test('measure the embed’s first figures after the frame loads (demo stack-up, 
     for (const x of page.frames().filter((fr) => fr.url().includes('/embed/'))) if ((await x.locator('h1').first().textContent()) === widget.title) frame = x;
     if (!frame) throw new Error(`no frame shows ${widget.title}`);
     await frame.waitForFunction(() => (window as unknown as { __first: { figure: number | null } }).__first.figure !== null);
+    // The widget's own footer says where the figures on screen came from (the early paint has none).
+    const widgetFooter = await f.locator('footer').first().textContent();
     loads.push(
-      await frame.evaluate(() => {
-        const w = window as unknown as { __first: { figure: number; pass: number | null; footer: string | null } };
+      await frame.evaluate((widgetFooter) => {
+        const w = window as unknown as { __first: { figure: number; pass: number | null; footer: string | null; early: boolean } };
         const nav = performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming;
         const res = performance.getEntriesByType('resource') as PerformanceResourceTiming[];
         const end = (re: RegExp) => res.find((r) => re.test(r.name))?.responseEnd ?? null;
         const start = (re: RegExp) => res.find((r) => re.test(r.name))?.startTime ?? null;
-        return { figure: w.__first.figure, html: nav.responseEnd, pass: w.__first.pass, session: end(/\/api\/embed\/session/), payload: end(/\/widget$/), worker: start(/turbopack-worker/), footer: w.__first.footer };
-      }),
+        // The widget payload comes with the token exchange (early start) or, on the page's own path, by GET …/widget.
+        const session = end(/\/api\/embed\/session/);
+        return { figure: w.__first.figure, html: nav.responseEnd, pass: w.__first.pass, session, payload: end(/\/widget$/) ?? session, worker: start(/turbopack-worker/), footer: w.__first.footer ?? widgetFooter, early: w.__first.early };
+      }, widgetFooter),
     );
     await context.close();
   }
   const stats = (xs: number[]) => {
+    if (!xs.length) return { median: NaN, min: NaN, max: NaN };
     const s = [...xs].sort((a, b) => a - b);
     const mid = s.length % 2 ? s[(s.length - 1) / 2]! : (s[s.length / 2 - 1]! + s[s.length / 2]!) / 2;
     return { median: +mid.toFixed(1), min: +s[0]!.toFixed(1), max: +s[s.length - 1]!.toFixed(1) };
@@ -204,7 +211,7 @@ test('measure the embed’s first figures after the frame loads (demo stack-up, 
     fromFrameNavigationStartMs: { firstFigure: stats(col('figure')), htmlReceived: stats(col('html')), passReceived: stats(col('pass')), sessionAnswered: stats(col('session')), payloadReceived: stats(col('payload')), workerScriptRequested: stats(col('worker')) },
     afterPayloadToFirstFigureMs: stats(loads.filter((l) => l.payload !== null).map((l) => l.figure! - l.payload!)),
     footers: loads.map((l) => l.footer?.replace(/\s+/g, ' ').trim() ?? null),
-    firstFigureSource: loads.map((l) => (/computed by Stochos/.test(l.footer ?? '') ? 'server' : /computed in your browser/.test(l.footer ?? '') ? 'browser' : 'unknown')),
+    firstFigureSource: loads.map((l) => (/computed by Stochos/.test(l.footer ?? '') ? 'server' : /computed in your browser/.test(l.footer ?? '') ? 'browser' : 'unknown') + (l.early ? ' (painted before hydration)' : '')),
     raw: loads,
   };
   fs.mkdirSync('test-results', { recursive: true });

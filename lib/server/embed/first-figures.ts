@@ -7,6 +7,11 @@ import { enqueueFirstFigures, readFirstFigures, type StoredFirstFigures } from '
 import { workerFile } from '@/lib/server/simulate/pool';
 import { afterResponse } from '@/lib/server/ops/after-response';
 import { logger } from '@/lib/server/ops/log';
+import { decodeRunResult } from '@/lib/core/embed/first-figures';
+import { headlineFigure } from '@/lib/core/results/headline';
+import { cautionsFor, lowTrialCaution } from '@/lib/core/cautions';
+import { formatCount } from '@/lib/core/charts/format';
+import type { EarlyFigure } from '@/lib/core/embed/payload';
 
 // First figures (migrations/202612052001_first_figures.ts): a published version has exactly one result at its default
 // dial values, so the server's run pool computes it once (lib/server/embed/first-figures-worker.ts) and the widget
@@ -67,4 +72,31 @@ export async function firstFiguresFor(firmId: string, versionId: string): Promis
     );
   }
   return null;
+}
+
+// The early paint's words per stored result and headline id (both immutable once stored).
+const early = new WeakMap<StoredFirstFigures, Map<string, EarlyFigure>>();
+
+/**
+ * The headline figure and the cautions in words, for the embed page's inline script to show the moment the payload
+ * arrives, before the page's JavaScript has loaded: the same text the widget prints (lib/core/results/headline.ts,
+ * lib/core/cautions.ts), worded here because the inline script can import nothing.
+ */
+export function earlyFigure(stored: StoredFirstFigures, headlineId: string): EarlyFigure {
+  let byId = early.get(stored);
+  if (!byId) early.set(stored, (byId = new Map()));
+  const hit = byId.get(headlineId);
+  if (hit) return hit;
+  const result = decodeRunResult(JSON.parse(stored.resultJson));
+  const h = headlineFigure(result, headlineId);
+  const low = lowTrialCaution(result.outputs);
+  const e: EarlyFigure = {
+    label: h.label,
+    value: h.value,
+    sub: h.sub,
+    trials: formatCount(result.run.trials),
+    cautions: [...(low ? [low] : []), ...cautionsFor(result.template)].map((c) => ({ title: c.title, text: c.text, low: c.id === 'low-trials' })),
+  };
+  byId.set(headlineId, e);
+  return e;
 }

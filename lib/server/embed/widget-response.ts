@@ -4,6 +4,7 @@ import type { Granted } from '@/lib/server/embed/access';
 import type { EmbedWidgetPayload } from '@/lib/core/embed/payload';
 import { modelJson } from '@/lib/server/embed/model-cache';
 import type { StoredFirstFigures } from '@/db/first-figures';
+import { earlyFigure } from '@/lib/server/embed/first-figures';
 
 // The widget payload as an HTTP representation with a strong validator. The body is a pure function of the
 // version id (whose model never changes) and a few small fields (titles, names, branding, sign-off), so the ETag
@@ -32,7 +33,8 @@ export function widgetRepresentation(v: Pick<Granted, 'pass' | 'client' | 'widge
   };
   const restJson = JSON.stringify(rest);
   const etag = `"${createHash('sha256').update(w.versionId).update('\n').update(restJson).update('\n').update(first?.computedAt ?? '').digest('base64url').slice(0, 32)}"`;
-  const firstJson = first ? `,"firstFigures":{"computedAt":${JSON.stringify(first.computedAt)},"result":${first.resultJson}}` : '';
+  const early = first && w.panels.includes('headline') ? earlyFigure(first, w.headline) : null;
+  const firstJson = first ? `,"firstFigures":{"computedAt":${JSON.stringify(first.computedAt)},"early":${JSON.stringify(early)},"result":${first.resultJson}}` : '';
   return { etag, body: () => `${restJson.slice(0, -1)},"model":${modelJson(w.model)}${firstJson}}` };
 }
 
