@@ -6,7 +6,7 @@ import { newId, nowIso } from '@/db/ids';
 import { storedModel } from '@/db/models';
 import type { CheckedModel } from '@/lib/core/engine/checked-model';
 
-// First figures of published versions (migrations/202612052001_first_figures.ts): one row per version and engine
+// First figures of published versions (migrations/20261205200100_first_figures.ts): one row per version and engine
 // build, which is both the stored result and the job that computes it. Every read is scoped by firm.
 
 export type FirstFiguresState = 'queued' | 'computing' | 'done' | 'failed';

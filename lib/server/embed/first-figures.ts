@@ -13,7 +13,7 @@ import { cautionsFor, lowTrialCaution } from '@/lib/core/cautions';
 import { formatCount } from '@/lib/core/charts/format';
 import type { EarlyFigure } from '@/lib/core/embed/payload';
 
-// First figures (migrations/202612052001_first_figures.ts): a published version has exactly one result at its default
+// First figures (migrations/20261205200100_first_figures.ts): a published version has exactly one result at its default
 // dial values, so the server's run pool computes it once (lib/server/embed/first-figures-worker.ts) and the widget
 // payload carries it. Results are kept per engine build: the build is the hash of the run worker the pool loads,
 // which bundles the same engine code as the browser's worker, so a changed engine computes them again rather than
