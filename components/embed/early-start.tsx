@@ -69,7 +69,12 @@ function earlyStart(passId: string, origin: string | null, waitMs: number, slotI
     const ff = payload && typeof payload === 'object' ? (payload as { firstFigures?: { early?: unknown } }).firstFigures : undefined;
     const e = ff && ff.early && typeof ff.early === 'object' ? (ff.early as { label?: unknown; value?: unknown; sub?: unknown; trials?: unknown; cautions?: unknown }) : null;
     const slot = document.getElementById(slotId);
-    if (!e || !slot || typeof e.label !== 'string' || typeof e.value !== 'string' || !Array.isArray(e.cautions)) return;
+    if (!e || typeof e.label !== 'string' || typeof e.value !== 'string' || !Array.isArray(e.cautions)) return;
+    if (!slot) {
+      // The answer came before the parser reached the slot: paint once it has.
+      if (document.readyState === 'loading') document.addEventListener('DOMContentLoaded', function () { paint(payload); }, { once: true });
+      return;
+    }
     const el = function (tag: string, cls: string, text?: string): HTMLElement {
       const x = document.createElement(tag);
       x.className = cls;
