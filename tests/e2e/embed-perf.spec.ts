@@ -119,9 +119,10 @@ test('measure dial-to-headline time at 50,000 trials and the embed page’s tran
 
 // Measurement, not a timed assertion: the first figures after the frame loads. Each load is a fresh browser
 // context (nothing cached), through the demo host page, for the demo stack-up at 50,000 trials. In the frame,
-// times are from its navigation start: the HTML received, the pass handed over, the widget payload received, the
-// engine worker's first script fetched, and the headline showing its first figure; the footer of that first figure
-// says where it came from (the server's stored first figures, or a run in the browser). The demo version was
+// times are from its navigation start: the HTML received, the pass handed over, the widget payload received (with the
+// token exchange, or by GET …/widget on the page's own path), the engine worker's first script fetched, and a headline
+// showing its first figure (the inline early paint's, before hydration, or the widget's); the widget's footer says
+// where that figure came from (the server's stored first figures, or a run in the browser). The demo version was
 // published before first figures existed: one unmeasured load queues them (the lazy path), and the measured loads
 // start once the worker process has stored them. Figures go to the console and to test-results/embed-first-figures.json.
 const LOADS = 7;

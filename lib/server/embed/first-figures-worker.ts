@@ -50,8 +50,10 @@ export function startFirstFiguresWorker(o: FirstFiguresWorkerOptions = {}): Firs
         return;
       }
       if (job.engineBuild !== engineBuild()) {
-        // Another deployment's job: hand it back untouched for that build's workers.
-        await markFirstFiguresRetry(job.id, id, 'Queued under another engine build.', new Date(Date.now() + 60_000).toISOString());
+        // Another deployment's job: hand it back for that build's workers (during a rolling deploy both run), and give
+        // up on it after an hour, when no such worker is left. That build's pages then run the model in the browser.
+        if (job.attempts > 6) await markFirstFiguresFailed(job.id, id, 'Queued under another engine build, which no worker computed.');
+        else await markFirstFiguresRetry(job.id, id, 'Queued under another engine build.', new Date(Date.now() + 10 * 60_000).toISOString());
         return;
       }
       const t0 = performance.now();
