@@ -16,6 +16,7 @@ import { FormulaForm } from './formula-form';
 import { DialsEditor } from './dials-editor';
 import { SettingsForm } from './settings-form';
 import { ImportExport } from './import-export';
+import { markStep } from '@/components/results/step-marks';
 
 export interface ModelEditorProps {
   /** The model to edit (a saved version, an example, or a draft). */
@@ -30,6 +31,7 @@ export interface ModelEditorProps {
   errors?: Record<string, string[]>;
 }
 
+/** How long typing must pause before problems are shown at the fields (a valid change reaches the preview at once). */
 const VALIDATE_DELAY_MS = 120;
 
 /** The model as form values: lists present, and the schema's defaults filled in where a select shows them. */
@@ -169,6 +171,7 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
       const model = isValid ? parsed.current : null;
       if (model) {
         lastSeen.current = JSON.stringify(model);
+        markStep('edit-valid');
         onChangeRef.current(model, true);
       } else {
         const draft = form.getValues();
@@ -184,6 +187,35 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
     timer.current = setTimeout(() => void validate(true), VALIDATE_DELAY_MS);
   }, [validate]);
 
+  // A change that makes a valid model goes to the parent at once (the preview runs it without waiting for typing
+  // to pause); one that does not waits for validate(), so problems appear at the fields only once typing pauses.
+  // Its own resolver: the field check's results (parsed, latestErrors) are not touched here.
+  const quickResolver = useMemo(() => createModelResolver(), []);
+  const quickSeq = useRef(0);
+  const quickTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const quickCheck = useCallback(async () => {
+    quickTimer.current = null;
+    const mine = quickSeq.current;
+    if (Object.keys(localRef.current).length) return;
+    const values = form.getValues();
+    const raw = JSON.stringify(values);
+    if (raw === baseline.current.raw) return;
+    const r = await quickResolver(values, undefined, { criteriaMode: 'all', fields: {}, shouldUseNativeValidation: false, names: undefined });
+    // A newer change, a field's own parse error or the field check got there first.
+    if (mine !== quickSeq.current || Object.keys(localRef.current).length || raw === baseline.current.raw) return;
+    if (Object.keys(r.errors).length) return;
+    const model = r.values as CheckedModel;
+    markStep('edit-valid');
+    baseline.current = { raw, valid: true };
+    lastSeen.current = JSON.stringify(model);
+    onChangeRef.current(model, true);
+  }, [form, quickResolver]);
+  const scheduleQuick = useCallback(() => {
+    quickSeq.current++;
+    // One check for the changes of one event (a rename updates several fields).
+    quickTimer.current ??= setTimeout(() => void quickCheck(), 0);
+  }, [quickCheck]);
+
   // Every change: forget what the server said about that field, then check the whole model again.
   useEffect(() => {
     // watch(callback) fires only for value changes (not for the error updates trigger() makes), which is what we want.
@@ -192,13 +224,15 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
       if (resetting.current) return;
       const name = info?.name;
       if (name) setServer((s) => withoutChanged(s, name));
+      scheduleQuick();
       schedule();
     });
     return () => {
       sub.unsubscribe();
       if (timer.current) clearTimeout(timer.current);
+      if (quickTimer.current) clearTimeout(quickTimer.current);
     };
-  }, [form, schedule]);
+  }, [form, schedule, scheduleQuick]);
 
   // First check on mount, so a loaded model shows its problems straight away.
   useEffect(() => {

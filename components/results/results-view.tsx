@@ -1,6 +1,6 @@
 'use client';
 
-import { useMemo } from 'react';
+import { memo, useMemo } from 'react';
 import type { RunResult } from '@/lib/core/engine';
 import { cautionsFor } from '@/lib/core/cautions';
 import { cx } from '@/components/ui/cx';
@@ -24,12 +24,22 @@ export interface ResultsViewProps {
 /**
  * A run's results, per template: headline figures first, then the charts that explain them, the
  * convergence verdict and invalid-trial count, the cautions, and the run in small print.
+ * Memoised, and the body apart from the stale dimming: progress updates and the start of a run do
+ * not render the charts again.
  */
-export function ResultsView({ result, runMs, stale, csv = true, className }: ResultsViewProps) {
+export const ResultsView = memo(function ResultsView({ result, runMs, stale, csv = true, className }: ResultsViewProps) {
+  return (
+    <div className={cx('space-y-4 transition-opacity', stale && 'opacity-60', className)} aria-busy={stale || undefined}>
+      <ResultsBody result={result} runMs={runMs} csv={csv} />
+    </div>
+  );
+});
+
+const ResultsBody = memo(function ResultsBody({ result, runMs, csv }: { result: RunResult; runMs?: number | null; csv: boolean }) {
   // The low-trial flag is not repeated here: the convergence verdict beside the cautions says it.
   const cautions = useMemo(() => cautionsFor(result.template), [result.template]);
   return (
-    <div className={cx('space-y-4 transition-opacity', stale && 'opacity-60', className)} aria-busy={stale || undefined}>
+    <>
       {result.template === 'linear-stack' && result.stack ? (
         <StackResults result={result} />
       ) : result.template === 'cost-range' && result.cost ? (
@@ -45,6 +55,6 @@ export function ResultsView({ result, runMs, stale, csv = true, className }: Res
         <SmallPrint result={result} runMs={runMs} />
         {csv ? <CsvButton result={result} /> : null}
       </div>
-    </div>
+    </>
   );
-}
+});
