@@ -2,7 +2,7 @@
 
 import { useCallback, useEffect, useId, useMemo, useRef, useState } from 'react';
 import { FormProvider, useForm, useWatch, type FieldErrors } from 'react-hook-form';
-import type { CheckedModel } from '@/lib/core/engine/schema';
+import { validateModel, type CheckedModel } from '@/lib/core/engine/schema';
 import type { ModelDraft } from './form-values';
 import { TEMPLATE_LABELS } from '@/lib/core/models/templates';
 import { EditorContext, domIdFor, type EditorContextValue } from './editor-context';
@@ -157,7 +157,9 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
       const mine = ++seq.current;
       const ok = await form.trigger();
       if (mine !== seq.current) return;
-      setClient(flattenFieldErrors(latestErrors.current));
+      const found = flattenFieldErrors(latestErrors.current);
+      // Unchanged problems keep their object, so the fields do not render again after every pause in typing.
+      setClient((prev) => (JSON.stringify(prev) === JSON.stringify(found) ? prev : found));
       const isValid = ok && Object.keys(localRef.current).length === 0;
       setValid(isValid);
       setChecked(true);
@@ -187,34 +189,23 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
     timer.current = setTimeout(() => void validate(true), VALIDATE_DELAY_MS);
   }, [validate]);
 
-  // A change that makes a valid model goes to the parent at once (the preview runs it without waiting for typing
-  // to pause); one that does not waits for validate(), so problems appear at the fields only once typing pauses.
-  // Its own resolver: the field check's results (parsed, latestErrors) are not touched here.
-  const quickResolver = useMemo(() => createModelResolver(), []);
-  const quickSeq = useRef(0);
-  const quickTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
-  const quickCheck = useCallback(async () => {
-    quickTimer.current = null;
-    const mine = quickSeq.current;
+  // A change that makes a valid model goes to the parent at once, inside the input event (so the preview's run
+  // starts before the page paints the keystroke); one that does not waits for validate(), so problems appear at the
+  // fields only once typing pauses. Synchronous, and apart from the field check's state (parsed, latestErrors). The
+  // resolver parses, then runs validateModel on the result; the schema has defaults and refinements but no
+  // transforms, so one validateModel gives the same model.
+  const quickCheck = useCallback(() => {
     if (Object.keys(localRef.current).length) return;
     const values = form.getValues();
     const raw = JSON.stringify(values);
     if (raw === baseline.current.raw) return;
-    const r = await quickResolver(values, undefined, { criteriaMode: 'all', fields: {}, shouldUseNativeValidation: false, names: undefined });
-    // A newer change, a field's own parse error or the field check got there first.
-    if (mine !== quickSeq.current || Object.keys(localRef.current).length || raw === baseline.current.raw) return;
-    if (Object.keys(r.errors).length) return;
-    const model = r.values as CheckedModel;
-    markStep('edit-valid');
+    const checked = validateModel(values);
+    if (!checked.ok) return;
     baseline.current = { raw, valid: true };
-    lastSeen.current = JSON.stringify(model);
-    onChangeRef.current(model, true);
-  }, [form, quickResolver]);
-  const scheduleQuick = useCallback(() => {
-    quickSeq.current++;
-    // One check for the changes of one event (a rename updates several fields).
-    quickTimer.current ??= setTimeout(() => void quickCheck(), 0);
-  }, [quickCheck]);
+    lastSeen.current = JSON.stringify(checked.model);
+    markStep('edit-valid');
+    onChangeRef.current(checked.model, true);
+  }, [form]);
 
   // Every change: forget what the server said about that field, then check the whole model again.
   useEffect(() => {
@@ -223,16 +214,20 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
     const sub = form.watch((_, info) => {
       if (resetting.current) return;
       const name = info?.name;
-      if (name) setServer((s) => withoutChanged(s, name));
-      scheduleQuick();
+      // The same object when nothing is dropped: a new one would render every field again on each keystroke.
+      if (name)
+        setServer((s) => {
+          const next = withoutChanged(s, name);
+          return Object.keys(next).length === Object.keys(s).length ? s : next;
+        });
+      quickCheck();
       schedule();
     });
     return () => {
       sub.unsubscribe();
       if (timer.current) clearTimeout(timer.current);
-      if (quickTimer.current) clearTimeout(quickTimer.current);
     };
-  }, [form, schedule, scheduleQuick]);
+  }, [form, schedule, quickCheck]);
 
   // First check on mount, so a loaded model shows its problems straight away.
   useEffect(() => {

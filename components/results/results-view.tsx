@@ -29,7 +29,9 @@ export interface ResultsViewProps {
  */
 export const ResultsView = memo(function ResultsView({ result, runMs, stale, csv = true, className }: ResultsViewProps) {
   return (
-    <div className={cx('space-y-4 transition-opacity', stale && 'opacity-60', className)} aria-busy={stale || undefined}>
+    // Dimmed only when a newer run takes a while: a quick one replaces the figures without a flicker (and without
+    // repainting the whole results for a fade).
+    <div className={cx('space-y-4 transition-opacity', stale && 'opacity-60 delay-300', className)} aria-busy={stale || undefined}>
       <ResultsBody result={result} runMs={runMs} csv={csv} />
     </div>
   );
