@@ -1,5 +1,6 @@
 'use client';
 
+import { memo } from 'react';
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { Term } from '@/components/ui/term';
 import { AddButton, EmptyRows, RowButtons, ScrollTable, Section, Td, Th } from './parts';
@@ -42,9 +43,8 @@ const STACK_LABELS: Record<string, string> = {
 };
 
 export function LinearStackForm() {
-  const { control, getValues, setValue } = useFormContext();
+  const { control, getValues } = useFormContext();
   const { fields, append, remove, move } = useFieldArray({ control, name: 'contributors', keyName: '_key' });
-  const rows = useWatch<LinearStackDraft, 'contributors'>({ name: 'contributors' }) ?? [];
   const unit = useWatch<LinearStackDraft, 'unit'>({ name: 'unit' }) || '';
 
   const addRow = () => {
@@ -59,13 +59,6 @@ export function LinearStackForm() {
       distribution: { type: 'normal', k: 3 },
       meanShift: 0,
     });
-  };
-
-  const pickAssumption = (i: number, kind: StackKind) => {
-    const prev = rows[i]?.distribution;
-    const data = prev && 'data' in prev && Array.isArray(prev.data) ? prev.data : [];
-    const next: StackDistributionDraft = kind === 'normal' ? { type: 'normal', k: 3 } : kind === 'uniform' || kind === 'triangular' ? { type: kind } : { type: kind, data };
-    setValue(`contributors.${i}.distribution`, next, { shouldDirty: true });
   };
 
   return (
@@ -107,70 +100,9 @@ export function LinearStackForm() {
               </tr>
             </thead>
             <tbody>
-              {fields.map((f, i) => {
-                const row = rows[i] ?? {};
-                const what = row.name?.trim() || `contributor ${i + 1}`;
-                const type = row.distribution?.type;
-                const usesData = type === 'empirical' || type === 'normal-fit';
-                const p = `contributors.${i}`;
-                return [
-                  <InlineMessages.Provider key={f._key} value={false}>
-                  <tr className="group">
-                    <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
-                    <Td>
-                      <TextInput path={`${p}.name`} label={`Name of contributor ${i + 1}`} hideLabel wrap />
-                      <KeyInput path={`${p}.id`} label={`Key of contributor ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
-                    </Td>
-                    <Td>
-                      <NumberInput path={`${p}.nominal`} label={`Nominal of ${what}`} hideLabel unit={unit || undefined} />
-                    </Td>
-                    <Td>
-                      <NumberInput path={`${p}.plusTol`} label={`Plus tolerance of ${what}`} hideLabel />
-                    </Td>
-                    <Td>
-                      <NumberInput path={`${p}.minusTol`} label={`Minus tolerance of ${what} (a magnitude)`} hideLabel />
-                    </Td>
-                    <Td>
-                      <SelectInput path={`${p}.direction`} label={`Direction of ${what} in the loop`} hideLabel choices={DIRECTIONS} />
-                    </Td>
-                    <Td>
-                      <SelectInput
-                        path={`${p}.distribution.type`}
-                        label={`Distribution assumption of ${what}`}
-                        hideLabel
-                        choices={ASSUMPTIONS}
-                        onPick={(k) => pickAssumption(i, k)}
-                      />
-                    </Td>
-                    <Td>{type === 'normal' ? <NumberInput path={`${p}.distribution.k`} label={`k, sigmas per tolerance, of ${what}`} hideLabel /> : <span className="block pt-2 text-center text-xs text-ink-500">–</span>}</Td>
-                    <Td>
-                      <NumberInput path={`${p}.meanShift`} label={`Mean shift of ${what}`} hideLabel />
-                    </Td>
-                    <Td>
-                      <RowButtons index={i} count={fields.length} what={what} onMove={move} onRemove={() => {
-                          if (row.id) for (const w of removeReferences(getValues(), row.id)) setValue(w.path, w.value, { shouldDirty: true });
-                          remove(i);
-                        }} minRows={1} />
-                    </Td>
-                  </tr>
-                  </InlineMessages.Provider>,
-                  <RowMessages key={`${f._key}-msg`} prefix={p} labels={STACK_LABELS} colSpan={10} exclude={usesData ? ['distribution.data', 'distribution'] : []} />,
-                  usesData ? (
-                    <tr key={`${f._key}-data`}>
-                      <Td />
-                      <Td colSpan={9} className="pb-3">
-                        <NumberListInput
-                          path={`${p}.distribution.data`}
-                          label={`Measured values of ${what} (${unit || 'same unit'})`}
-                          hint={type === 'normal-fit' ? 'A normal distribution is fitted to these values (their mean and standard deviation).' : 'Trials draw from these values, interpolating between them.'}
-                        />
-                        <GroupMessages path={`${p}.distribution`} />
-                        <MeasuredDataButton path={`${p}.distribution`} target="stack" />
-                      </Td>
-                    </tr>
-                  ) : null,
-                ];
-              })}
+              {fields.map((f, i) => (
+                <ContributorRow key={f._key} index={i} count={fields.length} unit={unit} onMove={move} onRemove={remove} />
+              ))}
             </tbody>
           </ScrollTable>
         )}
@@ -199,3 +131,86 @@ export function LinearStackForm() {
     </>
   );
 }
+
+/**
+ * One contributor's rows. Memoised, and watching its own fields only: a keystroke renders the row it is in, not the
+ * whole table.
+ */
+const ContributorRow = memo(function ContributorRow({ index: i, count, unit, onMove, onRemove }: { index: number; count: number; unit: string; onMove: (from: number, to: number) => void; onRemove: (index: number) => void }) {
+  const { getValues, setValue } = useFormContext();
+  const p = `contributors.${i}` as const;
+  // Only what the row shows from its values: a keystroke in a number field does not render the row again.
+  const row = useWatch({ name: p, compute: (r: NonNullable<LinearStackDraft['contributors']>[number] | undefined) => ({ name: r?.name, type: r?.distribution?.type }) });
+  const what = row.name?.trim() || `contributor ${i + 1}`;
+  const type = row.type;
+  const usesData = type === 'empirical' || type === 'normal-fit';
+
+  const pickAssumption = (kind: StackKind) => {
+    const prev = getValues(`${p}.distribution`) as StackDistributionDraft | undefined;
+    const data = prev && 'data' in prev && Array.isArray(prev.data) ? prev.data : [];
+    const next: StackDistributionDraft = kind === 'normal' ? { type: 'normal', k: 3 } : kind === 'uniform' || kind === 'triangular' ? { type: kind } : { type: kind, data };
+    setValue(`${p}.distribution`, next, { shouldDirty: true });
+  };
+  const removeRow = () => {
+    const id = getValues(`${p}.id`) as string | undefined;
+    if (id) for (const w of removeReferences(getValues(), id)) setValue(w.path, w.value, { shouldDirty: true });
+    onRemove(i);
+  };
+
+  return (
+    <>
+      <InlineMessages.Provider value={false}>
+        <tr className="group">
+        <Td className="num pt-3 text-xs text-ink-500">{i + 1}</Td>
+        <Td>
+          <TextInput path={`${p}.name`} label={`Name of contributor ${i + 1}`} hideLabel wrap />
+          <KeyInput path={`${p}.id`} label={`Key of contributor ${i + 1}`} hideLabel inputClassName="mt-1 h-6! text-xs! text-ink-600" />
+        </Td>
+        <Td>
+          <NumberInput path={`${p}.nominal`} label={`Nominal of ${what}`} hideLabel unit={unit || undefined} />
+        </Td>
+        <Td>
+          <NumberInput path={`${p}.plusTol`} label={`Plus tolerance of ${what}`} hideLabel />
+        </Td>
+        <Td>
+          <NumberInput path={`${p}.minusTol`} label={`Minus tolerance of ${what} (a magnitude)`} hideLabel />
+        </Td>
+        <Td>
+          <SelectInput path={`${p}.direction`} label={`Direction of ${what} in the loop`} hideLabel choices={DIRECTIONS} />
+        </Td>
+        <Td>
+          <SelectInput
+            path={`${p}.distribution.type`}
+            label={`Distribution assumption of ${what}`}
+            hideLabel
+            choices={ASSUMPTIONS}
+            onPick={pickAssumption}
+          />
+        </Td>
+        <Td>{type === 'normal' ? <NumberInput path={`${p}.distribution.k`} label={`k, sigmas per tolerance, of ${what}`} hideLabel /> : <span className="block pt-2 text-center text-xs text-ink-500">–</span>}</Td>
+        <Td>
+          <NumberInput path={`${p}.meanShift`} label={`Mean shift of ${what}`} hideLabel />
+        </Td>
+        <Td>
+          <RowButtons index={i} count={count} what={what} onMove={onMove} onRemove={removeRow} minRows={1} />
+        </Td>
+      </tr>
+      </InlineMessages.Provider>
+      <RowMessages prefix={p} labels={STACK_LABELS} colSpan={10} exclude={usesData ? ['distribution.data', 'distribution'] : []} />
+      {usesData ? (
+        <tr>
+          <Td />
+          <Td colSpan={9} className="pb-3">
+            <NumberListInput
+              path={`${p}.distribution.data`}
+              label={`Measured values of ${what} (${unit || 'same unit'})`}
+              hint={type === 'normal-fit' ? 'A normal distribution is fitted to these values (their mean and standard deviation).' : 'Trials draw from these values, interpolating between them.'}
+            />
+            <GroupMessages path={`${p}.distribution`} />
+            <MeasuredDataButton path={`${p}.distribution`} target="stack" />
+          </Td>
+        </tr>
+      ) : null}
+    </>
+  );
+});

@@ -2,7 +2,7 @@
 
 import { useCallback, useEffect, useId, useMemo, useRef, useState } from 'react';
 import { FormProvider, useForm, useWatch, type FieldErrors } from 'react-hook-form';
-import type { CheckedModel } from '@/lib/core/engine/schema';
+import { validateModel, type CheckedModel } from '@/lib/core/engine/schema';
 import type { ModelDraft } from './form-values';
 import { TEMPLATE_LABELS } from '@/lib/core/models/templates';
 import { EditorContext, domIdFor, type EditorContextValue } from './editor-context';
@@ -16,6 +16,7 @@ import { FormulaForm } from './formula-form';
 import { DialsEditor } from './dials-editor';
 import { SettingsForm } from './settings-form';
 import { ImportExport } from './import-export';
+import { markStep } from '@/components/results/step-marks';
 
 export interface ModelEditorProps {
   /** The model to edit (a saved version, an example, or a draft). */
@@ -30,6 +31,7 @@ export interface ModelEditorProps {
   errors?: Record<string, string[]>;
 }
 
+/** How long typing must pause before problems are shown at the fields (a valid change reaches the preview at once). */
 const VALIDATE_DELAY_MS = 120;
 
 /** The model as form values: lists present, and the schema's defaults filled in where a select shows them. */
@@ -155,7 +157,9 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
       const mine = ++seq.current;
       const ok = await form.trigger();
       if (mine !== seq.current) return;
-      setClient(flattenFieldErrors(latestErrors.current));
+      const found = flattenFieldErrors(latestErrors.current);
+      // Unchanged problems keep their object, so the fields do not render again after every pause in typing.
+      setClient((prev) => (JSON.stringify(prev) === JSON.stringify(found) ? prev : found));
       const isValid = ok && Object.keys(localRef.current).length === 0;
       setValid(isValid);
       setChecked(true);
@@ -169,6 +173,7 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
       const model = isValid ? parsed.current : null;
       if (model) {
         lastSeen.current = JSON.stringify(model);
+        markStep('edit-valid');
         onChangeRef.current(model, true);
       } else {
         const draft = form.getValues();
@@ -184,6 +189,24 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
     timer.current = setTimeout(() => void validate(true), VALIDATE_DELAY_MS);
   }, [validate]);
 
+  // A change that makes a valid model goes to the parent at once, inside the input event (so the preview's run
+  // starts before the page paints the keystroke); one that does not waits for validate(), so problems appear at the
+  // fields only once typing pauses. Synchronous, and apart from the field check's state (parsed, latestErrors). The
+  // resolver parses, then runs validateModel on the result; the schema has defaults and refinements but no
+  // transforms, so one validateModel gives the same model.
+  const quickCheck = useCallback(() => {
+    if (Object.keys(localRef.current).length) return;
+    const values = form.getValues();
+    const raw = JSON.stringify(values);
+    if (raw === baseline.current.raw) return;
+    const checked = validateModel(values);
+    if (!checked.ok) return;
+    baseline.current = { raw, valid: true };
+    lastSeen.current = JSON.stringify(checked.model);
+    markStep('edit-valid');
+    onChangeRef.current(checked.model, true);
+  }, [form]);
+
   // Every change: forget what the server said about that field, then check the whole model again.
   useEffect(() => {
     // watch(callback) fires only for value changes (not for the error updates trigger() makes), which is what we want.
@@ -191,14 +214,20 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
     const sub = form.watch((_, info) => {
       if (resetting.current) return;
       const name = info?.name;
-      if (name) setServer((s) => withoutChanged(s, name));
+      // The same object when nothing is dropped: a new one would render every field again on each keystroke.
+      if (name)
+        setServer((s) => {
+          const next = withoutChanged(s, name);
+          return Object.keys(next).length === Object.keys(s).length ? s : next;
+        });
+      quickCheck();
       schedule();
     });
     return () => {
       sub.unsubscribe();
       if (timer.current) clearTimeout(timer.current);
     };
-  }, [form, schedule]);
+  }, [form, schedule, quickCheck]);
 
   // First check on mount, so a loaded model shows its problems straight away.
   useEffect(() => {

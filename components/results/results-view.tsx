@@ -1,6 +1,6 @@
 'use client';
 
-import { useMemo } from 'react';
+import { memo, useEffect, useMemo, useState } from 'react';
 import type { RunResult } from '@/lib/core/engine';
 import { cautionsFor } from '@/lib/core/cautions';
 import { cx } from '@/components/ui/cx';
@@ -22,14 +22,45 @@ export interface ResultsViewProps {
 }
 
 /**
+ * Stale results are dimmed only when the newer run takes this long: a quick run replaces the figures without a
+ * flicker, and the page is not restyled (nor its results repainted for a fade) on every keystroke.
+ */
+const DIM_AFTER_MS = 300;
+
+/** `on`, once it has stayed true for `ms`. */
+function useLateFlag(on: boolean, ms: number): boolean {
+  const [late, setLate] = useState(false);
+  useEffect(() => {
+    if (!on) return;
+    const t = setTimeout(() => setLate(true), ms);
+    return () => {
+      clearTimeout(t);
+      setLate(false);
+    };
+  }, [on, ms]);
+  return on && late;
+}
+
+/**
  * A run's results, per template: headline figures first, then the charts that explain them, the
  * convergence verdict and invalid-trial count, the cautions, and the run in small print.
+ * Memoised, and the body apart from the stale dimming: progress updates and the start of a run do
+ * not render the charts again.
  */
-export function ResultsView({ result, runMs, stale, csv = true, className }: ResultsViewProps) {
+export const ResultsView = memo(function ResultsView({ result, runMs, stale, csv = true, className }: ResultsViewProps) {
+  const dim = useLateFlag(Boolean(stale), DIM_AFTER_MS);
+  return (
+    <div className={cx('space-y-4 transition-opacity', dim && 'opacity-60', className)} aria-busy={stale || undefined}>
+      <ResultsBody result={result} runMs={runMs} csv={csv} />
+    </div>
+  );
+});
+
+const ResultsBody = memo(function ResultsBody({ result, runMs, csv }: { result: RunResult; runMs?: number | null; csv: boolean }) {
   // The low-trial flag is not repeated here: the convergence verdict beside the cautions says it.
   const cautions = useMemo(() => cautionsFor(result.template), [result.template]);
   return (
-    <div className={cx('space-y-4 transition-opacity', stale && 'opacity-60', className)} aria-busy={stale || undefined}>
+    <>
       {result.template === 'linear-stack' && result.stack ? (
         <StackResults result={result} />
       ) : result.template === 'cost-range' && result.cost ? (
@@ -45,6 +76,6 @@ export function ResultsView({ result, runMs, stale, csv = true, className }: Res
         <SmallPrint result={result} runMs={runMs} />
         {csv ? <CsvButton result={result} /> : null}
       </div>
-    </div>
+    </>
   );
-}
+});

@@ -4,6 +4,7 @@
 import { ModelValidationError, RunCancelledError, type ModelIssue } from '@/lib/core/engine/errors';
 import type { Progress, RunResult, SampleSelection } from '@/lib/core/engine/simulate';
 import { withEarlierParts } from './staged-result';
+import { markStep } from './step-marks';
 import type { WorkerRunOptions } from '@/lib/core/engine/worker-client';
 import type { CheckedModel } from '@/lib/core/engine/checked-model';
 
@@ -205,6 +206,7 @@ export class SimulationController {
     const model = this.model;
     if (model === null) return;
     const seq = ++this.seq;
+    markStep('run-start');
     this.lastStart = this.now();
     const key = this.key;
     const t0 = this.now();
@@ -227,6 +229,7 @@ export class SimulationController {
             if (seq === this.seq && this.snapshot.status === 'running') this.set({ result: withEarlierParts(partial, this.snapshot.result, pending), stale: false, pending });
           };
           this.clearStageTimer();
+          if (stage === 'headline') markStep('headline');
           if (stage === 'headline') show('charts');
           else
             this.stageTimer = this.setTimer(() => {

@@ -1,6 +1,6 @@
 'use client';
 
-import { useMemo } from 'react';
+import { memo, useDeferredValue, useMemo } from 'react';
 import type { RunResult } from '@/lib/core/engine';
 import { formatFixed, formatPpm } from '@/lib/core/charts/format';
 import type { RangeRow } from '@/lib/core/charts/ranges';
@@ -29,8 +29,21 @@ function MethodCard({ title, range, within, note }: { title: React.ReactNode; ra
   );
 }
 
-/** Results of a tolerance stack-up: out-of-spec first, the three methods side by side, then the charts. */
+/**
+ * Results of a tolerance stack-up: out-of-spec first, the three methods side by side, then the charts. The charts
+ * follow a deferred copy of the result: an edit paints the figures first and the charts in a render of their own.
+ */
 export function StackResults({ result }: { result: RunResult }) {
+  const deferred = useDeferredValue(result);
+  return (
+    <div className="space-y-4">
+      <StackFigures result={result} />
+      <StackCharts result={deferred} />
+    </div>
+  );
+}
+
+function StackFigures({ result }: { result: RunResult }) {
   const s = result.stack!;
   const a = s.analytic;
   const gap = result.outputs[0];
@@ -51,18 +64,10 @@ export function StackResults({ result }: { result: RunResult }) {
     if (mcLo !== null && mcHi !== null) r.push({ id: 'mc', label: 'Monte Carlo ±3 s', min: mcLo, max: mcHi, centre: mc.mean });
     return r;
   }, [a, mcLo, mcHi, mc.mean]);
-
-  const outShare = useMemo(() => outShareOf(gap), [gap]);
-  const drivers = useMemo(() => s.contributors.map((c) => ({ id: c.id, label: c.name, share: c.analyticShare, correlation: c.spearman })), [s.contributors]);
-  const markers = useMemo(() => (mc.mean !== null ? [{ value: mc.mean, label: `Mean ${f(mc.mean)}`, kind: 'mean' as const }] : []), [mc.mean, f]);
-  const outLabels = useMemo(() => outLabelsOf(gap, 'ppm'), [gap]);
-  const percentiles = useMemo(() => gap.percentiles.filter((p) => [0.1, 0.5, 0.8, 0.9].includes(p.p)).map((p) => ({ p: p.p, value: p.value })), [gap.percentiles]);
-  const allPercentiles = useMemo(() => gap.percentiles.map((p) => ({ p: p.p, value: p.value })), [gap.percentiles]);
-  const candidates = useMemo(() => s.contributors.map((c) => ({ id: c.id, label: c.name, unit })), [s.contributors, unit]);
   const ppk = mc.ppk;
 
   return (
-    <div className="space-y-4">
+    <>
       <Figures label="Headline figures">
         <Figure
           lead
@@ -115,7 +120,26 @@ export function StackResults({ result }: { result: RunResult }) {
         <StackCorrelationTerms a={a} format={f} />
         <AchievedCorrelations result={result} names={new Map(s.contributors.map((c) => [c.id, c.name]))} />
       </section>
+    </>
+  );
+}
 
+const StackCharts = memo(function StackCharts({ result }: { result: RunResult }) {
+  const s = result.stack!;
+  const gap = result.outputs[0];
+  const unit = s.analytic.unit;
+  const mc = s.monteCarlo;
+  const f = outputFormat(unit, mc.sd);
+  const limits = useMemo(() => limitsOf(gap), [gap]);
+  const outShare = useMemo(() => outShareOf(gap), [gap]);
+  const drivers = useMemo(() => s.contributors.map((c) => ({ id: c.id, label: c.name, share: c.analyticShare, correlation: c.spearman })), [s.contributors]);
+  const markers = useMemo(() => (mc.mean !== null ? [{ value: mc.mean, label: `Mean ${f(mc.mean)}`, kind: 'mean' as const }] : []), [mc.mean, f]);
+  const outLabels = useMemo(() => outLabelsOf(gap, 'ppm'), [gap]);
+  const percentiles = useMemo(() => gap.percentiles.filter((p) => [0.1, 0.5, 0.8, 0.9].includes(p.p)).map((p) => ({ p: p.p, value: p.value })), [gap.percentiles]);
+  const allPercentiles = useMemo(() => gap.percentiles.map((p) => ({ p: p.p, value: p.value })), [gap.percentiles]);
+  const candidates = useMemo(() => s.contributors.map((c) => ({ id: c.id, label: c.name, unit })), [s.contributors, unit]);
+
+  return (
       <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
         <SpreadChart className="xl:col-span-2" name={gap.label} unit={unit} bins={gap.histogram} total={gap.valid} limits={limits} markers={markers} outLabels={outLabels} outShare={outShare} />
         <CumulativeChart name={gap.label} unit={unit} ecdf={gap.ecdf} percentiles={percentiles} tablePercentiles={allPercentiles} limits={limits} />
@@ -130,6 +154,5 @@ export function StackResults({ result }: { result: RunResult }) {
           <ScatterPanel result={result} output={gap} limits={limits} candidates={candidates} />
         </div>
       </div>
-    </div>
   );
-}
+});

@@ -1,6 +1,6 @@
 'use client';
 
-import { useCallback, useEffect, useMemo, useState, useSyncExternalStore } from 'react';
+import { useCallback, useEffect, useLayoutEffect, useMemo, useState, useSyncExternalStore } from 'react';
 import type { SampleSelection } from '@/lib/core/engine/simulate';
 import type { CheckedModel } from '@/lib/core/engine/checked-model';
 import { SimulationController, type RunClient, type SimulationSnapshot } from './simulation-controller';
@@ -42,7 +42,8 @@ export function useSimulation(model: CheckedModel | null, dialValues: Record<str
   // Identity of the inputs: their JSON, computed only when the objects change.
   const key = useMemo(() => (model == null || !enabled ? null : JSON.stringify([model, dialValues ?? {}, samples])), [model, dialValues, enabled, samples]);
 
-  useEffect(() => {
+  // Before the paint, not after it: the workers start on the change while the page paints.
+  useLayoutEffect(() => {
     if (key === null) controller.setInputs(null, undefined, 'none');
     else controller.setInputs(model, dialValues, key, samples);
     // model and dialValues are captured with their key.

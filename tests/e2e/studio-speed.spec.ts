@@ -72,6 +72,7 @@ test('a 20-contributor stack at 50,000 trials: each edit reaches the figures (ti
   const longTasks: number[] = [];
   const times: number[] = [];
   const runs: number[] = [];
+  const steps: Record<'editValid' | 'runStart' | 'partsIn' | 'headline' | 'done', number | null>[] = [];
   const nominals = [...BASE];
   for (let i = 0; i < 9; i++) {
     const part = 2 + (i % 19);
@@ -96,6 +97,17 @@ test('a 20-contributor stack at 50,000 trials: each edit reaches the figures (ti
       return w.__doneAt - w.__lastInput;
     });
     times.push(ms);
+    // Where this edit's time went, from the marks the page sets at each step (components/results/step-marks.ts).
+    steps.push(
+      await page.evaluate(() => {
+        const w = window as unknown as { __doneAt: number; __lastInput: number };
+        const at = (name: string) => {
+          const m = performance.getEntriesByName(`stochos:${name}`, 'mark').at(-1);
+          return m && m.startTime >= w.__lastInput && m.startTime <= w.__doneAt ? m.startTime - w.__lastInput : null;
+        };
+        return { editValid: at('edit-valid'), runStart: at('run-start'), partsIn: at('parts-in'), headline: at('headline'), done: w.__doneAt - w.__lastInput };
+      }),
+    );
     longTasks.push(
       await page.evaluate(() => {
         const w = window as unknown as { __doneAt: number; __lastInput: number; __long: { start: number; end: number }[] };
@@ -111,6 +123,19 @@ test('a 20-contributor stack at 50,000 trials: each edit reaches the figures (ti
   const sorted = [...times].sort((a, b) => a - b);
   const median = sorted[Math.floor(sorted.length / 2)]!;
   const runSorted = [...runs].sort((a, b) => a - b);
+  // Median of each step's duration: keystroke -> valid model -> run started -> workers' parts in -> headline merged -> shown.
+  const medianOf = (xs: (number | null)[]) => {
+    const v = xs.filter((x): x is number => x !== null).sort((a, b) => a - b);
+    return v.length ? Math.round(v[Math.floor(v.length / 2)]! * 10) / 10 : null;
+  };
+  const gap = (a: keyof (typeof steps)[number] | null, b: keyof (typeof steps)[number]) => medianOf(steps.map((s) => (s[b] === null || (a !== null && s[a] === null) ? null : s[b]! - (a ? s[a]! : 0))));
+  const breakdownMs = {
+    check: gap(null, 'editValid'),
+    render: gap('editValid', 'runStart'),
+    workers: gap('runStart', 'partsIn'),
+    merge: gap('partsIn', 'headline'),
+    paint: gap('headline', 'done'),
+  };
   const report = {
     contributors: 20,
     trials: 50_000,
@@ -121,6 +146,9 @@ test('a 20-contributor stack at 50,000 trials: each edit reaches the figures (ti
     timesMs: times.map(Math.round),
     workerRunMedianMs: runSorted.length ? Math.round(runSorted[Math.floor(runSorted.length / 2)]!) : null,
     workerRunsMs: runs.map(Math.round),
+    // Medians of the steps (ms): the editor's check of the keystroke, the page's render until the run starts, the
+    // workers until every part is in, the headline merge, and the render until the figures show.
+    breakdownMs,
     // Page-thread long tasks between the keystroke and the figures, per edit.
     pageLongTasksMs: longTasks.map(Math.round),
   };

@@ -9,7 +9,7 @@ import { ChunkRunner, prepareRunWith } from './chunks';
 import { ModelValidationError, SamplingError } from './errors';
 import { yieldToEventLoop } from './yield';
 import type { ModelCheck } from './set-dials';
-import { partTransferList, type WorkerChunksRequest, type WorkerErrorPayload, type WorkerRequest, type WorkerResponse } from './worker-protocol';
+import { checkedRunCheck, partTransferList, type WorkerChunksRequest, type WorkerErrorPayload, type WorkerRequest, type WorkerResponse } from './worker-protocol';
 
 interface WorkerScope {
   postMessage(message: WorkerResponse, transfer?: Transferable[]): void;
@@ -46,7 +46,7 @@ export function serveChunks(check: ModelCheck, load?: (model: unknown) => Promis
           return;
         }
       }
-      const prep = prepareRunWith(check, req.model, req.dialValues);
+      const prep = prepareRunWith(checkedRunCheck(check, req.model), req.model, req.dialValues);
       runner.beginRun();
       for (const k of req.chunkIndices) {
         if (me.cancelled) {

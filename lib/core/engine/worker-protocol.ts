@@ -7,6 +7,18 @@
 import type { ChunkPart } from './chunks';
 import type { CheckedModel } from './checked-model';
 import type { ModelIssue } from './errors';
+import type { ModelCheck } from './set-dials';
+
+/**
+ * `check` for a run of a model checked before (a CheckedModel, as the protocol carries): the model passes as it is,
+ * and so does the copy setDials makes of a model without dials; a copy with dial values applied is checked. The
+ * page and each worker of the studio would otherwise parse the model twice per run.
+ */
+export function checkedRunCheck(check: ModelCheck, model: CheckedModel): ModelCheck {
+  if (!check) return null;
+  const noDials = !model.dials?.length;
+  return (input) => (input === model || noDials ? { ok: true, model: input as CheckedModel, issues: [] } : check(input));
+}
 
 export interface WorkerChunksRequest {
   type: 'chunks';
