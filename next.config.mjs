@@ -24,6 +24,9 @@ const stdlibBuiltins = {
 const nextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
+  // Browser source maps only on request, to see which module the embed page's bytes come from
+  // (`node tests/bench/embed-weight.mjs --modules`); a normal build serves none.
+  productionBrowserSourceMaps: process.env.STOCHOS_BROWSER_SOURCE_MAPS === '1',
   turbopack: {
     resolveAlias: Object.fromEntries(Object.entries(stdlibBuiltins).map(([pkg, file]) => [`@stdlib/${pkg}`, { browser: `./node_modules/@stdlib/${pkg}/${file}` }])),
   },

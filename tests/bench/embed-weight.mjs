@@ -1,5 +1,8 @@
 // What the embed page's JavaScript is made of, from the production build (`npm run build` first):
-//   node tests/bench/embed-weight.mjs [--json]
+//   node tests/bench/embed-weight.mjs [--json] [--modules]
+// --modules: the bytes of each source module, summed by area (React, Next's router, the engine, the charts, ...), and
+// any module that ships in more than one chunk. It reads the browser source maps, which a build writes only when asked:
+//   STOCHOS_BROWSER_SOURCE_MAPS=1 npm run build && node tests/bench/embed-weight.mjs --modules
 // Lists every chunk the /embed/[passId] page loads and every chunk its web worker loads (followed through the
 // worker bootstrap), with raw and gzip sizes and what each holds, recognised by strings the libraries carry.
 // The Chromium check tests/e2e/embed-perf.spec.ts measures the same thing on the wire; this one needs no browser,
@@ -58,6 +61,75 @@ while (queue.length) {
   for (const m of src.matchAll(/static\/chunks\/[\w.-]+\.js/g)) if (!seen.has(m[0])) queue.push(m[0]);
 }
 
+// Where each generated character comes from, by the chunk's source map (index maps with sections, as Turbopack writes
+// them, or plain ones): [source, text] pieces. Null when the build wrote no map.
+const B64 = Object.fromEntries([...'ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/'].map((c, i) => [c, i]));
+function vlq(str) {
+  const out = [];
+  let v = 0;
+  let shift = 0;
+  for (const ch of str) {
+    const d = B64[ch];
+    v += (d & 31) << shift;
+    if (d & 32) shift += 5;
+    else {
+      out.push(v & 1 ? -(v >>> 1) : v >>> 1);
+      v = 0;
+      shift = 0;
+    }
+  }
+  return out;
+}
+function sourcePieces(file, src) {
+  const ref = /sourceMappingURL=(\S+)\s*$/.exec(src);
+  const mapFile = ref && path.join(path.dirname(path.join(next, file)), ref[1]);
+  if (!mapFile || !fs.existsSync(mapFile)) return null;
+  const map = JSON.parse(fs.readFileSync(mapFile, 'utf8'));
+  const lineStart = [0];
+  for (let i = 0; i < src.length; i++) if (src.charCodeAt(i) === 10) lineStart.push(i + 1);
+  const marks = [];
+  const read = (m, line0, col0) => {
+    let src0 = 0;
+    m.mappings.split(';').forEach((line, li) => {
+      let col = 0;
+      for (const seg of line.split(',')) {
+        if (!seg) continue;
+        const f = vlq(seg);
+        col += f[0];
+        if (f.length > 1) src0 += f[1];
+        const at = lineStart[line0 + li] + (li === 0 ? col0 : 0) + col;
+        marks.push([at, f.length > 1 ? m.sources[src0] : null]);
+      }
+    });
+  };
+  if (map.sections) for (const s of map.sections) read(s.map, s.offset.line, s.offset.column);
+  else read(map, 0, 0);
+  marks.sort((a, b) => a[0] - b[0]);
+  const text = new Map();
+  marks.forEach(([at, source], i) => {
+    const name = (source ?? '(chunk wrapper)').replace(/^turbopack:\/\/\/\[project\]\//, '');
+    text.set(name, (text.get(name) ?? '') + src.slice(at, i + 1 < marks.length ? marks[i + 1][0] : src.length));
+  });
+  return text;
+}
+// A module's share of its chunk's gzip size: its own text compressed alone, scaled so a chunk's modules add up to it.
+function moduleShares(src, gzip, pieces) {
+  const alone = [...pieces].map(([name, text]) => [name, zlib.gzipSync(text, { level: 6 }).length]);
+  const sum = alone.reduce((s, [, g]) => s + g, 0);
+  return alone.map(([name, g]) => ({ name, gzip: (g * gzip) / sum }));
+}
+const AREAS = [
+  ['React (react-dom, react, its RSC client, scheduler)', /compiled\/(react|react-dom|react-server-dom-turbopack|scheduler)\//],
+  ['Next router and runtime', /node_modules\/next\/|\[turbopack|@swc\/helpers/],
+  ['engine (lib/core/engine)', /^lib\/core\/engine\//],
+  ['engine maths (@stdlib, seedrandom)', /node_modules\/(@stdlib|seedrandom)\//],
+  ['charts (lib/core/charts, components/charts, d3)', /^(lib\/core\/charts|components\/charts)\/|node_modules\/d3-/],
+  ['results (headline, cautions, simulation)', /^(lib\/core\/results|lib\/core\/cautions|components\/results)/],
+  ['widget and embed page', /^(components\/(widget|embed|snapshots)|lib\/core\/widget|lib\/client)\//],
+  ['shared UI and error pages', /^(components\/(ui|segments)|app)\//],
+];
+const areaOf = (name) => AREAS.find(([, re]) => re.test(name))?.[0] ?? (name.startsWith('node_modules/') ? name.split('/').slice(1, name[13] === '@' ? 3 : 2).join('/') : 'other');
+
 const rows = [...seen].map(([file, { via, src }]) => ({
   file,
   loadedBy: via === 'page' && workerAll.has(file) ? 'both' : via,
@@ -66,6 +138,38 @@ const rows = [...seen].map(([file, { via, src }]) => ({
   holds: MARKERS.filter(([, re]) => re.test(src)).map(([name]) => name),
 }));
 rows.sort((a, b) => b.gzip - a.gzip);
+
+if (process.argv.includes('--modules')) {
+  const byModule = new Map();
+  let mapped = 0;
+  for (const r of rows) {
+    if (r.loadedBy === 'lazy') continue;
+    const src = seen.get(r.file).src;
+    const pieces = sourcePieces(r.file, src);
+    if (!pieces) continue;
+    mapped++;
+    for (const m of moduleShares(src, r.gzip, pieces)) {
+      const e = byModule.get(m.name) ?? { gzip: 0, chunks: [] };
+      e.gzip += m.gzip;
+      e.chunks.push(r.file);
+      byModule.set(m.name, e);
+    }
+  }
+  if (!mapped) {
+    console.log('No source maps in this build: run `STOCHOS_BROWSER_SOURCE_MAPS=1 npm run build` first.');
+  } else {
+    const areas = new Map();
+    for (const [name, e] of byModule) areas.set(areaOf(name), (areas.get(areaOf(name)) ?? 0) + e.gzip);
+    console.log('What loads with the page and its workers, by area (gzip; a module counts for its share of its chunk):');
+    for (const [a, g] of [...areas].sort((x, y) => y[1] - x[1])) console.log(`${(g / 1024).toFixed(1).padStart(6)} KiB  ${a}`);
+    console.log('Largest modules:');
+    for (const [name, e] of [...byModule].sort((x, y) => y[1].gzip - x[1].gzip).slice(0, 40)) console.log(`${(e.gzip / 1024).toFixed(2).padStart(7)} KiB  ${name}`);
+    const twice = [...byModule].filter(([name, e]) => e.chunks.length > 1 && name !== '(chunk wrapper)');
+    console.log(twice.length ? `In more than one chunk (fetched twice): ${twice.map(([n, e]) => `${n} (${e.chunks.length})`).join(', ')}` : 'No module ships in more than one chunk.');
+    console.log('');
+  }
+}
+
 const total = rows.reduce((s, r) => s + r.gzip, 0);
 const upFront = rows.filter((r) => r.loadedBy !== 'lazy').reduce((s, r) => s + r.gzip, 0);
 const report = { route, files: rows.length, gzipBytes: total, gzipKiB: +(total / 1024).toFixed(1), byFile: rows };

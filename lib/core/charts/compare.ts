@@ -2,10 +2,10 @@
 // spreads are told apart by line style and a legend, never by colour alone: the current view solid and blue,
 // the pinned view dashed and dark, each named in the legend and in the text alternative. Pure geometry: the
 // widget draws the scene as SVG, the PDF snapshot through svg-string.ts.
-import { line as d3line } from 'd3-shape';
 import { coveringDomain, linear, linearAxis, makeBox, percentAxis, xTickCount, yTickCount } from './axis';
 import { ecdfAt, quantileAt, thinEcdf, type EcdfPoints } from './cumulative';
 import { axesNodes, translate } from './frame';
+import { linePath } from './polyline';
 import { formatPercent, formatValue } from './format';
 import { chartColors } from './palette';
 import { r2, textWidth, type Scene, type SceneNode } from './scene';
@@ -87,14 +87,11 @@ export function compareCurvesScene(input: CompareInput): Scene {
   const nodes: SceneNode[] = [];
   const axes = axesNodes(box, linearAxis(x, xTickCount(box.innerWidth, input.unit), input.name, input.unit), percentAxis(y, yTickCount(box.innerHeight), 'Chance of not exceeding'));
   nodes.push(...axes, ...limitNodes(input.limits, x, box.innerHeight, xDomain));
-  const lineGen = d3line<{ value: number; p: number }>()
-    .x((d) => r2(x(d.value)))
-    .y((d) => r2(y(d.p)));
   // Pinned first, current on top: where the curves coincide the solid line shows, the dashes stay visible beside it.
   for (const key of ['pinned', 'current'] as const) {
     const s = COMPARE_STYLES[key];
     const pts = thinEcdf(input[key].ecdf, xDomain[1] - xDomain[0], box.innerWidth);
-    if (pts.length) nodes.push({ type: 'path', key: `curve-${key}`, d: lineGen(pts) ?? '', stroke: s.stroke, strokeWidth: s.width, dash: s.dash, strokeLinejoin: 'round' });
+    if (pts.length) nodes.push({ type: 'path', key: `curve-${key}`, d: linePath(pts.map((d) => [r2(x(d.value)), r2(y(d.p))] as const)), stroke: s.stroke, strokeWidth: s.width, dash: s.dash, strokeLinejoin: 'round' });
   }
   // The legend starts at the chart's left edge, above the plot.
   nodes.push({ type: 'group', key: 'legend', children: lg.nodes, dx: -margin.left + 8, dy: -lg.height - 4 });

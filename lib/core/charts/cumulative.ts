@@ -1,8 +1,8 @@
-import { line as d3line, area as d3area } from 'd3-shape';
 import { coveringDomain, linear, linearAxis, makeBox, percentAxis, xTickCount, type Axis, type Box } from './axis';
 import { axesNodes, translate, type SceneText } from './frame';
 import { formatPercent, formatValue, percentileName } from './format';
 import { placeLabels, rowCount, type PlacedLabel } from './labels';
+import { areaPath as closedArea, linePath } from './polyline';
 import { chartColors } from './palette';
 import { r2, textWidth, type Scene, type SceneNode } from './scene';
 import { outPatterns, PATTERN_OUT_ZONE, type LimitLine, type MarkerKind, type OutRegion, type SpecLimits, type ValueMarker } from './spread';
@@ -176,15 +176,9 @@ export function cumulativeGeometry(input: CumulativeInput): CumulativeGeometry {
   const box = makeBox(width, plotHeight + margin.top + margin.bottom, margin);
   const y = linear([0, 1], [box.innerHeight, 0]);
 
-  const lineGen = d3line<CurvePoint>()
-    .x((d) => r2(x(d.value)))
-    .y((d) => r2(y(d.p)));
-  const areaGen = d3area<CurvePoint>()
-    .x((d) => r2(x(d.value)))
-    .y0(box.innerHeight)
-    .y1((d) => r2(y(d.p)));
-  const path = points.length ? (lineGen(points) ?? '') : '';
-  const areaPath = points.length ? (areaGen(points) ?? '') : '';
+  const xy = points.map((d) => [r2(x(d.value)), r2(y(d.p))] as const);
+  const path = linePath(xy);
+  const areaPath = closedArea(xy, box.innerHeight);
 
   // Percentile labels sit on their horizontal drop line, near the y axis: left of its point a rising
   // curve is always below that line, so the label never crosses the curve. When the point is too close
