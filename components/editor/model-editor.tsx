@@ -33,6 +33,8 @@ export interface ModelEditorProps {
 
 /** How long typing must pause before problems are shown at the fields (a valid change reaches the preview at once). */
 const VALIDATE_DELAY_MS = 120;
+/** Longest check of a keystroke that may run on every keystroke of a burst (ms); a slower one runs on the first only. */
+const QUICK_CHECK_BUDGET_MS = 8;
 
 /** The model as form values: lists present, and the schema's defaults filled in where a select shows them. */
 function toFormValues(model: CheckedModel | ModelDraft): ModelDraft {
@@ -194,12 +196,21 @@ export function ModelEditor({ value, onChange, readOnly = false, errors }: Model
   // fields only once typing pauses. Synchronous, and apart from the field check's state (parsed, latestErrors). The
   // resolver parses, then runs validateModel on the result; the schema has defaults and refinements but no
   // transforms, so one validateModel gives the same model.
+  // A large model makes the check slow: then only the first keystroke of a burst is checked at once, and the rest
+  // wait for typing to pause as before, so typing never drags.
+  const quickMs = useRef(0);
+  const lastChangeAt = useRef(-Infinity);
   const quickCheck = useCallback(() => {
+    const now = performance.now();
+    const inBurst = now - lastChangeAt.current < VALIDATE_DELAY_MS;
+    lastChangeAt.current = now;
+    if (inBurst && quickMs.current > QUICK_CHECK_BUDGET_MS) return;
     if (Object.keys(localRef.current).length) return;
     const values = form.getValues();
     const raw = JSON.stringify(values);
     if (raw === baseline.current.raw) return;
     const checked = validateModel(values);
+    quickMs.current = performance.now() - now;
     if (!checked.ok) return;
     baseline.current = { raw, valid: true };
     lastSeen.current = JSON.stringify(checked.model);

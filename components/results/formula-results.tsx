@@ -1,6 +1,6 @@
 'use client';
 
-import { useMemo, useState } from 'react';
+import { memo, useDeferredValue, useMemo, useState } from 'react';
 import type { OutputSummary, RunResult } from '@/lib/core/engine';
 import { formatFixed, formatPercent, formatPpm } from '@/lib/core/charts/format';
 import { CumulativeChart } from '@/components/charts/cumulative-chart';
@@ -11,7 +11,19 @@ import { Term } from '@/components/ui/term';
 import { Figure, Figures } from './figures';
 import { fv, limitsOf, outLabelsOf, outputFormat, ScatterPanel, outShareOf } from './shared';
 
+/** One output's figures, then its charts from a deferred copy of the result (an edit paints the figures first). */
 function OutputResults({ result, output }: { result: RunResult; output: OutputSummary }) {
+  const deferred = useDeferredValue(result);
+  const later = deferred.outputs.find((o) => o.id === output.id);
+  return (
+    <div className="space-y-4">
+      <OutputPart result={result} output={output} part="figures" />
+      {later ? <OutputPart result={deferred} output={later} part="charts" /> : null}
+    </div>
+  );
+}
+
+const OutputPart = memo(function OutputPart({ result, output, part }: { result: RunResult; output: OutputSummary; part: 'figures' | 'charts' }) {
   const unit = output.unit;
   const l = output.limits;
   const f = outputFormat(unit, output.sd);
@@ -31,8 +43,8 @@ function OutputResults({ result, output }: { result: RunResult; output: OutputSu
     return rank(a.id) - rank(b.id);
   }), [result.inputs, output.drivers.items]);
 
-  return (
-    <div className="space-y-4">
+  if (part === 'figures')
+    return (
       <Figures label={`Headline figures for ${output.label}`}>
         {l ? (
           <Figure
@@ -73,17 +85,18 @@ function OutputResults({ result, output }: { result: RunResult; output: OutputSu
           <Figure label="Range of trials" value={<span className="text-lg">{`${f(output.min)} to ${f(output.max)}`}</span>} sub="Smallest and largest valid trial" />
         )}
       </Figures>
-      <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
-        <SpreadChart className="xl:col-span-2" name={output.label} unit={unit} bins={output.histogram} total={output.valid} limits={limits} markers={markers} outLabels={outLabels} outShare={outShare} />
-        <CumulativeChart name={output.label} unit={unit} ecdf={output.ecdf} percentiles={percentiles} tablePercentiles={allPercentiles} limits={limits} />
-        <DriversChart name={output.label} drivers={drivers} />
-        <div className="xl:col-span-2">
-          <ScatterPanel result={result} output={output} limits={limits} candidates={candidates} />
-        </div>
+    );
+  return (
+    <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
+      <SpreadChart className="xl:col-span-2" name={output.label} unit={unit} bins={output.histogram} total={output.valid} limits={limits} markers={markers} outLabels={outLabels} outShare={outShare} />
+      <CumulativeChart name={output.label} unit={unit} ecdf={output.ecdf} percentiles={percentiles} tablePercentiles={allPercentiles} limits={limits} />
+      <DriversChart name={output.label} drivers={drivers} />
+      <div className="xl:col-span-2">
+        <ScatterPanel result={result} output={output} limits={limits} candidates={candidates} />
       </div>
     </div>
   );
-}
+});
 
 /** Results of a formula model: one tab per output (the first with limits opens first). */
 export function FormulaResults({ result }: { result: RunResult }) {

@@ -140,19 +140,19 @@ const StackCharts = memo(function StackCharts({ result }: { result: RunResult })
   const candidates = useMemo(() => s.contributors.map((c) => ({ id: c.id, label: c.name, unit })), [s.contributors, unit]);
 
   return (
-      <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
-        <SpreadChart className="xl:col-span-2" name={gap.label} unit={unit} bins={gap.histogram} total={gap.valid} limits={limits} markers={markers} outLabels={outLabels} outShare={outShare} />
-        <CumulativeChart name={gap.label} unit={unit} ecdf={gap.ecdf} percentiles={percentiles} tablePercentiles={allPercentiles} limits={limits} />
-        <DriversChart
-          name={gap.label}
-          drivers={drivers}
-          title="Contributors by share of variance"
-          shareLabel="Share of variance (σᵢ² / Σσ²)"
-          caption={`Contributors ranked by their share of the ${gap.label.toLowerCase()}'s variance under the chosen distributions. An up arrow means a larger dimension widens the ${gap.label.toLowerCase()}; a down arrow means it narrows it.`}
-        />
-        <div className="xl:col-span-2">
-          <ScatterPanel result={result} output={gap} limits={limits} candidates={candidates} />
-        </div>
+    <div className="grid grid-cols-1 gap-4 xl:grid-cols-2">
+      <SpreadChart className="xl:col-span-2" name={gap.label} unit={unit} bins={gap.histogram} total={gap.valid} limits={limits} markers={markers} outLabels={outLabels} outShare={outShare} />
+      <CumulativeChart name={gap.label} unit={unit} ecdf={gap.ecdf} percentiles={percentiles} tablePercentiles={allPercentiles} limits={limits} />
+      <DriversChart
+        name={gap.label}
+        drivers={drivers}
+        title="Contributors by share of variance"
+        shareLabel="Share of variance (σᵢ² / Σσ²)"
+        caption={`Contributors ranked by their share of the ${gap.label.toLowerCase()}'s variance under the chosen distributions. An up arrow means a larger dimension widens the ${gap.label.toLowerCase()}; a down arrow means it narrows it.`}
+      />
+      <div className="xl:col-span-2">
+        <ScatterPanel result={result} output={gap} limits={limits} candidates={candidates} />
       </div>
+    </div>
   );
 });
