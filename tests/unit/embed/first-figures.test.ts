@@ -22,6 +22,15 @@ const quiet = () => undefined;
 /** Everything a run reproduces: the wall-clock timing is not part of the result. */
 const reproducible = (r: RunResult) => JSON.parse(encodeRunResult({ ...r, timing: { samplingMs: 0, statisticsMs: 0, totalMs: 0 } })) as unknown;
 
+/** Where two JSON values differ (paths and both sides), for a readable failure. */
+function differences(a: unknown, b: unknown, path = '', out: string[] = []): string[] {
+  if (out.length >= 10) return out;
+  if (a && b && typeof a === 'object' && typeof b === 'object') {
+    for (const k of new Set([...Object.keys(a), ...Object.keys(b)])) differences((a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k], `${path}.${k}`, out);
+  } else if (JSON.stringify(a) !== JSON.stringify(b)) out.push(`${path}: ${JSON.stringify(a)} ≠ ${JSON.stringify(b)}`);
+  return out;
+}
+
 async function versionOf(widgetId: string): Promise<string> {
   return (await getDb()('widgets').where({ id: widgetId }).first('version_id')).version_id as string;
 }
@@ -72,7 +81,7 @@ describe('first figures', () => {
     expect(stored).not.toBeNull();
     const fromServer = decodeRunResult(JSON.parse(stored!.resultJson));
     const inNode = runCheckedModelSync(STACK_MODEL, { samples: 'none' });
-    expect(reproducible(fromServer)).toEqual(reproducible(inNode));
+    expect(differences(reproducible(fromServer), reproducible(inNode))).toEqual([]);
     expect(fromServer.run.dialValues).toEqual(Object.fromEntries(STACK_MODEL.dials.map((d) => [d.id, d.default])));
   });
 
