@@ -435,6 +435,10 @@ export class ChunkRunner {
 
 /** Moments of the finite values of an output chunk and the counts of the others. */
 function finiteMoments(col: Float64Array): OutputChunkStats {
+  // A finite mean means every value is finite (a NaN or an infinity would carry into the sum), which is the
+  // common case: then the counting pass below would find nothing and compute these same moments.
+  const all = momentsOf(col);
+  if (all.mean - all.mean === 0) return { ...all, nan: 0, positiveInfinity: 0, negativeInfinity: 0 };
   let nan = 0;
   let pinf = 0;
   let ninf = 0;

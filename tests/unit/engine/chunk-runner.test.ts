@@ -61,3 +61,27 @@ describe('ChunkRunner reusing columns outside the input window', () => {
     expect(result(reused, model)).toBe(result(new ChunkRunner(), model));
   });
 });
+
+describe('output statistics of a chunk', () => {
+  it('count no invalid trial when every value is finite but their sum overflows', () => {
+    const model = {
+      schema: 'stochos.model/1',
+      template: 'formula',
+      title: 'Huge values',
+      settings: { trials: 3000, seed: 'huge' },
+      inputs: [{ id: 'x', name: 'X', distribution: { type: 'uniform', min: 1, max: 1.5 } }],
+      outputs: [
+        { id: 'big', name: 'Big', formula: 'x * 1e308' },
+        { id: 'mixed', name: 'Mixed', formula: 'if(x < 1.1, 1 / 0, x)' },
+      ],
+    };
+    const prep = prepareRun(model);
+    const [part] = new ChunkRunner().run(prep, [0]);
+    expect(part.outputs.big.every((v) => Number.isFinite(v))).toBe(true);
+    expect(part.outputMoments.big).toMatchObject({ n: 3000, nan: 0, positiveInfinity: 0, negativeInfinity: 0 });
+    const inf = part.outputs.mixed.filter((v) => v === Infinity).length;
+    expect(inf).toBeGreaterThan(100);
+    expect(part.outputMoments.mixed).toMatchObject({ n: 3000 - inf, nan: 0, positiveInfinity: inf, negativeInfinity: 0 });
+    expect(Number.isFinite(part.outputMoments.mixed.mean)).toBe(true);
+  });
+});
