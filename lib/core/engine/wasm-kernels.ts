@@ -5,7 +5,7 @@
  * SIMD, a Content-Security-Policy without 'wasm-unsafe-eval'), so a result never depends
  * on which one ran.
  *
- * One instance per thread, compiled synchronously on first use (the module is under 1 KB,
+ * One instance per thread, compiled synchronously on first use (the module is about 1.2 KB,
  * so no thread needs to wait for it). Its memory is scratch space: a caller takes views
  * with workspace(), which may grow the memory (old views then go stale), fills them, calls
  * the kernel and reads the results before anything else asks for the workspace.
