@@ -1,5 +1,6 @@
 /**
- * Engine benchmark: `npm run bench` (add `-- --json` for one JSON object on the last line).
+ * Engine benchmark: `npm run bench` (add `-- --json` for one JSON object on the last line; `-- --r1` for only
+ * the R1 rows that compare with NumPy: parallel, single thread and NumPy, back to back).
  * Every figure is the median of 5 timed runs after a warm-up run, in this Node process.
  *
  *  - draws per second for each distribution and sampling method;

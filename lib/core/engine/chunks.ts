@@ -273,6 +273,9 @@ export const CACHE_LIMIT_VALUES = 8_000_000;
 
 const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
+/** Most spare columns a runner keeps (CHUNK_SIZE values each). */
+const SPARE_COLUMNS = 64;
+
 /** Moments of input columns, computed once per column (cached columns are reused across runs). */
 const momentsByColumn = new WeakMap<Float64Array, Moments>();
 
@@ -285,6 +288,12 @@ const momentsByColumn = new WeakMap<Float64Array, Moments>();
 export class ChunkRunner {
   private readonly cache = new Map<string, CacheEntry>();
   private generation = 0;
+  /**
+   * Full-chunk columns no part refers to (inputs and derived columns of chunks outside the input
+   * window, when nothing is cached), reused for the next chunks instead of allocating (and later
+   * collecting) a new one per input and chunk. Every sampler and formula writes all of a column.
+   */
+  private readonly spare: Float64Array[] = [];
   constructor(private readonly options: { cache?: boolean } = {}) {}
 
   /** Start a new run: columns unused in the last three runs are dropped. */
@@ -319,6 +328,8 @@ export class ChunkRunner {
     const { start, count } = chunkRange(settings.trials, k);
     const ctx: SamplerContext = { seed: settings.seed, design: settings.design, normalMethod: settings.normalMethod, trials: count, chunk: k };
     const useCache = this.caching(prep);
+    const spare = this.spare;
+    const column = (n: number) => (!useCache && n === CHUNK_SIZE && spare.length ? (spare.pop() as Float64Array) : new Float64Array(n));
     const cols = new Map<string, Float64Array>();
     const rejection: ChunkPart['rejection'] = {};
     const keyOf = (sig: string) => `${k}|${count}|${sig}`;
@@ -329,7 +340,7 @@ export class ChunkRunner {
         let e = useCache ? this.lookup(key) : undefined;
         if (!e) {
           const sampler = createColumnSampler(u.marginal, ctx, u.streamId, u.id);
-          const col = new Float64Array(count);
+          const col = column(count);
           sampler.fill(col, 0, count);
           const rep = sampler.report();
           e = { columns: [col], rejection: [rep.method === 'rejection' ? { attempts: rep.attempts ?? 0, accepted: rep.accepted ?? 0 } : null], used: this.generation };
@@ -341,7 +352,7 @@ export class ChunkRunner {
         const hits = u.signatures.map((sig) => (useCache ? this.lookup(keyOf(sig)) : undefined));
         if (hits.some((h) => !h)) {
           // Fill only the members whose law changed; the others keep their cached columns.
-          const fresh = hits.map((h) => (h ? null : new Float64Array(count)));
+          const fresh = hits.map((h) => (h ? null : column(count)));
           new CopulaGroupSampler(u.marginals, u.matrix, ctx, u.streamIds, u.root ?? undefined).fill(fresh, 0, count);
           fresh.forEach((col, i) => {
             if (!col) return;
@@ -358,7 +369,7 @@ export class ChunkRunner {
           const reps: CacheEntry['rejection'] = [];
           const columns = u.ids.map((id, i) => {
             const sampler = createColumnSampler(u.marginals[i], ctx, u.streamIds[i], id);
-            const col = new Float64Array(count);
+            const col = column(count);
             sampler.fill(col, 0, count);
             const rep = sampler.report();
             reps.push(rep.method === 'rejection' ? { attempts: rep.attempts ?? 0, accepted: rep.accepted ?? 0 } : null);
@@ -381,7 +392,7 @@ export class ChunkRunner {
       scalar: (name: string) => (Object.prototype.hasOwnProperty.call(plan.scalars, name) ? plan.scalars[name] : null),
     };
     for (const d of plan.derived) {
-      const col = new Float64Array(count);
+      const col = column(count);
       compileFormula(d.ast, env).evaluate(col, 0, count);
       cols.set(d.id, col);
     }
@@ -406,6 +417,17 @@ export class ChunkRunner {
       const skip = new Set(options.skipInputs ?? []);
       for (const inp of plan.inputs) if (!skip.has(inp.id)) inputs[inp.id] = cols.get(inp.id) as Float64Array;
       for (const d of plan.derived) if (!skip.has(d.id)) inputs[d.id] = cols.get(d.id) as Float64Array;
+    } else if (!useCache && count === CHUNK_SIZE) {
+      // No part holds these columns and no cache keeps them: the next chunks may reuse them.
+      const kept = new Set(Object.values(outputs));
+      for (const id of [...plan.inputs.map((i) => i.id), ...plan.derived.map((d) => d.id)]) {
+        const col = cols.get(id) as Float64Array;
+        if (kept.has(col) || spare.length >= SPARE_COLUMNS) continue;
+        kept.add(col);
+        // Its moments were cached by identity; the column will hold other values.
+        momentsByColumn.delete(col);
+        spare.push(col);
+      }
     }
     return { index: k, start, count, outputs, inputs, outputMoments, inputMoments, rejection, ms: now() - t0 };
   }
@@ -413,6 +435,10 @@ export class ChunkRunner {
 
 /** Moments of the finite values of an output chunk and the counts of the others. */
 function finiteMoments(col: Float64Array): OutputChunkStats {
+  // A finite mean means every value is finite (a NaN or an infinity would carry into the sum), which is the
+  // common case: then the counting pass below would find nothing and compute these same moments.
+  const all = momentsOf(col);
+  if (all.mean - all.mean === 0) return { ...all, nan: 0, positiveInfinity: 0, negativeInfinity: 0 };
   let nan = 0;
   let pinf = 0;
   let ninf = 0;

@@ -57,8 +57,9 @@ interface CopulaRow {
 export class CopulaGroupSampler {
   private readonly rows: CopulaRow[];
   private readonly scores: ScoreSource[];
-  private readonly z: Float64Array[];
-  private readonly acc = new Float64Array(BLOCK);
+  /** The JavaScript path's score blocks and accumulator (made on first use: the wasm path has its own in the kernels' memory). */
+  private z: Float64Array[] | null = null;
+  private acc: Float64Array | null = null;
   private readonly q = new Float64Array(BLOCK);
   /** Every row's coefficients, and the byte address of each one's score block in the kernels' memory. */
   private readonly coefTable: Float64Array;
@@ -91,7 +92,6 @@ export class CopulaGroupSampler {
       row.js.forEach((j, g) => (this.offTable[row.first + g] = LAYOUT.scratch + (1 + j) * BLOCK_BYTES));
     }
     this.scores = streamIds.map((id) => scoreSourceFor(ctx, id));
-    this.z = marginals.map(() => new Float64Array(BLOCK));
   }
 
   get scoreMethod(): SamplingMethod {
@@ -110,14 +110,14 @@ export class CopulaGroupSampler {
 
   private fillWasm(k: Kernels, columns: (Float64Array | null)[], start: number, count: number): void {
     // Workspace: accumulator, one score block per member, coefficients (f64), their blocks' addresses (i32).
-    const members = this.z.length;
+    const members = this.rows.length;
     const terms = this.coefTable.length;
     const at = LAYOUT.scratch;
     const coefAt = at + (1 + members) * BLOCK_BYTES;
     const offAt = coefAt + 8 * terms;
     const buf = workspace(k, offAt + 4 * terms - at);
     const acc = new Float64Array(buf, at, BLOCK);
-    const Z = this.z.map((_, j) => new Float64Array(buf, at + (1 + j) * BLOCK_BYTES, BLOCK));
+    const Z = this.rows.map((_, j) => new Float64Array(buf, at + (1 + j) * BLOCK_BYTES, BLOCK));
     new Float64Array(buf, coefAt, terms).set(this.coefTable);
     new Int32Array(buf, offAt, terms).set(this.offTable);
     const qb = this.q;
@@ -137,9 +137,9 @@ export class CopulaGroupSampler {
 
   /** The same product in JavaScript (no WebAssembly on this thread). */
   private fillJs(columns: (Float64Array | null)[], start: number, count: number): void {
-    const accBuf = this.acc;
+    const accBuf = (this.acc ??= new Float64Array(BLOCK));
     const qb = this.q;
-    const Z = this.z;
+    const Z = (this.z ??= this.rows.map(() => new Float64Array(BLOCK)));
     for (let s = 0; s < count; s += BLOCK) {
       const c = Math.min(BLOCK, count - s);
       const base = start + s;

@@ -168,4 +168,81 @@
         (local.set $k (i32.add (local.get $k) (i32.const 1)))
         (br $draws)))
     (local.get $k))
+
+  ;; The two sums of the corrected two-pass moments (stats.ts, twoPassMoments) over n values at x:
+  ;; element k goes to partial sum k mod 8 (lanes of four f64x2 accumulators), the last n mod 8
+  ;; to a ninth summed one after another; the partials combine as
+  ;; ((v0 + v1) + (v2 + v3)), then lane 0 + lane 1, then + the ninth.
+  ;; sum: returns the sum of the values.
+  (func (export "sum") (param $x i32) (param $n i32) (result f64)
+    (local $p i32) (local $end i32) (local $tail f64)
+    (local $v0 v128) (local $v1 v128) (local $v2 v128) (local $v3 v128)
+    (local.set $end (i32.add (local.get $x) (i32.shl (i32.and (local.get $n) (i32.const -8)) (i32.const 3))))
+    (local.set $p (local.get $x))
+    (block $done
+      (loop $values
+        (br_if $done (i32.ge_u (local.get $p) (local.get $end)))
+        (local.set $v0 (f64x2.add (local.get $v0) (v128.load (local.get $p))))
+        (local.set $v1 (f64x2.add (local.get $v1) (v128.load offset=16 (local.get $p))))
+        (local.set $v2 (f64x2.add (local.get $v2) (v128.load offset=32 (local.get $p))))
+        (local.set $v3 (f64x2.add (local.get $v3) (v128.load offset=48 (local.get $p))))
+        (local.set $p (i32.add (local.get $p) (i32.const 64)))
+        (br $values)))
+    (local.set $end (i32.add (local.get $x) (i32.shl (local.get $n) (i32.const 3))))
+    (block $done
+      (loop $rest
+        (br_if $done (i32.ge_u (local.get $p) (local.get $end)))
+        (local.set $tail (f64.add (local.get $tail) (f64.load (local.get $p))))
+        (local.set $p (i32.add (local.get $p) (i32.const 8)))
+        (br $rest)))
+    (local.set $v0 (f64x2.add (f64x2.add (local.get $v0) (local.get $v1)) (f64x2.add (local.get $v2) (local.get $v3))))
+    (f64.add
+      (f64.add (f64x2.extract_lane 0 (local.get $v0)) (f64x2.extract_lane 1 (local.get $v0)))
+      (local.get $tail)))
+
+  ;; deviations: with d = x - mean, stores the sum of d (the correction) at out and returns the
+  ;; sum of d * d, both in the order described above.
+  (func (export "deviations") (param $x i32) (param $n i32) (param $mean f64) (param $out i32) (result f64)
+    (local $p i32) (local $end i32) (local $d f64) (local $tq f64) (local $tc f64)
+    (local $m v128) (local $e v128)
+    (local $q0 v128) (local $q1 v128) (local $q2 v128) (local $q3 v128)
+    (local $c0 v128) (local $c1 v128) (local $c2 v128) (local $c3 v128)
+    (local.set $m (f64x2.splat (local.get $mean)))
+    (local.set $end (i32.add (local.get $x) (i32.shl (i32.and (local.get $n) (i32.const -8)) (i32.const 3))))
+    (local.set $p (local.get $x))
+    (block $done
+      (loop $values
+        (br_if $done (i32.ge_u (local.get $p) (local.get $end)))
+        (local.set $e (f64x2.sub (v128.load (local.get $p)) (local.get $m)))
+        (local.set $q0 (f64x2.add (local.get $q0) (f64x2.mul (local.get $e) (local.get $e))))
+        (local.set $c0 (f64x2.add (local.get $c0) (local.get $e)))
+        (local.set $e (f64x2.sub (v128.load offset=16 (local.get $p)) (local.get $m)))
+        (local.set $q1 (f64x2.add (local.get $q1) (f64x2.mul (local.get $e) (local.get $e))))
+        (local.set $c1 (f64x2.add (local.get $c1) (local.get $e)))
+        (local.set $e (f64x2.sub (v128.load offset=32 (local.get $p)) (local.get $m)))
+        (local.set $q2 (f64x2.add (local.get $q2) (f64x2.mul (local.get $e) (local.get $e))))
+        (local.set $c2 (f64x2.add (local.get $c2) (local.get $e)))
+        (local.set $e (f64x2.sub (v128.load offset=48 (local.get $p)) (local.get $m)))
+        (local.set $q3 (f64x2.add (local.get $q3) (f64x2.mul (local.get $e) (local.get $e))))
+        (local.set $c3 (f64x2.add (local.get $c3) (local.get $e)))
+        (local.set $p (i32.add (local.get $p) (i32.const 64)))
+        (br $values)))
+    (local.set $end (i32.add (local.get $x) (i32.shl (local.get $n) (i32.const 3))))
+    (block $done
+      (loop $rest
+        (br_if $done (i32.ge_u (local.get $p) (local.get $end)))
+        (local.set $d (f64.sub (f64.load (local.get $p)) (local.get $mean)))
+        (local.set $tq (f64.add (local.get $tq) (f64.mul (local.get $d) (local.get $d))))
+        (local.set $tc (f64.add (local.get $tc) (local.get $d)))
+        (local.set $p (i32.add (local.get $p) (i32.const 8)))
+        (br $rest)))
+    (local.set $c0 (f64x2.add (f64x2.add (local.get $c0) (local.get $c1)) (f64x2.add (local.get $c2) (local.get $c3))))
+    (f64.store (local.get $out)
+      (f64.add
+        (f64.add (f64x2.extract_lane 0 (local.get $c0)) (f64x2.extract_lane 1 (local.get $c0)))
+        (local.get $tc)))
+    (local.set $q0 (f64x2.add (f64x2.add (local.get $q0) (local.get $q1)) (f64x2.add (local.get $q2) (local.get $q3))))
+    (f64.add
+      (f64.add (f64x2.extract_lane 0 (local.get $q0)) (f64x2.extract_lane 1 (local.get $q0)))
+      (local.get $tq)))
 )

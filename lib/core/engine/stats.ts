@@ -6,9 +6,11 @@ import { lgamma, normalSf } from './special';
 import { averageRanks, sortedCopy } from './sort';
 import { orderStatistics } from './select';
 import * as detMath from './det-math';
+import * as wasm from './wasm-kernels';
 
 // Bound once: module interop in some runtimes turns each imported call into a getter call.
 const { exp, ln } = detMath;
+const { LAYOUT: wasmLayout, wasmKernels, workspace } = wasm;
 
 /** The one pinned percentile definition (shown in the UI and the PDF). */
 export const PERCENTILE_DEFINITION = {
@@ -45,56 +47,101 @@ export function welford(values: Float64Array): { n: number; mean: number; varian
   return { n, mean: n > 0 ? mean : NaN, variance: n > 1 ? m2 / (n - 1) : NaN };
 }
 
+/** Columns up to this length have their moments taken in the wasm kernels (larger ones would grow its memory). */
+const MOMENTS_IN_WASM = 65_536;
+
 /**
  * Count, mean and sum of squared deviations by the corrected two-pass formula (Chan, Golub & LeVeque 1983): the
- * second pass removes the rounding left in the mean; no division per element. Each sum runs in four partial
- * sums (element k goes to sum k mod 4, the last n mod 4 elements to the first), combined as (s0 + s1) + (s2 + s3):
- * a fixed order, so the same on every engine, and four independent additions per step instead of a chain.
+ * second pass removes the rounding left in the mean; no division per element. Each sum runs in eight partial
+ * sums (element k goes to sum k mod 8, the last n mod 8 elements to a ninth, one after another), combined as
+ * ((p0 + p2) + (p4 + p6)) + ((p1 + p3) + (p5 + p7)) + p8: a fixed order, the same in the wasm SIMD kernels
+ * (kernels.wat: sum, deviations; four f64x2 accumulators) and here, so every engine gives the same bits.
  */
 export function twoPassMoments(values: Float64Array): { n: number; mean: number; m2: number } {
   const n = values.length;
-  const n4 = n - (n & 3);
-  let s0 = 0;
-  let s1 = 0;
-  let s2 = 0;
-  let s3 = 0;
-  for (let k = 0; k < n4; k += 4) {
-    s0 += values[k];
-    s1 += values[k + 1];
-    s2 += values[k + 2];
-    s3 += values[k + 3];
+  const k = wasmKernels();
+  if (k && n >= 64 && n <= MOMENTS_IN_WASM) {
+    const at = wasmLayout.scratch;
+    const buf = workspace(k, 8 * n + 8);
+    new Float64Array(buf, at, n).set(values);
+    const mean = k.sum(at, n) / n;
+    const ss = k.deviations(at, n, mean, at + 8 * n);
+    const comp = new Float64Array(buf, at + 8 * n, 1)[0];
+    return { n, mean, m2: ss - (comp * comp) / n };
   }
-  for (let k = n4; k < n; k++) s0 += values[k];
-  const mean = (s0 + s1 + (s2 + s3)) / n;
+  const n8 = n - (n & 7);
+  let p0 = 0;
+  let p1 = 0;
+  let p2 = 0;
+  let p3 = 0;
+  let p4 = 0;
+  let p5 = 0;
+  let p6 = 0;
+  let p7 = 0;
+  for (let i = 0; i < n8; i += 8) {
+    p0 += values[i];
+    p1 += values[i + 1];
+    p2 += values[i + 2];
+    p3 += values[i + 3];
+    p4 += values[i + 4];
+    p5 += values[i + 5];
+    p6 += values[i + 6];
+    p7 += values[i + 7];
+  }
+  let tail = 0;
+  for (let i = n8; i < n; i++) tail += values[i];
+  const mean = (p0 + p2 + (p4 + p6) + (p1 + p3 + (p5 + p7)) + tail) / n;
   let q0 = 0;
   let q1 = 0;
   let q2 = 0;
   let q3 = 0;
+  let q4 = 0;
+  let q5 = 0;
+  let q6 = 0;
+  let q7 = 0;
   let c0 = 0;
   let c1 = 0;
   let c2 = 0;
   let c3 = 0;
-  for (let k = 0; k < n4; k += 4) {
-    const d0 = values[k] - mean;
-    const d1 = values[k + 1] - mean;
-    const d2 = values[k + 2] - mean;
-    const d3 = values[k + 3] - mean;
+  let c4 = 0;
+  let c5 = 0;
+  let c6 = 0;
+  let c7 = 0;
+  for (let i = 0; i < n8; i += 8) {
+    const d0 = values[i] - mean;
     q0 += d0 * d0;
-    q1 += d1 * d1;
-    q2 += d2 * d2;
-    q3 += d3 * d3;
     c0 += d0;
+    const d1 = values[i + 1] - mean;
+    q1 += d1 * d1;
     c1 += d1;
+    const d2 = values[i + 2] - mean;
+    q2 += d2 * d2;
     c2 += d2;
+    const d3 = values[i + 3] - mean;
+    q3 += d3 * d3;
     c3 += d3;
+    const d4 = values[i + 4] - mean;
+    q4 += d4 * d4;
+    c4 += d4;
+    const d5 = values[i + 5] - mean;
+    q5 += d5 * d5;
+    c5 += d5;
+    const d6 = values[i + 6] - mean;
+    q6 += d6 * d6;
+    c6 += d6;
+    const d7 = values[i + 7] - mean;
+    q7 += d7 * d7;
+    c7 += d7;
   }
-  for (let k = n4; k < n; k++) {
-    const d = values[k] - mean;
-    q0 += d * d;
-    c0 += d;
+  let tq = 0;
+  let tc = 0;
+  for (let i = n8; i < n; i++) {
+    const d = values[i] - mean;
+    tq += d * d;
+    tc += d;
   }
-  const ss = q0 + q1 + (q2 + q3);
-  const comp = c0 + c1 + (c2 + c3);
+  const ss = q0 + q2 + (q4 + q6) + (q1 + q3 + (q5 + q7)) + tq;
+  const comp = c0 + c2 + (c4 + c6) + (c1 + c3 + (c5 + c7)) + tc;
   return { n, mean, m2: ss - (comp * comp) / n };
 }
 

@@ -5,7 +5,7 @@
  * SIMD, a Content-Security-Policy without 'wasm-unsafe-eval'), so a result never depends
  * on which one ran.
  *
- * One instance per thread, compiled synchronously on first use (the module is under 1 KB,
+ * One instance per thread, compiled synchronously on first use (the module is about 1.2 KB,
  * so no thread needs to wait for it). Its memory is scratch space: a caller takes views
  * with workspace(), which may grow the memory (old views then go stale), fills them, calls
  * the kernel and reads the results before anything else asks for the workspace.
@@ -19,6 +19,10 @@ export interface Kernels {
   xorgen(state: number, out: number, n: number, w: number): void;
   /** The ziggurat's fast path over n draws at ints; returns how many were accepted before the first that was not. */
   zigguratFast(ints: number, n: number, out: number, tw: number, tk: number): number;
+  /** The sum of n values at x, in the order of kernels.wat. */
+  sum(x: number, n: number): number;
+  /** Sum of (x - mean)^2 over n values at x; stores the sum of (x - mean) at out. */
+  deviations(x: number, n: number, mean: number, out: number): number;
   readonly memory: WebAssembly.Memory;
 }
 
@@ -61,7 +65,7 @@ function instantiate(): Kernels | null {
     if (typeof WebAssembly !== 'object' || typeof atob !== 'function') return null;
     const instance = new WebAssembly.Instance(new WebAssembly.Module(decode(KERNELS_WASM_BASE64)), {});
     const e = instance.exports as unknown as Kernels;
-    return { affine: e.affine, xorgen: e.xorgen, zigguratFast: e.zigguratFast, memory: e.memory };
+    return { affine: e.affine, xorgen: e.xorgen, zigguratFast: e.zigguratFast, sum: e.sum, deviations: e.deviations, memory: e.memory };
   } catch {
     return null;
   }

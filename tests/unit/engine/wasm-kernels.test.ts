@@ -4,6 +4,7 @@ import { CopulaGroupSampler } from '@/lib/core/engine/correlation';
 import { createMarginal, type DistributionSpec } from '@/lib/core/engine/distributions';
 import { Stream } from '@/lib/core/engine/rng';
 import type { SamplerContext } from '@/lib/core/engine/samplers';
+import { twoPassMoments } from '@/lib/core/engine/stats';
 import { setWasmKernels, wasmKernels } from '@/lib/core/engine/wasm-kernels';
 import { buildKernels, KERNELS_TS } from '@/lib/dev/build-wasm';
 
@@ -101,4 +102,35 @@ describe('Gaussian copula product: wasm kernel = JavaScript loop, bit for bit', 
     const b = run(k, root, ctx, [2000], false, -1);
     a.forEach((col, i) => expect(sameBits(col, b[i])).toBe(true));
   });
+});
+
+describe('two-pass moments: wasm kernels (sum, deviations) = JavaScript, bit for bit', () => {
+  const st = Stream.forInput('wasm-kernel-test', 'moments');
+  // Lengths around the kernels' eight values per pass, the chunk size and the largest column they take.
+  for (const n of [64, 65, 71, 1001, 16_384, 16_389, 65_536]) {
+    it(`${n} values, six data sets`, () => {
+      for (let set = 0; set < 6; set++) {
+        const offset = set * 10 ** Math.floor(st.uniform() * 8);
+        const x = Float64Array.from({ length: n }, (_, i) => offset + (st.uniform() - 0.5) * (i % 3 === 0 ? 1e-3 : 10) * 10 ** set);
+        setWasmKernels(true);
+        const viaWasm = twoPassMoments(x);
+        setWasmKernels(false);
+        const viaJs = twoPassMoments(x);
+        expect(Object.is(viaWasm.mean, viaJs.mean) && Object.is(viaWasm.m2, viaJs.m2), `${JSON.stringify(viaWasm)} vs ${JSON.stringify(viaJs)}`).toBe(true);
+        expect(viaWasm.n).toBe(n);
+      }
+      const x = Float64Array.from({ length: n }, () => 1e6 + st.uniform());
+      const viaJs = twoPassMoments(x);
+      // And the mean is right: against a compensated (Neumaier) sum.
+      let s = 0;
+      let comp = 0;
+      for (const v of x) {
+        const t = s + v;
+        comp += Math.abs(s) >= Math.abs(v) ? s - t + v : v - t + s;
+        s = t;
+      }
+      const mean = (s + comp) / n;
+      expect(Math.abs(viaJs.mean - mean) / mean).toBeLessThan(1e-14);
+    });
+  }
 });
