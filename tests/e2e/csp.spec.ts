@@ -1,5 +1,6 @@
 import { test, expect, type Page, type ConsoleMessage } from '@playwright/test';
 import { E2E_APP, E2E_HOST } from './support/ports';
+import { DEMO_PASSWORD, openQuayStudio } from './support/demo-sign-in';
 import { Client } from '../support/http-client';
 import { openTestDb, firmIdOf } from '../support/db-direct';
 import { insertEmbedWidget } from '../integration/api/matrix/embed.rows';
@@ -8,7 +9,6 @@ import { insertEmbedWidget } from '../integration/api/matrix/embed.rows';
 // model docs, the studio and an embedded widget all hydrate and run their scripts (and the engine's web worker)
 // with no violation reported, and each response carries its own nonce.
 
-const DEMO_PASSWORD = 'stochos-demo-2026';
 
 /** Collects CSP violations reported to the console or as securitypolicyviolation events, in every frame. */
 function watchViolations(page: Page): string[] {
@@ -69,15 +69,7 @@ test('public pages carry a nonce policy, hydrate, and report no violation', asyn
 test('the studio runs its model in the web worker under the policy, with no violation', async ({ page }) => {
   await listenInPage(page);
   const violations = watchViolations(page);
-  await page.goto('/sign-in');
-  await page.getByLabel(/e-mail/i).first().fill('author2@orrinvale.example');
-  await page.getByLabel(/password/i).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: /^sign in$/i }).click();
-  await expect(page).toHaveURL(/\/app\//);
-  await page.goto('/app/models');
-  await page.getByRole('link', { name: 'North Quay wall refurbishment, stage 1', exact: true }).click();
-  const preview = page.getByRole('region', { name: 'Live preview' });
-  await expect(preview.getByRole('figure', { name: 'S-curve' })).toBeVisible({ timeout: 30_000 });
+  await openQuayStudio(page);
   expect(violations).toEqual([]);
 });
 

@@ -2,13 +2,13 @@ import { test, expect, type Page, type Worker } from '@playwright/test';
 import { openTestDb, firmIdOf } from '../support/db-direct';
 import { KERNELS_WASM_BASE64 } from '../../lib/core/engine/kernels-wasm';
 import { E2E_APP, E2E_HOST } from './support/ports';
+import { openQuayStudio } from './support/demo-sign-in';
 
 // The engine's WebAssembly SIMD kernels (lib/core/engine/kernels.wat) can run where the engine runs in Chromium:
 // in the web workers of the embed page and of the studio, under the app's Content-Security-Policy (the workers'
 // scripts come from /_next/static and carry no policy of their own, so 'wasm-unsafe-eval' is not needed in the
 // pages' script-src). Without them the engine would fall back to its JavaScript twins: same figures, slower.
 
-const DEMO_PASSWORD = 'stochos-demo-2026';
 
 /** In the worker's own global scope: compile and instantiate the kernels, and run the copula product on 8 trials. */
 async function kernelsRunIn(worker: Worker): Promise<{ ok: boolean; error?: string; acc?: number[] }> {
@@ -77,15 +77,7 @@ test('the embed page’s engine workers may compile and run the SIMD kernels', a
 
 test('the studio’s engine workers may compile and run the SIMD kernels', async ({ page }) => {
   const violations = watchViolations(page);
-  await page.goto('/sign-in');
-  await page.getByLabel(/e-mail/i).first().fill('author2@orrinvale.example');
-  await page.getByLabel(/password/i).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: /^sign in$/i }).click();
-  await expect(page).toHaveURL(/\/app\//);
-  await page.goto('/app/models');
-  await page.getByRole('link', { name: 'North Quay wall refurbishment, stage 1', exact: true }).click();
-  const preview = page.getByRole('region', { name: 'Live preview' });
-  await expect(preview.getByRole('figure', { name: 'S-curve' })).toBeVisible({ timeout: 30_000 });
+  await openQuayStudio(page);
   const workers = await engineWorkers(page);
   for (const w of workers) {
     const r = await kernelsRunIn(w);

@@ -1,6 +1,7 @@
 import fs from 'node:fs';
 import { randomUUID } from 'node:crypto';
 import { test, expect, type Page } from '@playwright/test';
+import { signInDemo } from './support/demo-sign-in';
 import AxeBuilder from '@axe-core/playwright';
 
 // The screens a route segment shows instead of its page: not found (a record that is not there, an address that
@@ -18,17 +19,9 @@ async function axe(page: Page, what: string): Promise<void> {
   ).toEqual([]);
 }
 
-async function signIn(page: Page, email: string): Promise<void> {
-  await page.goto('/sign-in');
-  await page.getByLabel(/e-mail/i).first().fill(email);
-  await page.getByLabel(/password/i).fill('stochos-demo-2026');
-  await page.getByRole('button', { name: /^sign in$/i }).click();
-  await expect(page).toHaveURL(/\/app\//);
-}
-
 test('a model, version or dataset that is not there: a 404 inside the dashboard, with the way back', async ({ page }) => {
   await page.setViewportSize({ width: 1280, height: 860 });
-  await signIn(page, 'owner@orrinvale.example');
+  await signInDemo(page, 'owner@orrinvale.example');
   const missing = randomUUID();
 
   const res = await page.goto(`/app/models/${missing}`);
@@ -53,7 +46,7 @@ test('a model, version or dataset that is not there: a 404 inside the dashboard,
 });
 
 test('loading screens leave the answers alone: a page that sends a member elsewhere still redirects with 307', async ({ page }) => {
-  await signIn(page, 'author2@orrinvale.example');
+  await signInDemo(page, 'author2@orrinvale.example');
   // Billing is the owner's; the page redirects an author to the no-access page before anything streams.
   const billing = await page.request.get('/app/billing', { maxRedirects: 0 });
   expect(billing.status()).toBe(307);

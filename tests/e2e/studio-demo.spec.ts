@@ -1,4 +1,5 @@
-import { test, expect, type Page } from '@playwright/test';
+import { test, expect } from '@playwright/test';
+import { signInDemo } from './support/demo-sign-in';
 import fs from 'node:fs';
 
 // The demo firm's two seeded models as its people see them: listed, each published from a signed-off version,
@@ -7,17 +8,9 @@ import fs from 'node:fs';
 const SHOTS = process.env.STUDIO_SHOTS ?? '/tmp/shots/studioA';
 fs.mkdirSync(SHOTS, { recursive: true });
 
-async function signIn(page: Page, email: string) {
-  await page.goto('/sign-in');
-  await page.getByLabel(/e-mail/i).first().fill(email);
-  await page.getByLabel(/password/i).fill('stochos-demo-2026');
-  await page.getByRole('button', { name: /^sign in$/i }).click();
-  await expect(page).toHaveURL(/\/app\//);
-}
-
 test('the demo models are listed as published, and the checker is pointed at the version awaiting a check', async ({ page }) => {
   await page.setViewportSize({ width: 1440, height: 1000 });
-  await signIn(page, 'checker@orrinvale.example');
+  await signInDemo(page, 'checker@orrinvale.example');
   await page.goto('/app/models');
   const pump = page.getByRole('row', { name: /QP-80 pump: impeller front clearance/ });
   const quay = page.getByRole('row', { name: /North Quay wall refurbishment, stage 1/ });
@@ -37,7 +30,7 @@ test('the demo models are listed as published, and the checker is pointed at the
 
 test('the quay estimate’s studio shows its results beside the editor, at desktop width and on a narrow screen', async ({ page }) => {
   await page.setViewportSize({ width: 1440, height: 1000 });
-  await signIn(page, 'author2@orrinvale.example');
+  await signInDemo(page, 'author2@orrinvale.example');
   await page.goto('/app/models');
   await page.getByRole('link', { name: 'North Quay wall refurbishment, stage 1', exact: true }).click();
   await expect(page.getByRole('heading', { name: 'North Quay wall refurbishment, stage 1', level: 1 })).toBeVisible();
