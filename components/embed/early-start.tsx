@@ -1,11 +1,13 @@
 import { headers } from 'next/headers';
-import { PASS_WAIT_MS } from './embed-client';
+import { EARLY_SLOT_ID, PASS_WAIT_MS } from './embed-client';
 
 // The embed page's first step, inline in its HTML, so that it runs as soon as the browser reads it instead of
 // after the page's JavaScript has loaded and hydrated: take the pass (from the fragment of a direct link, or from
-// the loader by postMessage, with the same checks as before), exchange it for a bearer token and fetch the widget.
-// EmbedApp (embed-app.tsx) picks up the outcome from window.__stochosStart and removes it. Written without imports,
-// helpers or outer names, because it is sent as its own source text.
+// the loader by postMessage, with the same checks as before), and exchange it for a bearer token and the widget in
+// one request. When the widget comes with the server's first figures, their headline and cautions are painted at
+// once into the loading slot (EARLY_SLOT_ID), whose content React never hydrates; EmbedApp replaces the slot with the
+// widget. EmbedApp (embed-app.tsx) picks up the outcome from window.__stochosStart and removes it. Written without
+// imports, helpers or outer names, because it is sent as its own source text.
 
 /** What the early start leaves for EmbedApp. */
 export type EarlyOutcome =
@@ -18,7 +20,7 @@ export interface EarlyStart {
   outcome: Promise<EarlyOutcome>;
 }
 
-function earlyStart(passId: string, origin: string | null, waitMs: number): void {
+function earlyStart(passId: string, origin: string | null, waitMs: number, slotId: string): void {
   const pass = new Promise<string | null>(function (resolve) {
     const fromFragment = new URLSearchParams(window.location.hash.slice(1)).get('pass');
     if (fromFragment) {
@@ -61,28 +63,68 @@ function earlyStart(passId: string, origin: string | null, waitMs: number): void
         return { pass: p, ok: false, status: res.status, message: r.message, title: r.title };
       });
   };
+  // The server's headline figure and cautions, in the markup of the widget's own headline card (text only, via
+  // textContent: nothing from the payload is parsed as HTML).
+  const paint = function (payload: unknown): void {
+    const ff = payload && typeof payload === 'object' ? (payload as { firstFigures?: { early?: unknown } }).firstFigures : undefined;
+    const e = ff && ff.early && typeof ff.early === 'object' ? (ff.early as { label?: unknown; value?: unknown; sub?: unknown; trials?: unknown; cautions?: unknown }) : null;
+    const slot = document.getElementById(slotId);
+    if (!e || typeof e.label !== 'string' || typeof e.value !== 'string' || !Array.isArray(e.cautions)) return;
+    if (!slot) {
+      // The answer came before the parser reached the slot: paint once it has.
+      if (document.readyState === 'loading') document.addEventListener('DOMContentLoaded', function () { paint(payload); }, { once: true });
+      return;
+    }
+    const el = function (tag: string, cls: string, text?: string): HTMLElement {
+      const x = document.createElement(tag);
+      x.className = cls;
+      if (text !== undefined) x.textContent = text;
+      return x;
+    };
+    const brand = (payload as { widget?: { brandColor?: unknown } }).widget;
+    const card = el('div', 'rounded-lg border border-l-4 border-ink-200 bg-white px-4 py-3');
+    card.setAttribute('aria-live', 'polite');
+    card.setAttribute('aria-atomic', 'true');
+    if (brand && typeof brand.brandColor === 'string' && /^#[0-9a-fA-F]{6}$/.test(brand.brandColor)) card.style.borderLeftColor = brand.brandColor;
+    card.appendChild(el('p', 'text-sm text-ink-700', e.label));
+    card.appendChild(el('p', 'num mt-0.5 text-3xl font-semibold whitespace-nowrap text-ink-900', e.value));
+    if (typeof e.sub === 'string' && e.sub) card.appendChild(el('p', 'mt-1 text-[0.8125rem] text-ink-600', e.sub));
+    const note = el('div', 'rounded-md border border-ink-200 bg-ink-50 px-3 py-2.5 text-[0.8125rem] leading-snug text-ink-700');
+    note.setAttribute('role', 'note');
+    note.setAttribute('aria-label', 'Cautions');
+    note.appendChild(el('p', 'mb-1 text-[0.8125rem] font-semibold text-ink-900', 'Read with care'));
+    const list = el('ul', 'space-y-1');
+    for (const c of e.cautions as { title?: unknown; text?: unknown; low?: unknown }[]) {
+      if (!c || typeof c.title !== 'string' || typeof c.text !== 'string') continue;
+      const li = el('li', c.low === true ? 'font-medium text-warn-700' : '');
+      li.appendChild(el('span', 'font-medium text-ink-800', c.title + ': '));
+      li.appendChild(document.createTextNode(c.text));
+      list.appendChild(li);
+    }
+    note.appendChild(list);
+    const foot = el('p', 'text-xs text-ink-600', (typeof e.trials === 'string' ? e.trials + ' trials · ' : '') + 'computed by Stochos for the author’s values · loading the dials and charts…');
+    foot.setAttribute('role', 'status');
+    slot.replaceChildren(card, note, foot);
+    slot.className = 'space-y-3';
+  };
   const outcome = pass.then(function (p): EarlyOutcome | Promise<EarlyOutcome> {
     if (!p) return { pass: null };
     return fetch('/api/embed/session', {
       method: 'POST',
       headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ passId: passId, pass: p, origin: origin }),
+      body: JSON.stringify({ passId: passId, pass: p, origin: origin, widget: true }),
       credentials: 'omit',
       cache: 'no-store',
     })
       .then(function (res): Promise<EarlyOutcome> {
         if (!res.ok) return refused(p, res);
-        return res.json().then(function (s: { token: string; expiresAt: number }) {
-          return fetch('/api/embed/passes/' + encodeURIComponent(passId) + '/widget', {
-            headers: { authorization: 'Bearer ' + s.token },
-            credentials: 'omit',
-            cache: 'no-store',
-          }).then(function (w): Promise<EarlyOutcome> {
-            if (!w.ok) return refused(p, w);
-            return w.json().then(function (payload: unknown): EarlyOutcome {
-              return { pass: p, ok: true, token: s.token, expiresAt: s.expiresAt, payload: payload };
-            });
-          });
+        return res.json().then(function (s: { token: string; expiresAt: number; widget?: unknown }): EarlyOutcome {
+          try {
+            paint(s.widget);
+          } catch {
+            // The widget shows the same figures once the page's script has loaded.
+          }
+          return { pass: p, ok: true, token: s.token, expiresAt: s.expiresAt, payload: s.widget };
         });
       })
       .catch(function (): EarlyOutcome {
@@ -96,6 +138,6 @@ function earlyStart(passId: string, origin: string | null, waitMs: number): void
 /** The inline script, with this response's nonce (server component). */
 export async function EarlyStartScript({ passId, origin }: { passId: string; origin: string | null }) {
   const nonce = (await headers()).get('x-nonce') ?? undefined;
-  const args = [passId, origin, PASS_WAIT_MS].map((a) => JSON.stringify(a).replace(/</g, '\\u003c')).join(',');
+  const args = [passId, origin, PASS_WAIT_MS, EARLY_SLOT_ID].map((a) => JSON.stringify(a).replace(/</g, '\\u003c')).join(',');
   return <script nonce={nonce} dangerouslySetInnerHTML={{ __html: `(${earlyStart.toString()})(${args});` }} />;
 }

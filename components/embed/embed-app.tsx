@@ -4,8 +4,10 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import { WidgetView } from '@/components/widget/widget-view';
 import { createEmbedEngine, dropWarmEngine, prewarmEmbedEngine } from '@/lib/core/engine/embed-engine';
 import type { EmbedWidgetPayload } from '@/lib/core/embed/payload';
+import { decodeRunResult } from '@/lib/core/embed/first-figures';
+import type { RunResult } from '@/lib/core/engine/merge';
 import { ApiError } from '@/lib/client/request';
-import { createEmbedClient, earlyRefusal, PASS_WAIT_MS, refusalOf, type EmbedClient } from './embed-client';
+import { createEmbedClient, EARLY_SLOT_ID, earlyRefusal, PASS_WAIT_MS, refusalOf, type EmbedClient } from './embed-client';
 import type { EarlyStart } from './early-start';
 import { EmbedNotice } from './embed-notice';
 import { SnapshotRequestForm } from '@/components/snapshots/snapshot-request-form';
@@ -15,6 +17,7 @@ import { SnapshotRequestForm } from '@/components/snapshots/snapshot-request-for
 // it. The pass is never in a URL the server sees. Dial moves are counted (one event per settled move).
 
 const DIAL_SETTLE_MS = 800;
+const LOADING_HTML = { __html: '<p role="status" class="text-sm text-ink-600">Loading the model…</p>' };
 
 /**
  * The inline early start's work for this pass (early-start.tsx), taken once: the pass, the token and the widget,
@@ -31,7 +34,9 @@ function takeEarlyStart(passId: string, origin: string | null, noPass: { title: 
   const loaded = early.outcome.then((o) => {
     if (!o.pass) throw missingPass(noPass.title, noPass.body);
     if (!o.ok) throw o.status === 0 ? new Error('network') : earlyRefusal(o.status, o.message, o.title);
-    return { client: createEmbedClient({ passId, pass: o.pass, origin, session: { token: o.token, expiresAt: o.expiresAt } }), payload: o.payload as EmbedWidgetPayload };
+    const client = createEmbedClient({ passId, pass: o.pass, origin, session: { token: o.token, expiresAt: o.expiresAt } });
+    // The exchange carries the widget; should it not (a server from before that), the page asks for it.
+    return o.payload ? { client, payload: o.payload as EmbedWidgetPayload } : client.loadWidget().then((payload) => ({ client, payload }));
   });
   taken = { passId, loaded };
   return loaded;
@@ -42,7 +47,14 @@ function missingPass(title: string, body: string): ApiError {
   return new ApiError(401, 'unauthorized', `${title}. ${body}`, { title });
 }
 
-type State = { phase: 'loading' } | { phase: 'ready'; payload: EmbedWidgetPayload } | { phase: 'refused'; title: string; body: string };
+type FirstFigures = { result: RunResult; computedAt: string };
+type State = { phase: 'loading' } | { phase: 'ready'; payload: EmbedWidgetPayload; first: FirstFigures | null } | { phase: 'refused'; title: string; body: string };
+
+/** The server's result at the author's values, when the payload carries one (older versions may not yet). */
+function firstFiguresOf(p: EmbedWidgetPayload): FirstFigures | null {
+  const f = p.firstFigures;
+  return f && typeof f.computedAt === 'string' && f.result && typeof f.result === 'object' ? { result: decodeRunResult(f.result), computedAt: f.computedAt } : null;
+}
 
 /**
  * The pass for this frame. A fragment (`#pass=…`) is read and removed from the address at once. In a frame,
@@ -107,7 +119,7 @@ export function EmbedApp({ passId, origin, firmName, noPass }: { passId: string;
       .then(({ client: c, payload }) => {
         if (!live) return;
         setClient(c);
-        setState({ phase: 'ready', payload });
+        setState({ phase: 'ready', payload, first: firstFiguresOf(payload) });
       })
       .catch((err: unknown) => {
         if (!live) return;
@@ -146,11 +158,11 @@ export function EmbedApp({ passId, origin, firmName, noPass }: { passId: string;
 
   if (state.phase === 'refused') return <EmbedNotice title={state.title} body={state.body} firmName={firmName} />;
   if (state.phase === 'loading' || !client) {
+    // The slot's content is the inline early start's (it may already hold the server's first figures): React renders
+    // it as fixed HTML and never hydrates or compares what is inside.
     return (
       <div className="rounded-lg border border-ink-200 bg-white px-5 py-4" aria-busy="true">
-        <p role="status" className="text-sm text-ink-600">
-          Loading the model…
-        </p>
+        <div id={EARLY_SLOT_ID} suppressHydrationWarning dangerouslySetInnerHTML={LOADING_HTML} />
       </div>
     );
   }
@@ -163,6 +175,7 @@ export function EmbedApp({ passId, origin, firmName, noPass }: { passId: string;
       widget={p.widget}
       branding={{ firmName: p.branding.firmName, brandColor: p.branding.brandColor, logoUrl: p.branding.logoUrl }}
       versionInfo={{ number: p.versionInfo.number, signedOffAt }}
+      firstFigures={state.first}
       onDialChange={onDialChange}
       actions={<SnapshotRequestForm send={client.sendSnapshot} dialValues={dialValues} version={p.versionInfo.number} />}
       headingLevel="h1"

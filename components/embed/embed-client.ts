@@ -7,6 +7,9 @@ import type { EmbedSessionResponse, EmbedWidgetPayload } from '@/lib/core/embed/
 /** How long the frame waits for the loader's pass before it says the pass is missing. */
 export const PASS_WAIT_MS = 10_000;
 
+/** The element EmbedApp shows while loading; the inline early start paints the server's first figures into it. */
+export const EARLY_SLOT_ID = 'stochos-early';
+
 const CANNOT_SHOW = 'This widget cannot be shown';
 
 // A refusal without a readable body still reads as a heading and a sentence in the frame.

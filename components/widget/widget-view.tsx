@@ -61,6 +61,11 @@ export interface WidgetViewProps {
   actions?: ReactNode;
   /** Heading level of the title (h1 when the widget is the whole page). */
   headingLevel?: 'h1' | 'h2';
+  /**
+   * The result at the author's values as the server computed it for this version (the embed's first figures): shown
+   * at once, until the viewer moves a dial; the footer says where it came from.
+   */
+  firstFigures?: { result: RunResult; computedAt: string } | null;
   /** The engine pool: createEmbedEngine on the embed page (no schema), createStudioEngine elsewhere. */
   createEngine: () => RunClient;
   className?: string;
@@ -77,7 +82,7 @@ const CHART_PANELS = new Set<string>(['spread', 'cumulative', 'drivers']);
  * reruns the model in the browser with the same seed and sub-streams, so only what the dial touches
  * changes. No dashboard or sign-in code: the embed page uses this as it is.
  */
-export function WidgetView({ model, widget, branding, versionInfo, onDialChange, initialDialValues: given, actions, headingLevel: H = 'h2', className, createEngine }: WidgetViewProps) {
+export function WidgetView({ model, widget, branding, versionInfo, onDialChange, initialDialValues: given, actions, headingLevel: H = 'h2', className, createEngine, firstFigures }: WidgetViewProps) {
   const outline = useMemo(() => modelOutline(model), [model]);
   const dials = useMemo<DialSpec[]>(() => {
     const byId = new Map(outline.dials.map((d) => [d.id, d]));
@@ -99,15 +104,21 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
     return out;
   }, [dials, values]);
 
+  // The server's first figures stand for the author's values until the viewer first moves a dial or resets. The
+  // browser still runs those values meanwhile, unseen: its workers warm up and keep the input columns, so the first
+  // dial move redoes only what it touches.
+  const [moved, setMoved] = useState(false);
+  const first = firstFigures && !moved && atDefaults(dials, current) ? firstFigures : null;
   // A dial move is one discrete step: a short wait is enough to merge a burst of key presses.
   const sim = useSimulation(model, current, { samples: 'none', debounceMs: 30, createClient: createEngine });
   // A model the engine refuses at the author's own values cannot be shown at all (not just these settings).
-  const broken = sim.error && !sim.result && atDefaults(dials, current) ? (sim.error.issues[0]?.message ?? sim.error.message) : null;
+  const broken = !first && sim.error && !sim.result && atDefaults(dials, current) ? (sim.error.issues[0]?.message ?? sim.error.message) : null;
   const colors = useMemo(() => brandColors(branding.brandColor), [branding.brandColor]);
 
   const setDial = useCallback(
     (id: string, v: number) => {
       const next = { ...current, [id]: v };
+      setMoved(true);
       setValues(next);
       onDialChange?.(next, id);
     },
@@ -115,19 +126,26 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   );
   const reset = useCallback(() => {
     const next = initialDialValues(dials);
+    setMoved(true);
     setValues(next);
     setResets((n) => n + 1);
     setPin(null);
     onDialChange?.(next, null);
   }, [dials, onDialChange]);
 
-  const result = sim.result;
+  // After the first move, until the browser's first result is back, the server's figures stay on screen, dimmed.
+  const carried = !first && !sim.result && firstFigures ? firstFigures.result : null;
+  const result = first ? first.result : (sim.result ?? carried);
+  const fromServer = first !== null || carried !== null;
+  const stale = first ? false : sim.stale || carried !== null;
+  const pending = first ? null : sim.pending;
+  const failed = first ? null : sim.error;
   const panels = widget.panels.filter((p) => p === 'headline' || CHART_PANELS.has(p));
   const chartPanels = panels.filter((p): p is ChartPanel => CHART_PANELS.has(p));
   const uid = useId().replace(/[^a-zA-Z0-9_-]/g, '');
   const titleId = `${uid}-title`;
   // Only a settled result can be pinned: its figures belong to the dial values on screen.
-  const canPin = Boolean(result) && !sim.stale && sim.status !== 'running' && sim.status !== 'waiting' && !sim.error;
+  const canPin = Boolean(result) && !stale && (first !== null || (sim.status !== 'running' && sim.status !== 'waiting')) && !failed;
   const pinnedValues = useMemo(() => (pin ? { ...pin.run.dialValues } : null), [pin]);
   const headline = result && panels.includes('headline') ? headlineFigure(result, widget.headline) : null;
   const cautions = useMemo(() => {
@@ -226,7 +244,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
 
             {panels.includes('headline') ? (
               <div className="min-w-0 space-y-2">
-                <div className={cx('rounded-lg border border-l-4 border-ink-200 bg-white px-4 py-3 transition-opacity', sim.stale && 'opacity-60')} style={{ borderLeftColor: 'var(--st-brand)' }} aria-live="polite" aria-atomic="true">
+                <div className={cx('rounded-lg border border-l-4 border-ink-200 bg-white px-4 py-3 transition-opacity', stale && 'opacity-60')} style={{ borderLeftColor: 'var(--st-brand)' }} aria-live="polite" aria-atomic="true">
                   {headline ? (
                     <>
                       <p className="text-sm text-ink-700">{headline.term ? <TermTip explain={HEADLINE_GLOSSARY[headline.term]}>{headline.label}</TermTip> : headline.label}</p>
@@ -237,14 +255,14 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
                     <p className="py-3 text-sm text-ink-600">{sim.status === 'error' ? 'No figure: the run failed.' : 'Computing…'}</p>
                   )}
                 </div>
-                <WidgetProgress sim={sim} />
+                <WidgetProgress sim={sim} quiet={first !== null} />
               </div>
             ) : null}
           </div>
 
-          {!panels.includes('headline') ? <WidgetProgress sim={sim} /> : null}
+          {!panels.includes('headline') ? <WidgetProgress sim={sim} quiet={first !== null} /> : null}
 
-          {sim.error && !broken ? (
+          {failed && !broken ? (
             <Banner
               tone="danger"
               title="These settings cannot be computed"
@@ -256,13 +274,13 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
                 ) : null
               }
             >
-              <p>{sim.error.issues[0]?.message ?? sim.error.message}</p>
+              <p>{failed.issues[0]?.message ?? failed.message}</p>
               {result ? <p className="mt-1">The figures below are from the last settings that worked.</p> : null}
             </Banner>
           ) : null}
 
           {result ? (
-            <div className={cx('grid grid-cols-1 gap-4 transition-opacity @3xl:grid-cols-2', (sim.stale || sim.pending) && 'opacity-60')} aria-busy={sim.pending ? true : undefined}>
+            <div className={cx('grid grid-cols-1 gap-4 transition-opacity @3xl:grid-cols-2', (stale || pending) && 'opacity-60')} aria-busy={pending ? true : undefined}>
               {chartPanels.map((p, i) => (
                 <div key={p} className={chartPanels.length % 2 === 1 && i === 0 ? '@3xl:col-span-2' : undefined}>
                   <WidgetChart result={result} panel={p} />
@@ -281,7 +299,12 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
 
           <footer className="flex flex-wrap items-center justify-between gap-2 border-t border-ink-100 pt-2">
             <p className="text-xs text-ink-600">
-              {result ? (
+              {result && fromServer && firstFigures ? (
+                <>
+                  <span className="num">{formatCount(result.run.trials)}</span> trials · computed by Stochos for the author’s values on{' '}
+                  <time dateTime={firstFigures.computedAt}>{formatDate(firstFigures.computedAt)}</time>
+                </>
+              ) : result ? (
                 <>
                   <span className="num">{formatCount(result.run.trials)}</span> trials · <span className="num">{formatDuration(sim.lastRunMs ?? result.timing.totalMs)}</span>
                   {invalid > 0 ? (
@@ -308,11 +331,12 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
   );
 }
 
-function WidgetProgress({ sim }: { sim: ReturnType<typeof useSimulation> }) {
+/** `quiet`: the run in flight is the unseen one behind the server's first figures. */
+function WidgetProgress({ sim, quiet }: { sim: ReturnType<typeof useSimulation>; quiet?: boolean }) {
   const p = sim.progress;
   return (
     <div className="min-h-7">
-      {sim.status === 'running' ? (
+      {quiet ? null : sim.status === 'running' ? (
         <ProgressBar
           label="Updating"
           value={p ? p.done : undefined}

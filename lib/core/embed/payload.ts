@@ -26,6 +26,23 @@ export interface EmbedWidgetPayload {
     checkerName: string | null;
     authorName: string | null;
   };
+  /**
+   * The version's result at its default dial values, computed by the server's run pool when the version was signed
+   * off or published (the same engine, seed and trials give the same numbers as the viewer's browser). Absent while
+   * it is being computed: the page then runs the model itself. `result` is the encoded RunResult
+   * (lib/core/embed/first-figures.ts).
+   */
+  firstFigures?: { result: unknown; computedAt: string; early: EarlyFigure | null };
+}
+
+/** The headline figure and the cautions in words, for the inline early paint (null when the widget shows no headline). */
+export interface EarlyFigure {
+  label: string;
+  value: string;
+  sub: string | null;
+  /** The trial count as the widget prints it. */
+  trials: string;
+  cautions: { title: string; text: string; low: boolean }[];
 }
 
 export interface EmbedSessionResponse {
@@ -33,6 +50,8 @@ export interface EmbedSessionResponse {
   /** Seconds since the epoch. */
   expiresAt: number;
   passId: string;
+  /** The widget payload, when the exchange asked for it (`widget: true`): the embed page's first request. */
+  widget?: EmbedWidgetPayload;
 }
 
 export interface DialBounds {

@@ -30,6 +30,7 @@ import { notifyCheckDecided, notifyCheckRequested, notifyWidgetPublished } from 
 import type { CheckInput, CreateModelInput, PublishInput, SaveVersionInput, WidgetPatchInput } from '@/lib/server/models/schemas';
 import type { ModelRecord, VersionRecord, VersionSummary, WidgetRecord } from '@/lib/core/models/types';
 import type { ModelDetail } from '@/lib/core/api-types';
+import { queueFirstFigures } from '@/lib/server/embed/first-figures';
 
 // The studio's rules: versions are immutable and numbered without gaps, a later save never silently overwrites,
 // checkers never check their own work, and only checked versions reach clients unless the firm says otherwise.
@@ -208,6 +209,8 @@ export async function checkVersion(member: Member, versionId: string, input: Che
       },
       trx,
     );
+    // A signed-off version may be published next: its first figures are computed ahead.
+    if (state === 'signed_off') await queueFirstFigures(member.firmId, versionId, trx);
     const model = await getModel(member.firmId, v.modelId, trx);
     await notifyCheckDecided(
       {
@@ -295,6 +298,7 @@ export async function publish(member: Member, input: PublishInput): Promise<Widg
       },
       trx,
     );
+    await queueFirstFigures(member.firmId, v.id, trx);
     await notifyWidgetPublished(
       { firmId: member.firmId, widgetId: id, widgetTitle: input.title, modelId: m.id, modelTitle: m.title, number: v.number, checkState: v.checkState, actorId: member.userId, actorName: member.name, republished: false },
       trx,
@@ -322,6 +326,7 @@ export async function changeWidget(member: Member, id: string, patch: WidgetPatc
     await dbUpdateWidget(member.firmId, id, { ...patch, versionId: target?.id, userId: member.userId }, trx);
     const presentation = { ...patch, versionId: undefined };
     if (target) {
+      await queueFirstFigures(member.firmId, target.id, trx);
       await recordAudit(
         {
           firmId: member.firmId,

@@ -72,6 +72,10 @@ async function exchange(passId: string, pass: string, origin?: string | null) {
   return anon.json<{ token: string; expiresAt: number; error?: { message: string } }>('POST', '/api/embed/session', { passId, pass, ...(origin !== undefined ? { origin } : {}) });
 }
 
+/** Whether the worker process has stored the first figures of the widget's version. */
+const storedFirstFigures = (widgetId: string) =>
+  Boolean(db.prepare("select f.id from first_figures f join widgets w on w.version_id = f.version_id where w.id = ? and f.state = 'done'").get(widgetId));
+
 const bearer = (token: string) => ({ authorization: `Bearer ${token}` });
 async function widgetCall(passId: string, token: string) {
   return anon.request('GET', `/api/embed/passes/${passId}/widget`, undefined, bearer(token));
@@ -194,11 +198,21 @@ describe('pass exchange and the embed API', () => {
     const c = await newClient();
     const { pass, token, widgetId } = await grant(c.id);
     const s = await exchange(pass.id, token);
-    const first = await widgetCall(pass.id, s.body.token);
+    // A version published without first figures: the first load queues them (the worker process computes them), and
+    // once stored they are a new representation with a new validator.
+    const before = await widgetCall(pass.id, s.body.token);
+    expect(before.status).toBe(200);
+    expect(await before.json()).not.toHaveProperty('firstFigures');
+    const beforeTag = before.headers.get('etag')!;
+    await expect.poll(() => storedFirstFigures(widgetId), { timeout: 30_000 }).toBe(true);
+    const first = await anon.request('GET', `/api/embed/passes/${pass.id}/widget`, undefined, { ...bearer(s.body.token), 'if-none-match': beforeTag });
+    expect(first.status).toBe(200);
     const etag = first.headers.get('etag')!;
+    expect(etag).not.toBe(beforeTag);
     expect(etag).toMatch(/^"[A-Za-z0-9_-]{32}"$/);
     expect(first.headers.get('cache-control')).toMatch(/no-cache/);
     const body = await first.text();
+    expect(JSON.parse(body)).toHaveProperty('firstFigures.computedAt');
     // The same representation twice gives the same validator and the same bytes.
     const again = await widgetCall(pass.id, s.body.token);
     expect(again.headers.get('etag')).toBe(etag);
@@ -219,6 +233,27 @@ describe('pass exchange and the embed API', () => {
     // Revoked: refused even when the client holds the current ETag.
     expect((await author.json('POST', `/api/passes/${pass.id}/revoke`)).status).toBe(200);
     expect((await cond(changed.headers.get('etag')!)).status).toBe(401);
+  });
+
+  it('brings the widget with the exchange when asked (the embed page’s one request): the same body as GET …/widget', async () => {
+    const c = await newClient();
+    const { pass, token, widgetId } = await grant(c.id);
+    const res = await anon.request('POST', '/api/embed/session', { passId: pass.id, pass: token, origin: HOST, widget: true });
+    expect(res.status).toBe(200);
+    expect(res.headers.get('cache-control')).toBe('no-store');
+    const s = { body: (await res.json()) as { token: string; widget: { widget: { id: string } } } };
+    expect(decodeJwt(s.body.token)).toMatchObject({ aud: 'stochos-embed-session', sub: pass.id });
+    expect(s.body.widget.widget.id).toBe(widgetId);
+    const get = await widgetCall(pass.id, s.body.token);
+    expect(await get.json()).toEqual(s.body.widget);
+    // Refused passes get the refusal alone, with no widget data.
+    const wrong = await anon.json<{ widget?: unknown; error?: { message: string } }>('POST', '/api/embed/session', { passId: pass.id, pass: token, origin: 'https://elsewhere.example', widget: true });
+    expect(wrong.status).toBe(403);
+    expect(wrong.body.widget).toBeUndefined();
+    expect((await author.json('POST', `/api/passes/${pass.id}/revoke`)).status).toBe(200);
+    const revoked = await anon.json<{ widget?: unknown }>('POST', '/api/embed/session', { passId: pass.id, pass: token, widget: true });
+    expect(revoked.status).toBe(401);
+    expect(revoked.body.widget).toBeUndefined();
   });
 
   it('answers a tampered token 401, a snippet with a wrong id 403, a host not allowed 403', async () => {

@@ -58,6 +58,8 @@ async function save(c: Client, modelId: string, baseVersion: number, model: unkn
   return c.json<{ version: VersionBody } & ErrBody>('POST', `/api/models/${modelId}/versions`, { baseVersion, note, model });
 }
 
+/** The first-figures rows of a version (queued on sign-off, publish and a change of version; computed by the worker). */
+const firstFigures = (versionId: string) => db.prepare('select state from first_figures where version_id = ?').all(versionId) as { state: string }[];
 const versionCount = (modelId: string) => (db.prepare('select count(*) n from model_versions where model_id = ?').get(modelId) as { n: number }).n;
 
 describe('creating models', () => {
@@ -221,10 +223,16 @@ describe('publishing', () => {
     const early = await author.json<ErrBody>('POST', '/api/widgets', widgetBody(m.id, v1.id));
     expect(early.status).toBe(409);
     expect(early.body.error.message).toMatch(/has not been signed off/);
+    expect(firstFigures(v1.id)).toEqual([]);
 
     await checker.json('POST', `/api/versions/${v1.id}/check`, { decision: 'sign_off', note: 'ok' });
+    // Signed off: its first figures are queued at once (and computed by the worker process soon after).
+    expect(firstFigures(v1.id)).toHaveLength(1);
     const pub = await author.json<{ widget: { id: string; versionNumber: number; brandColor: string } }>('POST', '/api/widgets', widgetBody(m.id, v1.id));
     expect(pub.status).toBe(201);
+    // Publishing the same version queues nothing more.
+    expect(firstFigures(v1.id)).toHaveLength(1);
+    await expect.poll(() => firstFigures(v1.id)[0]?.state, { timeout: 30_000 }).toBe('done');
     expect(pub.body.widget.versionNumber).toBe(1);
     expect(pub.body.widget.brandColor).toMatch(/^#[0-9a-f]{6}$/i);
     expect((await author.json('POST', '/api/widgets', widgetBody(m.id, v1.id))).status).toBe(409);
@@ -240,11 +248,14 @@ describe('publishing', () => {
       const moved = await author.json<{ widget: { versionNumber: number; versionCheckState: string } }>('PATCH', `/api/widgets/${pub.body.widget.id}`, { versionId: v2.id });
       expect(moved.status).toBe(200);
       expect(moved.body.widget).toMatchObject({ versionNumber: 2, versionCheckState: 'unchecked' });
+      // An unchecked version moved onto the widget gets its first figures too.
+      expect(firstFigures(v2.id)).toHaveLength(1);
       const v3 = (await save(author, m.id, 2, m.draft, 'v3')).body.version;
       await checker.json('POST', `/api/versions/${v3.id}/check`, { decision: 'send_back', note: 'no' });
       const sentBack = await author.json<ErrBody>('PATCH', `/api/widgets/${pub.body.widget.id}`, { versionId: v3.id });
       expect(sentBack.status).toBe(409);
       expect(sentBack.body.error.message).toMatch(/sent back/);
+      expect(firstFigures(v3.id)).toEqual([]);
     } finally {
       await owner.json('PATCH', '/api/settings', { requireCheck: true });
     }

@@ -8,14 +8,19 @@ import { normaliseOrigin } from '@/lib/core/embed/schemas';
 import { mintSessionToken } from '@/lib/server/embed/tokens';
 import { noteLoad } from '@/lib/server/embed/events';
 import type { EmbedSessionResponse } from '@/lib/core/embed/payload';
+import { widgetRepresentation } from '@/lib/server/embed/widget-response';
+import { firstFiguresFor } from '@/lib/server/embed/first-figures';
 
 // The embed page exchanges the pass from its URL for a short-lived bearer token kept in memory
-// (no cookies: a browser would not send them inside a cross-site frame anyway).
+// (no cookies: a browser would not send them inside a cross-site frame anyway). With `widget: true` the answer also
+// carries the widget payload (the same body as GET …/widget), so the page's first figures need one request, not
+// two: the pass check that grants the token has just read everything the payload holds.
 const body = z
   .object({
     passId: z.string().max(64),
     pass: z.string().min(1, 'The pass is missing.').max(2000),
     origin: z.string().max(300).nullable().optional(),
+    widget: z.boolean().optional(),
   })
   .strict();
 
@@ -38,5 +43,7 @@ export const POST = route(async (req) => {
   const session = await mintSessionToken({ passId: r.pass.id, passJti: r.passJti, keyVersion: r.client.keyVersion, origin }, r.passExpiresAt);
   noteLoad(r.pass);
   const res: EmbedSessionResponse = { token: session.token, expiresAt: session.expiresAt, passId: r.pass.id };
-  return NextResponse.json(res, { headers: { 'Cache-Control': 'no-store' } });
+  if (!input.widget) return NextResponse.json(res, { headers: { 'Cache-Control': 'no-store' } });
+  const widget = widgetRepresentation(r, await firstFiguresFor(r.pass.firmId, r.widget.versionId)).body();
+  return new NextResponse(`${JSON.stringify(res).slice(0, -1)},"widget":${widget}}`, { headers: { 'Cache-Control': 'no-store', 'Content-Type': 'application/json' } });
 });

@@ -98,6 +98,16 @@ export const rows: MatrixRow[] = [
     note: 'public: the signed pass is the credential; sessions play no part',
   },
   {
+    method: 'POST',
+    route: '/api/embed/session',
+    prepare: async (c) => {
+      const p = await insertPassRow(c.db, c.firmId);
+      return { path: '/api/embed/session', body: { passId: p.passId, pass: p.token, widget: true } };
+    },
+    expect: everyone(200),
+    note: 'with the widget (the embed page’s first request): the same pass check; a dashboard session adds nothing',
+  },
+  {
     method: 'GET',
     route: '/api/embed/passes/[id]/widget',
     prepare: async (c) => ({ path: `/api/embed/passes/${(await insertPassRow(c.db, c.firmId)).passId}/widget` }),
