@@ -14,6 +14,8 @@ export default function EmbedFrameApp({ Component, pageProps }: AppProps) {
     <>
       <Head>
         <meta name="viewport" content="width=device-width, initial-scale=1" />
+        <meta name="theme-color" content="#141c22" />
+        <link rel="icon" href="/icon.svg" type="image/svg+xml" />
         <meta name="robots" content="noindex, nofollow" />
         <meta name="referrer" content="no-referrer" />
         <title>Stochos widget</title>
