@@ -38,9 +38,12 @@ const reproducible = (r: RunResult) => JSON.parse(encodeRunResult({ ...r, timing
  */
 async function recordResults(page: Page): Promise<void> {
   await page.addInitScript(() => {
-    const w = window as unknown as { __results: string[]; __earlyPaint: boolean; __REACT_DEVTOOLS_GLOBAL_HOOK__?: unknown };
+    const w = window as unknown as { __results: string[]; __earlyPaint: boolean; __violations: string[]; __REACT_DEVTOOLS_GLOBAL_HOOK__?: unknown };
     w.__results = [];
     w.__earlyPaint = false;
+    // The early paint runs under the page's nonce policy: any violation is recorded.
+    w.__violations = [];
+    document.addEventListener('securitypolicyviolation', (e) => w.__violations.push(`${e.violatedDirective} ${e.blockedURI}`));
     const seen = new WeakSet<object>();
     const enc = (r: object) =>
       JSON.stringify({ ...r, samples: null }, (_k, v: unknown) => {
@@ -157,6 +160,7 @@ for (const [name, model, dials] of [
     const footer = b.locator('footer').first();
     await expect(footer).toContainText('computed by Stochos for the author’s values on', { timeout: 30_000 });
     expect(await b.evaluate(() => (window as unknown as { __earlyPaint: boolean }).__earlyPaint)).toBe(true);
+    expect(await b.evaluate(() => (window as unknown as { __violations: string[] }).__violations)).toEqual([]);
     const shown = await results(b);
     expect(reproducible(shown[0]!)).toEqual(inNode);
     // The cautions are beside the figures (DESIGN.md §12).
