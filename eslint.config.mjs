@@ -19,8 +19,9 @@ export const layers = [
   { files: ['lib/server/**/*.{ts,tsx,mts,mjs}', 'lib/fakes/**/*.{ts,tsx,mjs}', 'lib/dev/**/*.{ts,tsx,mjs}'], rules: rule(noUi) },
   { files: ['db/**/*.{ts,mjs}'], rules: rule(noUi, ban(['@/lib/*'], 'db/ imports only types from lib/: pass values in from the service.', true)) },
   { files: ['components/**/*.{ts,tsx}'], rules: rule(noDb, noServer, noLocal) },
-  // Pages and route handlers reach the database through a service, which holds each write and its audit row.
-  { files: ['app/**/*.{ts,tsx}'], rules: rule(ban(['@/db', '@/db/*'], 'app/ reaches the database through a service in lib/server, never db/ directly.'), noLocal) },
+  // Pages and route handlers reach the database through a service, which holds each write and its audit row. pages/
+  // (the embed frame, a Pages Router page) is held to the same rule as app/.
+  { files: ['app/**/*.{ts,tsx}', 'pages/**/*.{ts,tsx}'], rules: rule(ban(['@/db', '@/db/*'], 'app/ and pages/ reach the database through a service in lib/server, never db/ directly.'), noLocal) },
 ];
 
 const config = [

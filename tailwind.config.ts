@@ -3,7 +3,7 @@ import type { Config } from 'tailwindcss';
 // Stochos palette: a cool slate neutral and a single teal-ink accent.
 // Chart colours live in lib/core/charts/palette.ts (colour-blind-safe set).
 const config: Config = {
-  content: ['./app/**/*.{ts,tsx}', './components/**/*.{ts,tsx}'],
+  content: ['./app/**/*.{ts,tsx}', './pages/**/*.{ts,tsx}', './components/**/*.{ts,tsx}'],
   theme: {
     extend: {
       colors: {

@@ -1,30 +1,7 @@
 import type { Metadata, Viewport } from 'next';
-import localFont from 'next/font/local';
 import { headers } from 'next/headers';
+import { plexMono, plexSans } from '@/components/fonts';
 import './globals.css';
-
-// Fonts ship with the app (IBM Plex, SIL Open Font License); nothing is fetched at build or run time.
-const plexSans = localFont({
-  src: [
-    { path: './fonts/ibm-plex-sans-latin-400-normal.woff2', weight: '400', style: 'normal' },
-    { path: './fonts/ibm-plex-sans-latin-500-normal.woff2', weight: '500', style: 'normal' },
-    { path: './fonts/ibm-plex-sans-latin-600-normal.woff2', weight: '600', style: 'normal' },
-  ],
-  variable: '--font-sans',
-  display: 'swap',
-  fallback: ['system-ui', 'Segoe UI', 'Roboto', 'Helvetica Neue', 'Arial', 'sans-serif'],
-});
-
-const plexMono = localFont({
-  src: [
-    { path: './fonts/ibm-plex-mono-latin-400-normal.woff2', weight: '400', style: 'normal' },
-    { path: './fonts/ibm-plex-mono-latin-500-normal.woff2', weight: '500', style: 'normal' },
-    { path: './fonts/ibm-plex-mono-latin-600-normal.woff2', weight: '600', style: 'normal' },
-  ],
-  variable: '--font-mono',
-  display: 'swap',
-  fallback: ['ui-monospace', 'SFMono-Regular', 'Menlo', 'Consolas', 'monospace'],
-});
 
 export const metadata: Metadata = {
   title: { default: 'Stochos: interactive risk models for engineering consultancies', template: '%s · Stochos' },

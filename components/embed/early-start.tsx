@@ -1,4 +1,3 @@
-import { headers } from 'next/headers';
 import { EARLY_SLOT_ID, PASS_WAIT_MS } from './embed-client';
 
 // The embed page's first step, inline in its HTML, so that it runs as soon as the browser reads it instead of
@@ -135,9 +134,8 @@ function earlyStart(passId: string, origin: string | null, waitMs: number, slotI
 }
 
 
-/** The inline script, with this response's nonce (server component). */
-export async function EarlyStartScript({ passId, origin }: { passId: string; origin: string | null }) {
-  const nonce = (await headers()).get('x-nonce') ?? undefined;
+/** The inline script, with this response's nonce (read from the request by the page's getServerSideProps). */
+export function EarlyStartScript({ passId, origin, nonce }: { passId: string; origin: string | null; nonce: string | null }) {
   const args = [passId, origin, PASS_WAIT_MS, EARLY_SLOT_ID].map((a) => JSON.stringify(a).replace(/</g, '\\u003c')).join(',');
-  return <script nonce={nonce} dangerouslySetInnerHTML={{ __html: `(${earlyStart.toString()})(${args});` }} />;
+  return <script nonce={nonce ?? undefined} dangerouslySetInnerHTML={{ __html: `(${earlyStart.toString()})(${args});` }} />;
 }

@@ -34,7 +34,7 @@ export interface DashboardShellProps {
  * The firm name is one element in both layouts.
  */
 export function DashboardShell({ firmName, userName, userEmail, roleLabel, nav, notice, showReviewCount, children }: DashboardShellProps) {
-  const pathname = usePathname();
+  const pathname = usePathname() ?? ''; // null only on a Pages Router page, which this shell never is
   // The small-screen menu remembers the page it was opened on, so it closes by itself after navigating.
   const [openOn, setOpenOn] = useState<string | null>(null);
   const open = openOn === pathname;

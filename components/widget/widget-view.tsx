@@ -8,7 +8,8 @@ import { Banner } from '@/components/ui/banner';
 import { cx } from '@/components/ui/cx';
 import { formatDate } from '@/components/ui/format';
 import { ProgressBar } from '@/components/ui/progress-bar';
-import { Term } from '@/components/ui/term';
+import { TermTip } from '@/components/ui/term-tip';
+import { HEADLINE_GLOSSARY } from '@/components/ui/glossary-headline';
 import { CautionsList } from '@/components/results/cautions-list';
 import { useSimulation } from '@/components/results/use-simulation';
 import type { RunClient } from '@/components/results/simulation-controller';
@@ -246,7 +247,7 @@ export function WidgetView({ model, widget, branding, versionInfo, onDialChange,
                 <div className={cx('rounded-lg border border-l-4 border-ink-200 bg-white px-4 py-3 transition-opacity', stale && 'opacity-60')} style={{ borderLeftColor: 'var(--st-brand)' }} aria-live="polite" aria-atomic="true">
                   {headline ? (
                     <>
-                      <p className="text-sm text-ink-700">{headline.term ? <Term term={headline.term}>{headline.label}</Term> : headline.label}</p>
+                      <p className="text-sm text-ink-700">{headline.term ? <TermTip explain={HEADLINE_GLOSSARY[headline.term]}>{headline.label}</TermTip> : headline.label}</p>
                       <p className="num mt-0.5 text-3xl font-semibold whitespace-nowrap text-ink-900 @2xl:text-4xl">{headline.value}</p>
                       {headline.sub ? <p className="mt-1 text-[0.8125rem] text-ink-600">{headline.sub}</p> : null}
                     </>

@@ -11,12 +11,12 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import zlib from 'node:zlib';
-import { createRequire } from 'node:module';
 
 const root = process.cwd();
 const next = path.join(root, '.next');
-const route = '/embed/[passId]/page';
-const dir = path.join(next, 'server/app/embed/[passId]');
+// The embed frame is a Pages Router page (DEVELOPERS.md, "The embed frame"): it loads the chunks of _app and of its
+// own entry.
+const route = '/embed/[passId]';
 
 const MARKERS = [
   ['zod', /ZodError|"Invalid input/],
@@ -33,12 +33,8 @@ const MARKERS = [
   ['turbopack runtime', /Worker entrypoint must be loaded|TURBOPACK_CHUNK_LISTS|TURBOPACK_WORKER_LOCATION/],
 ];
 
-globalThis.self = globalThis;
-createRequire(import.meta.url)(path.join(dir, 'page_client-reference-manifest.js'));
-const manifest = globalThis.__RSC_MANIFEST[route];
-const build = JSON.parse(fs.readFileSync(path.join(dir, 'page/build-manifest.json'), 'utf8'));
-const pageChunks = new Set(build.rootMainFiles);
-for (const files of Object.values(manifest.entryJSFiles)) for (const f of files) pageChunks.add(f);
+const build = JSON.parse(fs.readFileSync(path.join(next, 'build-manifest.json'), 'utf8'));
+const pageChunks = new Set([...build.pages['/_app'], ...build.pages[route]].filter((f) => f.endsWith('.js')));
 
 // Follow chunk names referenced from loaded chunks: a web worker's bootstrap lists the worker's chunks; any other
 // reference is a chunk loaded on demand (dynamic import).

@@ -245,6 +245,29 @@ test('the embed page and its refusal message have no serious or critical accessi
   expect(notice.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => v.id)).toEqual([]);
 });
 
+// The pass check fails (here: its table is briefly renamed, as a broken database would fail it): the frame shows its
+// own error screen with the reference of the logged failure, framable by nobody, and Try again loads it afresh.
+test('a pass check that fails shows the embed error screen with a reference, and Try again reloads the frame', async ({ page }) => {
+  const clientId = await newClient();
+  const pass = await grant(clientId, 'Failing check');
+  db.exec('ALTER TABLE passes RENAME TO passes_unavailable');
+  try {
+    const res = await page.goto(`${APP}/embed/${pass.id}`);
+    expect(res?.status()).toBe(500);
+    expect(res?.headers()['content-security-policy']).toMatch(/frame-ancestors 'none'/);
+    expect(res?.headers()['referrer-policy']).toBe('no-referrer');
+    await expect(page.getByRole('heading', { level: 1, name: 'This widget could not be shown' })).toBeVisible();
+    await expect(page.getByTestId('error-reference')).toHaveText(/^[0-9a-f]{10}$/);
+    const axe = await new AxeBuilder({ page }).analyze();
+    expect(axe.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => v.id)).toEqual([]);
+  } finally {
+    db.exec('ALTER TABLE passes_unavailable RENAME TO passes');
+  }
+  // Reloaded without a pass (no loader, no fragment), the frame now gets past the check and explains what it lacks.
+  await page.getByRole('button', { name: 'Try again' }).click();
+  await expect(page.getByRole('alert', { name: /This widget link is not valid/ })).toBeVisible();
+});
+
 // The embed fetches the formula parser and the correlation code only for models that use them (optional-parts.ts):
 // a published formula model and a cost model with correlated items must still show their figures in the frame.
 test('a formula model and a correlated cost model load their engine parts on demand and show figures', async ({ page }) => {

@@ -2,6 +2,7 @@ import 'server-only';
 import { checkPassFrame } from '@/lib/server/embed/access';
 import { contentSecurityPolicy } from '@/lib/server/http/csp';
 import { env } from '@/lib/server/env';
+import type { FrameVerdict } from '@/lib/core/embed/frame-verdict';
 
 // Response headers for /embed/... (called from proxy.ts, which runs on the Node runtime).
 // The app-wide headers in next.config.mjs skip /embed/ because frame-ancestors here depends on the pass.
@@ -24,24 +25,40 @@ export function embedCsp(origins: readonly string[], nonce = ''): string {
 }
 
 /**
- * Headers for one /embed/ request. The embed page may be framed by exactly the allowed origins of the client
- * its pass belongs to (a refusal page too, so the viewer reads why), or by nobody when the pass is unknown. The loader script is a public, cross-origin resource.
+ * Headers for one /embed/ request, and for a page, the check's verdict (which proxy.ts hands to the page). The embed
+ * page may be framed by exactly the allowed origins of the client its pass belongs to (a refusal page too, so the
+ * viewer reads why), or by nobody when the pass is unknown. The loader script is a public, cross-origin resource.
  */
-export async function embedResponseHeaders(pathname: string, nonce = ''): Promise<Record<string, string>> {
+export async function embedFrame(pathname: string, nonce = ''): Promise<{ headers: Record<string, string>; verdict: FrameVerdict | null }> {
   const m = /^\/embed\/([^/]+)\/?$/.exec(pathname);
   if (!m || m[1]!.includes('.')) {
     // Not a page: nothing may frame it, but any site may load it as a script.
-    return { ...COMMON, 'Content-Security-Policy': "frame-ancestors 'none'", 'Cross-Origin-Resource-Policy': 'cross-origin', 'Referrer-Policy': 'no-referrer' };
+    return { headers: { ...COMMON, 'Content-Security-Policy': "frame-ancestors 'none'", 'Cross-Origin-Resource-Policy': 'cross-origin', 'Referrer-Policy': 'no-referrer' }, verdict: null };
   }
-  const passId = decodeURIComponent(m[1]!);
+  let passId: string | null = null;
+  try {
+    passId = decodeURIComponent(m[1]!);
+  } catch {
+    // A malformed escape names no pass.
+  }
   // By pass id alone: the token is never in the URL.
-  const r = await checkPassFrame(UUID.test(passId) ? passId : null);
+  const r = await checkPassFrame(passId && UUID.test(passId) ? passId : null);
   const origins = r.client?.allowedOrigins ?? [];
+  const verdict: FrameVerdict = r.ok
+    ? { kind: 'framable', passId: r.pass.id, firmName: r.firmName, allowedOrigins: [...origins] }
+    : { kind: 'refused', failure: r.failure, firmName: r.firmName, allowedOrigins: [...origins] };
   return {
-    ...COMMON,
-    'Content-Security-Policy': embedCsp(origins, nonce),
-    'Referrer-Policy': 'no-referrer',
-    'Cache-Control': 'private, no-store',
-    'X-Robots-Tag': 'noindex',
+    headers: {
+      ...COMMON,
+      'Content-Security-Policy': embedCsp(origins, nonce),
+      'Referrer-Policy': 'no-referrer',
+      'Cache-Control': 'private, no-store',
+      'X-Robots-Tag': 'noindex',
+    },
+    verdict,
   };
+}
+
+export async function embedResponseHeaders(pathname: string, nonce = ''): Promise<Record<string, string>> {
+  return (await embedFrame(pathname, nonce)).headers;
 }

@@ -414,6 +414,28 @@ describe('headers', () => {
     expect(await res.text()).toMatch(/This widget link is not valid/);
   });
 
+  it('puts the response’s nonce on every script of the embed page (Next’s own and the inline early start)', async () => {
+    const c = await newClient();
+    const { pass } = await grant(c.id);
+    const res = await anon.request('GET', `/embed/${pass.id}?origin=${encodeURIComponent(HOST)}`);
+    const nonce = /'nonce-([^']+)'/.exec(res.headers.get('content-security-policy') ?? '')?.[1];
+    expect(nonce).toBeTruthy();
+    const html = await res.text();
+    const scripts = [...html.matchAll(/<script\b[^>]*>/g)].map((m) => m[0]).filter((t) => !/type="application\/json"/.test(t));
+    expect(scripts.length).toBeGreaterThan(2);
+    for (const tag of scripts) expect(tag, tag).toContain(`nonce="${nonce}"`);
+    expect(html).toContain('__stochosStart');
+  });
+
+  it('ignores a pass-check verdict sent by the browser: the proxy replaces it with its own', async () => {
+    const forged = encodeURIComponent(JSON.stringify({ kind: 'framable', passId: randomUUID(), firmName: 'Forged', allowedOrigins: ['https://forged.example'] }));
+    const res = await anon.request('GET', `/embed/${randomUUID()}?origin=${encodeURIComponent('https://forged.example')}`, undefined, { 'x-stochos-embed-frame': forged });
+    expect(res.headers.get('content-security-policy')).toMatch(/frame-ancestors 'none'/);
+    const html = await res.text();
+    expect(html).toMatch(/This widget link is not valid/);
+    expect(html).not.toContain('__stochosStart');
+  });
+
   it('shows the revoked message, framable by the client’s origins so its viewers can read it', async () => {
     const c = await newClient();
     const { pass } = await grant(c.id);

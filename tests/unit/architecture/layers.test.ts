@@ -30,6 +30,8 @@ describe('layer rules', { timeout: 60_000 }, () => {
     ['db/probe.ts', "import { WidgetView } from '@/components/widget/widget-view';"],
     ['app/api/probe/route.ts', "import { getModel } from '@/db/models';"],
     ['app/app/probe/page.tsx', "import type { Firm } from '@/db/firms';"],
+    ['pages/embed/probe.tsx', "import { getFirm } from '@/db/firms';"],
+    ['pages/embed/probe.tsx', "import { demo } from '@/lib/dev/demo';"],
   ])('%s refuses %s', async (file, code) => {
     expect(await restricted(file, code)).toHaveLength(1);
   });
@@ -41,6 +43,7 @@ describe('layer rules', { timeout: 60_000 }, () => {
     ['components/models/probe.tsx', "import { normalCdf } from '@/lib/core/engine';"],
     ['db/probe.ts', "import type { StochosModel } from '@/lib/core/engine/schema';"],
     ['app/api/probe/route.ts', "import { modelList } from '@/lib/server/models/service';"],
+    ['pages/embed/probe.tsx', "import { viewerMessage } from '@/lib/server/embed/messages';"],
     ['lib/dev/seed/probe.ts', "import { hashPassword } from '@/lib/server/auth/password';"],
   ])('%s allows %s', async (file, code) => {
     expect(await restricted(file, code)).toEqual([]);
