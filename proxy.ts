@@ -1,6 +1,7 @@
 import { NextResponse, type NextRequest } from 'next/server';
 import { embedProxy } from '@/lib/server/embed/proxy';
 import { contentSecurityPolicy, hstsHeader, newNonce } from '@/lib/server/http/csp';
+import { FRAME_VERDICT_HEADER } from '@/lib/core/embed/frame-verdict';
 
 // Every page gets a Content-Security-Policy with a fresh script nonce (set on the request too, so Next puts the
 // nonce on its own scripts), and HSTS on an https deployment. Signed-out dashboard visitors are redirected to
@@ -23,6 +24,8 @@ export async function proxy(req: NextRequest) {
   const forward = new Headers(req.headers);
   forward.set('x-nonce', nonce);
   forward.set('content-security-policy', csp);
+  // Only embedProxy may hand the embed page a pass verdict: never pass on one a browser sent.
+  forward.delete(FRAME_VERDICT_HEADER);
   const res = NextResponse.next({ request: { headers: forward } });
   res.headers.set('Content-Security-Policy', csp);
   const hsts = hstsHeader(appUrl, development);

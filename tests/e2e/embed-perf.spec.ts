@@ -156,7 +156,8 @@ test('measure the embed’s first figures after the frame loads (demo stack-up, 
   // figures are marked failed for this engine build, so its page computes them in the browser (the path every page
   // took before first figures, with the one-request exchange).
   const demo = fdb.prepare('select panels, headline, dial_ids, brand_color from widgets where version_id = ?').get(widget.version_id) as { panels: string; headline: string; dial_ids: string; brand_color: string };
-  const refTitle = `${widget.title} (reference)`;
+  // Its own title, not the demo model's: later specs find the demo's models by their titles.
+  const refTitle = 'First-figures reference, computed in the browser';
   const refWidget = insertEmbedWidget(fdb, firmId, refTitle);
   const refRow = fdb.prepare('select model_id from widgets where id = ?').get(refWidget) as { model_id: string };
   const refVersion = randomUUID();

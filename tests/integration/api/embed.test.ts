@@ -1,5 +1,7 @@
 import { describe, it, expect, inject, beforeAll, afterAll } from 'vitest';
 import { randomUUID } from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
 import type Database from 'better-sqlite3';
 import { decodeJwt, decodeProtectedHeader } from 'jose';
 import { Client } from '../../support/http-client';
@@ -434,6 +436,12 @@ describe('headers', () => {
     const html = await res.text();
     expect(html).toMatch(/This widget link is not valid/);
     expect(html).not.toContain('__stochosStart');
+    // The page's data route (what a client-side navigation would fetch) gets no forged verdict either.
+    const buildId = fs.readFileSync(path.join(process.cwd(), '.next', 'BUILD_ID'), 'utf8').trim();
+    const data = await anon.request('GET', `/_next/data/${buildId}/embed/${randomUUID()}.json`, undefined, { 'x-stochos-embed-frame': forged, 'x-nextjs-data': '1' });
+    const body = await data.text();
+    expect(body).not.toContain('Forged');
+    expect(body).not.toContain('"view":"widget"');
   });
 
   it('shows the revoked message, framable by the client’s origins so its viewers can read it', async () => {
