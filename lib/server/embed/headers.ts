@@ -58,7 +58,3 @@ export async function embedFrame(pathname: string, nonce = ''): Promise<{ header
     verdict,
   };
 }
-
-export async function embedResponseHeaders(pathname: string, nonce = ''): Promise<Record<string, string>> {
-  return (await embedFrame(pathname, nonce)).headers;
-}

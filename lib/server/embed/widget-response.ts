@@ -33,9 +33,13 @@ export function widgetRepresentation(v: Pick<Granted, 'pass' | 'client' | 'widge
   };
   const restJson = JSON.stringify(rest);
   const etag = `"${createHash('sha256').update(w.versionId).update('\n').update(restJson).update('\n').update(first?.computedAt ?? '').digest('base64url').slice(0, 32)}"`;
-  const early = first && w.panels.includes('headline') ? earlyFigure(first, w.headline) : null;
-  const firstJson = first ? `,"firstFigures":{"computedAt":${JSON.stringify(first.computedAt)},"early":${JSON.stringify(early)},"result":${first.resultJson}}` : '';
-  return { etag, body: () => `${restJson.slice(0, -1)},"model":${modelJson(w.model)}${firstJson}}` };
+  // Only when a body is sent (a 304 needs none): the early words decode the stored result once per process.
+  const firstJson = () => {
+    if (!first) return '';
+    const early = w.panels.includes('headline') ? earlyFigure(first, w.headline) : null;
+    return `,"firstFigures":{"computedAt":${JSON.stringify(first.computedAt)},"early":${JSON.stringify(early)},"result":${first.resultJson}}`;
+  };
+  return { etag, body: () => `${restJson.slice(0, -1)},"model":${modelJson(w.model)}${firstJson()}}` };
 }
 
 /** RFC 9110 §13.1.2: If-None-Match uses the weak comparison; `*` matches any current representation. */

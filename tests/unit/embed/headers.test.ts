@@ -3,7 +3,9 @@ import { randomUUID } from 'node:crypto';
 import { useFreshDb } from '../../support/test-db';
 import { seedFirmWithWidget, memberOf } from './fixtures';
 import { createClient, createPass, passView, revokePass } from '@/lib/server/embed/service';
-import { embedCsp, embedResponseHeaders } from '@/lib/server/embed/headers';
+import { embedCsp, embedFrame } from '@/lib/server/embed/headers';
+
+const embedResponseHeaders = async (pathname: string) => (await embedFrame(pathname)).headers;
 import { embedSnippet, embedPageUrl } from '@/lib/server/embed/snippet';
 import { passStatus, passWorks, passRenewable } from '@/lib/core/embed/status';
 import { viewerDials } from '@/lib/core/embed/payload';
