@@ -16,7 +16,7 @@ import { FormulaForm } from './formula-form';
 import { DialsEditor } from './dials-editor';
 import { SettingsForm } from './settings-form';
 import { ImportExport } from './import-export';
-import { markStep } from '@/components/results/step-marks';
+import { markStep } from '@/lib/core/engine/step-marks';
 
 export interface ModelEditorProps {
   /** The model to edit (a saved version, an example, or a draft). */

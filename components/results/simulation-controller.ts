@@ -4,7 +4,7 @@
 import { ModelValidationError, RunCancelledError, type ModelIssue } from '@/lib/core/engine/errors';
 import type { Progress, RunResult, SampleSelection } from '@/lib/core/engine/simulate';
 import { withEarlierParts } from './staged-result';
-import { markStep } from './step-marks';
+import { markStep } from '@/lib/core/engine/step-marks';
 import type { WorkerRunOptions } from '@/lib/core/engine/worker-client';
 import type { CheckedModel } from '@/lib/core/engine/checked-model';
 

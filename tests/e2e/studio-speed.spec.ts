@@ -97,7 +97,7 @@ test('a 20-contributor stack at 50,000 trials: each edit reaches the figures (ti
       return w.__doneAt - w.__lastInput;
     });
     times.push(ms);
-    // Where this edit's time went, from the marks the page sets at each step (components/results/step-marks.ts).
+    // Where this edit's time went, from the marks the page sets at each step (lib/core/engine/step-marks.ts).
     steps.push(
       await page.evaluate(() => {
         const w = window as unknown as { __doneAt: number; __lastInput: number };

@@ -15,6 +15,7 @@ import { prepareRunWith, type ChunkPart, type PreparedRun } from './chunks';
 import { ModelValidationError, RunCancelledError, SamplingError, type SamplingErrorCode } from './errors';
 import { ColumnStore, inputWindow, mergeStaged, storedInputs, yieldToEventLoop, type Progress, type ResultStage, type RunResult, type SampleSelection } from './merge';
 import type { ModelCheck } from './set-dials';
+import { markStep } from './step-marks';
 import type { CheckedModel } from './checked-model';
 import { RankStore } from './stats';
 import { checkedRunCheck, type WorkerErrorPayload, type WorkerRequest, type WorkerResponse } from './worker-protocol';
@@ -148,11 +149,7 @@ export class EngineWorkerClient {
   private async finish(a: ActiveRun): Promise<void> {
     const live = () => this.merging === a.runId;
     this.merging = a.runId;
-    // A mark for profiles and the studio's speed check (the latest only, so none pile up).
-    if (typeof performance !== 'undefined' && performance.mark) {
-      performance.clearMarks('stochos:parts-in');
-      performance.mark('stochos:parts-in');
-    }
+    markStep('parts-in');
     this.active = null;
     a.cleanup();
     try {
