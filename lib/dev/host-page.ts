@@ -69,7 +69,7 @@ export function renderHostPage(o: { passes: HostPass[]; snippets: string[]; appU
 <main>
   <p class="meta">Project portal · Engineering reviews</p>
   <h1>Design review: shared models</h1>
-  <p class="lead">These models were prepared for us by ${esc(firmName)}. They run in your browser; nothing you try here changes the consultants’ signed-off version.</p>
+  <p class="lead">These models were prepared for us by ${esc(firmName)}. Move a dial and the figures are recomputed in your browser; nothing you try here changes the consultants’ signed-off version.</p>
   <div class="columns">${o.passes.length ? sections : empty}</div>
 </main>
 <footer>${esc(clientName)} · internal portal (an invented organisation for the Stochos demo)</footer>

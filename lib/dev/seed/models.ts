@@ -4,6 +4,7 @@ import type { Knex } from 'knex';
 import { writeTransaction } from '@/db/knex';
 import { newId } from '@/db/ids';
 import { recordAudit } from '@/db/audit';
+import { queueFirstFigures } from '@/lib/server/embed/first-figures';
 import { SCHEMA_ID, validateModel, type StochosModel, type StochosModelInput } from '@/lib/core/engine/schema';
 import { DEFAULT_PANELS } from '@/lib/core/models/widget-options';
 
@@ -182,6 +183,8 @@ async function seedModel(
     { firmId, actorUserId: m.publish.by, action: 'widget.published', targetType: 'widget', targetId: widgetId, detail: { modelId, number: m.publish.version, checkState: 'signed_off', seeded: true } },
     trx,
   );
+  // As publishing does: the server computes the widget's first figures, so the demo's first visit shows them at once.
+  await queueFirstFigures(firmId, versionIds[m.publish.version - 1]!, trx);
   return { modelId, widgetId };
 }
 

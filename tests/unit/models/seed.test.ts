@@ -10,6 +10,8 @@ import { resetEnvCache } from '@/lib/server/env';
 import { pumpClearanceV1, pumpClearanceV2, quayWallV1, seedModels } from '@/lib/dev/seed/models';
 import { listModels, listVersions } from '@/db/models';
 import { getPublishedWidget, listWidgets } from '@/db/widgets';
+import { listFirstFigures } from '@/db/first-figures';
+import { engineBuild } from '@/lib/server/embed/first-figures';
 
 // The demo models: valid, telling (the stack misses its limits at worst case but not by RSS), and seeded with a
 // signed-off, published version each, written by an author and checked by the demo checker.
@@ -98,6 +100,8 @@ describe('seedModels', () => {
       const pub = await getPublishedWidget(firmId, w.id);
       expect(pub?.checkerName).toBe('checker');
       expect(pub?.dialIds.length).toBeGreaterThan(0);
+      // Queued as publishing queues them, so the demo's first visit gets the server's first figures.
+      expect(await listFirstFigures(firmId, w.versionId)).toEqual([expect.objectContaining({ engineBuild: engineBuild(), state: 'queued' })]);
     }
   });
 
